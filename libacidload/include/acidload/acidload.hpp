@@ -1,0 +1,3 @@
+#pragma once
+// acidload: the main API. Include this one header; link acidload::acidload.
+#include "acidload/core.hpp"

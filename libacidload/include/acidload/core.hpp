@@ -1,0 +1,29 @@
+#pragma once
+// acidload::core — the physics, in SI doubles. Units inside the core, one table:
+//
+//   quantity                    unit            note
+//   time                        h               hours throughout: segments, rates "per hour"
+//   amount of substance         mol             gas volumes at a reference state are amounts
+//   molar flow                  mol/h
+//   mass                        kg              oil mass; molar masses in kg/mol
+//   volume                      m³
+//   temperature                 K               inputs in °C are converted at the boundary
+//   pressure                    Pa
+//   power                       W               electrical output; energy in J
+//   molar heating value         J/mol
+//   mole fraction               mol/mol         "ppmv" only at the boundary
+//   acid and base numbers       mg KOH/g        TBN, TAN, SAN and every oil concentration
+//   base-equivalent flow        g KOH/h         acid inflow as the KOH it neutralises;
+//                                               g KOH/h ÷ kg oil = mg KOH/g per hour
+//   oxidation, nitration        A/cm            FTIR, per cm of path length
+//
+// Every field's comment repeats its unit in brackets.
+#include "acidload/core/constants.hpp"
+#include "acidload/core/error.hpp"
+#include "acidload/core/fuel.hpp"
+#include "acidload/core/heating_value.hpp"
+#include "acidload/core/gas.hpp"
+#include "acidload/core/halocarbons.hpp"
+#include "acidload/core/species.hpp"
+#include "acidload/core/version.hpp"
+#include "acidload/core/water.hpp"

@@ -1,0 +1,18 @@
+#pragma once
+// Physical constants and reference conditions [SI].
+namespace acidload::constants {
+
+inline constexpr double molar_gas_constant = 8.314462618;   //!< R [J/(mol·K)], exact (CODATA 2018)
+inline constexpr double standard_atmosphere = 101325.0;     //!< [Pa], exact by definition
+inline constexpr double zero_celsius = 273.15;              //!< 0 °C [K], exact by definition
+inline constexpr double mmhg = 133.322387415;               //!< 1 mmHg [Pa] (101325/760)
+inline constexpr double hours_per_second = 1.0 / 3600.0;    //!< [h/s]
+inline constexpr double seconds_per_hour = 3600.0;          //!< [s/h]
+//! Dry air mole fractions N2, O2, Ar, CO2 (US Standard Atmosphere 1976 / ISO 2533 composition,
+//! from memory; CO2 as in that composition, lower than today's ≈ 420 ppm). Sum is 1.
+inline constexpr double air_n2 = 0.78084;                   //!< [mol/mol]
+inline constexpr double air_o2 = 0.20946;                   //!< [mol/mol]
+inline constexpr double air_ar = 0.00934;                   //!< [mol/mol]
+inline constexpr double air_co2 = 0.00036;                  //!< [mol/mol]
+
+}  // namespace acidload::constants

@@ -1,0 +1,70 @@
+#pragma once
+// The one exception hierarchy of acidload, rooted at std::runtime_error.
+//   acidload::Error                 anything acidload reports
+//   ├── acidload::InputError        a value the user gave is wrong (where, key, value, expected)
+//   ├── acidload::NotModelledError  a valid request outside what the model covers
+//   └── acidload::NoAnswerError     an inverse question with no answer in the given range
+#include <stdexcept>
+#include <string>
+
+namespace acidload {
+
+//! Where an input value came from: a file position (1-based) and/or a key path.
+struct InputWhere {
+  std::string file;       //!< file name, empty for values given through the API
+  int line = 0;           //!< 1-based line, 0 when unknown
+  int column = 0;         //!< 1-based column, 0 when unknown
+  std::string line_text;  //!< the offending line of the file, for the caret display
+};
+
+class Error : public std::runtime_error {
+ public:
+  using std::runtime_error::runtime_error;
+};
+
+//! A value given by the user is missing, malformed or outside its accepted range.
+class InputError : public Error {
+ public:
+  //! key: key path ("engine.blow-by") or field name; value: the text given; expected: what is accepted.
+  InputError(std::string key, std::string value, std::string expected, InputWhere where = {});
+  const std::string& key() const noexcept { return key_; }
+  const std::string& value() const noexcept { return value_; }
+  const std::string& expected() const noexcept { return expected_; }
+  const InputWhere& where() const noexcept { return where_; }
+
+ private:
+  std::string key_, value_, expected_;
+  InputWhere where_;
+};
+
+//! A request that is valid but outside the model (e.g. rich combustion, λ < 1).
+class NotModelledError : public Error {
+ public:
+  using Error::Error;
+};
+
+//! An inverse question whose answer does not lie in the range searched.
+class NoAnswerError : public Error {
+ public:
+  using Error::Error;
+};
+
+//! Formats a double the way messages show it (shortest round-trip form).
+std::string format_value(double v);
+
+namespace check {
+//! Throws InputError unless v is finite. Returns v.
+double finite(const char* field, double v);
+//! Throws unless v is finite and v >= 0.
+double non_negative(const char* field, double v);
+//! Throws unless v is finite and v > 0.
+double positive(const char* field, double v);
+//! Throws unless 0 <= v <= 1 (a fraction or share).
+double fraction(const char* field, double v);
+//! Throws unless lo <= v <= hi; unit names the unit of lo and hi in the message.
+double in_range(const char* field, double v, double lo, double hi, const char* unit);
+//! Throws unless v is a thermodynamic temperature above absolute zero [K].
+double temperature(const char* field, double v);
+}  // namespace check
+
+}  // namespace acidload

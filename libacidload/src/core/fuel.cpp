@@ -1,0 +1,92 @@
+#include "acidload/core/fuel.hpp"
+
+#include <cmath>
+
+#include "acidload/core/constants.hpp"
+#include "acidload/core/error.hpp"
+#include "acidload/core/halocarbons.hpp"
+
+namespace acidload {
+
+double FuelGas::sulfur() const { return x[static_cast<std::size_t>(Gas::H2S)] + other_sulfur; }
+
+double lower_heating_value(const FuelGas& f) {
+  double h = 0;
+  for (Gas g : all_gases) h += f[g] * net_molar_heating_value(g, f.combustion);  // Σ x_i H_i
+  return h;
+}
+
+double lower_heating_value_volumetric(const FuelGas& f) {
+  return lower_heating_value(f) / molar_volume(f.reference);
+}
+
+GasContext context(const FuelGas& f, double molar_flow) {
+  GasContext c;
+  c.reference = f.reference;
+  c.water_fraction = f[Gas::H2O];
+  c.methane_fraction = f[Gas::CH4];
+  c.lhv_molar = lower_heating_value(f);
+  c.molar_flow = molar_flow;
+  return c;
+}
+
+namespace {
+constexpr Gas main_species[] = {Gas::CH4, Gas::CO2, Gas::N2, Gas::O2, Gas::H2, Gas::C2H6, Gas::C3H8, Gas::Ar};
+}
+
+FuelGas resolve(const FuelAnalysis& a) {
+  validate(a.reference);
+  check::in_range("fuel.water", a.water_fraction, 0.0, 0.5, "mol/mol");
+  double sum_main = 0;
+  for (Gas g : main_species) {
+    const double v = a.main[static_cast<std::size_t>(g)];
+    check::fraction(("fuel.composition." + std::string(formula_text(g))).c_str(), v);
+    sum_main += v;
+  }
+  // Main components are normalised to fill what the water and the H2S leave (on either basis the
+  // stated fractions are shares of that remainder). Contaminant figures on the wet basis need the
+  // wet composition, and figures per MJ the LHV, which depends slightly on the H2S: a fixed point
+  // that converges to machine precision in a few passes (the H2S share of the LHV is ~1e-4).
+  const double expected_sum = a.main_basis == Basis::dry ? 1.0 : 1.0 - a.water_fraction;
+  if (!(std::fabs(sum_main - expected_sum) <= 0.1))
+    throw InputError("fuel.composition", format_value(sum_main * 100) + " % in all",
+                     "main components summing to " + format_value(expected_sum * 100) +
+                         " % (within 10 points); they are normalised");
+  FuelGas f;
+  f.reference = a.reference;
+  f.combustion = a.combustion;
+  f.x[static_cast<std::size_t>(Gas::H2O)] = a.water_fraction;
+  double h2s = 0;  // wet mole fraction of H2S
+  for (int pass = 0; pass < 50; ++pass) {
+    const double scale = (1.0 - a.water_fraction - h2s) / sum_main;
+    for (Gas g : main_species) f.x[static_cast<std::size_t>(g)] = a.main[static_cast<std::size_t>(g)] * scale;
+    f.x[static_cast<std::size_t>(Gas::H2S)] = h2s;
+    const GasContext c = context(f);
+    const double h2s_new = to_wet_mole_fraction(a.h2s, molar_mass(Gas::H2S), c);
+    f.other_sulfur = to_wet_mole_fraction(a.other_sulfur, atomic_weight(Element::S) * 1e-3, c);
+    f.chlorine = to_wet_mole_fraction(a.chlorine, atomic_weight(Element::Cl) * 1e-3, c);
+    f.fluorine = to_wet_mole_fraction(a.fluorine, atomic_weight(Element::F) * 1e-3, c);
+    for (const auto& h : a.halocarbons) {  // per compound, by formula: x_Cl += x_i n_Cl,i
+      const Formula fm = parse_formula(find_halocarbon(h.compound).formula);
+      const double xc = to_wet_mole_fraction(h.amount, molar_mass(fm), c);
+      f.chlorine += xc * fm[Element::Cl];
+      f.fluorine += xc * fm[Element::F];
+    }
+    const bool settled = pass > 0 && std::fabs(h2s_new - h2s) <= 1e-16 * (1 + h2s_new);
+    h2s = h2s_new;
+    if (h2s >= 0.2) break;
+    if (settled) break;
+  }
+  if (f[Gas::H2S] >= 0.2)
+    throw InputError("fuel.h2s", format_value(f[Gas::H2S] * 1e6) + " ppmv", "an H2S content below 20 %");
+  return f;
+}
+
+double fuel_flow_from_power(double electrical_power, double electrical_efficiency, double lhv_molar) {
+  check::non_negative("engine.electrical-power", electrical_power);
+  check::in_range("engine.electrical-efficiency", electrical_efficiency, 0.01, 0.7, "(fraction)");
+  check::positive("fuel.lower-heating-value", lhv_molar);
+  return electrical_power / (electrical_efficiency * lhv_molar) * constants::seconds_per_hour;
+}
+
+}  // namespace acidload

@@ -1,0 +1,62 @@
+#include "acidload/core/halocarbons.hpp"
+
+#include <string>
+
+#include "acidload/core/error.hpp"
+
+namespace acidload {
+
+const std::vector<Halocarbon>& halocarbon_table() {
+  static const std::vector<Halocarbon> t = {
+      {"chloromethane", "CH3Cl"},
+      {"dichloromethane", "CH2Cl2"},
+      {"trichloromethane", "CHCl3"},
+      {"tetrachloromethane", "CCl4"},
+      {"chloroethane", "C2H5Cl"},
+      {"chloroethene", "C2H3Cl"},           // vinyl chloride
+      {"1,1-dichloroethene", "C2H2Cl2"},
+      {"cis-1,2-dichloroethene", "C2H2Cl2"},
+      {"1,1-dichloroethane", "C2H4Cl2"},
+      {"1,2-dichloroethane", "C2H4Cl2"},
+      {"1,1,1-trichloroethane", "C2H3Cl3"},
+      {"trichloroethene", "C2HCl3"},
+      {"tetrachloroethene", "C2Cl4"},
+      {"chlorobenzene", "C6H5Cl"},
+      {"1,4-dichlorobenzene", "C6H4Cl2"},
+      {"trichlorofluoromethane", "CCl3F"},  // CFC-11
+      {"dichlorodifluoromethane", "CCl2F2"},  // CFC-12
+      {"chlorodifluoromethane", "CHClF2"},  // HCFC-22
+      {"dichlorofluoromethane", "CHCl2F"},  // HCFC-21
+      {"1,1,2-trichloro-1,2,2-trifluoroethane", "C2Cl3F3"},  // CFC-113
+      {"1,2-dichloro-1,1,2,2-tetrafluoroethane", "C2Cl2F4"},  // CFC-114
+      {"chlorotrifluoroethene", "C2ClF3"},
+      {"1,1-dichloro-1-fluoroethane", "C2H3Cl2F"},  // HCFC-141b
+      {"1-chloro-1,1-difluoroethane", "C2H3ClF2"},  // HCFC-142b
+  };
+  return t;
+}
+
+const Halocarbon& find_halocarbon(std::string_view key) {
+  for (const auto& h : halocarbon_table())
+    if (h.name == key) return h;
+  const Halocarbon* by_formula = nullptr;
+  for (const auto& h : halocarbon_table())
+    if (h.formula == key && !by_formula) by_formula = &h;
+  if (by_formula) return *by_formula;
+  std::string known;
+  for (const auto& h : halocarbon_table()) known += (known.empty() ? "" : ", ") + std::string(h.name);
+  throw InputError("compound", std::string(key), "a halocarbon name or formula: " + known);
+}
+
+HalogenTotals halogen_totals(const std::vector<CompoundFraction>& compounds) {
+  HalogenTotals t;
+  for (const auto& c : compounds) {
+    const Formula f = parse_formula(find_halocarbon(c.compound).formula);
+    check::fraction("compound mole fraction", c.mole_fraction);
+    t.chlorine += c.mole_fraction * f[Element::Cl];  // x_Cl = Σ x_i n_Cl,i
+    t.fluorine += c.mole_fraction * f[Element::F];
+  }
+  return t;
+}
+
+}  // namespace acidload

@@ -1,0 +1,1 @@
+// acidload::studies is filled by the timeline simulation (oil-balance issue).
