@@ -19,6 +19,7 @@
 //
 // Every field's comment repeats its unit in brackets.
 #include "acidload/core/constants.hpp"
+#include "acidload/core/dew_points.hpp"
 #include "acidload/core/error.hpp"
 #include "acidload/core/fuel.hpp"
 #include "acidload/core/heating_value.hpp"
