@@ -1,4 +1,4 @@
-// Reference checks for the acid dew points. Source beside each.
+// Reference checks for the acid dew points and the SO2 + ½ O2 ⇌ SO3 equilibrium. Source beside each.
 #include "../support/reference_check.hpp"
 
 #include <algorithm>
@@ -6,6 +6,7 @@
 
 #include "acidload/core/constants.hpp"
 #include "acidload/core/dew_points.hpp"
+#include "acidload/core/so3_equilibrium.hpp"
 
 using namespace acidload;
 
@@ -82,4 +83,40 @@ TEST_CASE("Kiang: HCl dew point") {
   REFERENCE_CHECK("HCl dew point, 12 % H2O, 500 ppmv HCl",
                   dew_point::hydrochloric_kiang(0.12 * atm, 500e-6 * atm) - c0, 55.0, absolute, 5.0, "degC",
                   "typical flue-gas HCl dew point 50-60 degC, from memory");
+}
+
+TEST_CASE("SO3 thermochemistry reproduces the JANAF values") {
+  using so3::Species;
+  // NIST-JANAF (Chase 1998): SO3 S°(298.15 K) = 256.77 J/(mol·K), ΔfH° = -395.77 kJ/mol [seen].
+  // The Shomate fits give 256.766 and -395.766; tolerance 0.01, half the last published digit
+  // plus the fit's residual.
+  REFERENCE_CHECK("S0 SO3 298.15 K", so3::standard_entropy(Species::SO3, 298.15), 256.77, absolute, 0.01,
+                  "J/(mol K)", "NIST-JANAF, Chase 1998 [seen]");
+  REFERENCE_CHECK("dfH0 SO3 298.15 K", so3::standard_enthalpy(Species::SO3, 298.15) * 1e-3, -395.77, absolute,
+                  0.01, "kJ/mol", "NIST-JANAF, Chase 1998 [seen]");
+  // SO2 S° = 248.223 J/(mol·K) (NIST WebBook from Cox, Wagman et al. 1984; seen in a public
+  // transcription of the WebBook record). The 1998 fit gives 248.210: tolerance 0.02.
+  REFERENCE_CHECK("S0 SO2 298.15 K", so3::standard_entropy(Species::SO2, 298.15), 248.223, absolute, 0.02,
+                  "J/(mol K)", "NIST WebBook (Cox, Wagman et al. 1984), via a transcription [seen]");
+  // O2 S° = 205.152 J/(mol·K) (CODATA Key Values 1989, from memory); the fit gives 205.147.
+  REFERENCE_CHECK("S0 O2 298.15 K", so3::standard_entropy(Species::O2, 298.15), 205.152, absolute, 0.01,
+                  "J/(mol K)", "CODATA Key Values 1989, from memory");
+}
+
+TEST_CASE("SO2 + 1/2 O2 = SO3: Kp and directions") {
+  // Kp(1000 K) ≈ 1.8 bar^-1/2 (REFERENCES.md [derived from JANAF]); the data give 1.806.
+  // Tolerance 0.05: half the last digit given.
+  REFERENCE_CHECK("Kp SO2 oxidation 1000 K", so3::kp(1000.0), 1.8, absolute, 0.05, "bar^-0.5",
+                  "REFERENCES.md [derived from JANAF]");
+  // The reaction is exothermic, so Kp falls with temperature (Le Chatelier).
+  for (double T = 400; T < 3000; T += 100) {
+    INFO("T = " << T);
+    CHECK(so3::kp(T + 100) < so3::kp(T));
+  }
+  // More O2 drives it to SO3.
+  for (double T : {800.0, 1000.0, 1200.0}) {
+    INFO("T = " << T);
+    CHECK(so3::equilibrium_so3_share(T, 0.10, atm) > so3::equilibrium_so3_share(T, 0.05, atm));
+    CHECK(so3::equilibrium_so3_share(T, 0.15, atm) > so3::equilibrium_so3_share(T, 0.10, atm));
+  }
 }

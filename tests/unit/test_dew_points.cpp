@@ -1,4 +1,4 @@
-// Unit tests: acid dew points (directions, validation, fitted ranges).
+// Unit tests: acid dew points (directions, validation, fitted ranges) and the SO3 equilibrium.
 #include <doctest/doctest.h>
 
 #include <cmath>
@@ -8,6 +8,7 @@
 #include "acidload/core/constants.hpp"
 #include "acidload/core/dew_points.hpp"
 #include "acidload/core/error.hpp"
+#include "acidload/core/so3_equilibrium.hpp"
 #include "acidload/core/water.hpp"
 
 using namespace acidload;
@@ -96,4 +97,30 @@ TEST_CASE("fitted ranges") {
   CHECK(r.p_h2o_min < r.p_h2o_max);
   CHECK(r.p_acid_min < r.p_acid_max);
   CHECK(dew_point::in_fitted_range_verhoff_banchero(r.p_h2o_min, r.p_acid_max));
+}
+
+TEST_CASE("SO3 equilibrium: range, continuity and limits") {
+  CHECK_THROWS_AS(so3::kp(so3::t_min - 1), InputError);
+  CHECK_THROWS_AS(so3::kp(so3::t_max + 1), InputError);
+  CHECK_THROWS_AS(so3::kp(std::numeric_limits<double>::quiet_NaN()), InputError);
+  CHECK_THROWS_AS(so3::standard_entropy(so3::Species::SO3, 200.0), InputError);
+  CHECK_THROWS_AS(so3::equilibrium_so3_share(1000, 1.5, atm), InputError);
+  CHECK_THROWS_AS(so3::equilibrium_so3_share(1000, 0.1, 0.0), InputError);
+  // The Shomate segments meet at 700, 1200 and 2000 K: Kp continuous to 1e-3 relative.
+  for (double tb : {700.0, 1200.0, 2000.0}) {
+    INFO("boundary " << tb);
+    const double lo = so3::kp(tb - 1e-6), hi = so3::kp(tb + 1e-6);
+    CHECK(std::fabs(hi - lo) / lo < 1e-3);
+  }
+  // No O2, no SO3; the share is a fraction; higher pressure drives it to SO3.
+  CHECK(so3::equilibrium_so3_share(1000, 0.0, atm) == 0.0);
+  for (double T = 300; T <= 3000; T += 100) {
+    const double s = so3::equilibrium_so3_share(T, 0.1, atm);
+    CHECK(s >= 0.0);
+    CHECK(s <= 1.0);
+    if (T >= 600) CHECK(so3::equilibrium_so3_share(T, 0.1, 100 * atm) > s);
+  }
+  // The share follows Kp: r = Kp·sqrt(x_O2·p/p°).
+  const double r = so3::kp(1000) * std::sqrt(0.1 * 2e5 / so3::standard_pressure);
+  CHECK(so3::equilibrium_so3_share(1000, 0.1, 2e5) == doctest::Approx(r / (1 + r)).epsilon(1e-12));
 }

@@ -25,6 +25,7 @@
 #include "acidload/core/heating_value.hpp"
 #include "acidload/core/gas.hpp"
 #include "acidload/core/halocarbons.hpp"
+#include "acidload/core/so3_equilibrium.hpp"
 #include "acidload/core/species.hpp"
 #include "acidload/core/version.hpp"
 #include "acidload/core/water.hpp"
