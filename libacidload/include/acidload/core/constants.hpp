@@ -5,7 +5,7 @@ namespace acidload::constants {
 inline constexpr double molar_gas_constant = 8.314462618;   //!< R [J/(mol·K)], exact (CODATA 2018)
 inline constexpr double standard_atmosphere = 101325.0;     //!< [Pa], exact by definition
 inline constexpr double zero_celsius = 273.15;              //!< 0 °C [K], exact by definition
-inline constexpr double mmhg = 133.322387415;               //!< 1 mmHg [Pa] (101325/760)
+inline constexpr double mmhg = 133.322387415;               //!< 1 conventional mmHg [Pa] (13.5951 g/cm³ · 1 mm · g_n; the torr, 101325/760, differs by 1.4e-7)
 inline constexpr double hours_per_second = 1.0 / 3600.0;    //!< [h/s]
 inline constexpr double seconds_per_hour = 3600.0;          //!< [s/h]
 //! Dry air mole fractions N2, O2, Ar, CO2 (US Standard Atmosphere 1976 / ISO 2533 composition,

@@ -1,0 +1,101 @@
+#pragma once
+// The two paths of acid into the oil (MODEL §5): condensation on the cylinder liner, scraped into
+// the sump, and blow-by gas into the crankcase. Rates per hour for one operating state.
+#include <array>
+
+#include "acidload/core/combustion.hpp"
+#include "acidload/core/fuel.hpp"
+
+namespace acidload {
+
+//! The calibratable transfer parameters. Defaults reproduce MODEL §8's sanity range (0.1–0.5 % of
+//! fuel sulfur into the oil for a 1 MW engine at 300 ppmv H2S); fit them to lab data (§10).
+struct TransferParameters {
+  double so3_share = 0.02;              //!< ε, fuel S to SO3 in the cylinder [-]; 0.5–2.4 % measured (Cordtz 2013)
+  double liner_uptake = 2.5e-4;         //!< λ_L, share of fuel S taken up by the liner per 10 K of subcooling [-]
+  double liner_subcooling_scale = 5;    //!< ΔT_s, softplus width of the liner uptake [K]
+  double liner_wall_rise = 40;          //!< ΔT_liner at full load, liner wall over jacket-water outlet [K]
+  double liner_wall_rise_load_exponent = 1;  //!< ΔT_liner = rise · load^exponent [-]
+  double liner_pressure = 30e5;         //!< cylinder pressure at which acid condenses on the liner [Pa]
+  double cylinder_dew_point_offset = 0; //!< added to the correlation's in-cylinder acid dew point [K]
+  double burnt_share_of_blowby = 0.7;   //!< share of blow-by that is burnt gas; the rest is unburnt mixture [-]
+  double capture_so3 = 1;               //!< κ, share of blow-by SO3 taken up by the oil [-]
+  double capture_hcl = 1;               //!< κ, share of blow-by HCl taken up [-]
+  double capture_hf = 1;                //!< κ, share of blow-by HF taken up [-]
+  double capture_so2 = 0.1;             //!< κ_SO2, share of blow-by SO2 taken up by fresh oil in a dry crankcase [-]
+  double wet_so2_factor = 3;            //!< m_wet, SO2 uptake in a wet crankcase over a dry one [-]
+  double wetness_scale = 3;             //!< width of the condensation step at the coldest surface [K]
+  double warmup_hours = 0.5;            //!< time a start keeps the crankcase wet [h] (tens of minutes, from memory)
+  double capture_no2 = 0.01;            //!< κ_N, share of blow-by NO2 taken up (nitric acid, nitration) [-]
+};
+//! Validates the parameters (shares in [0,1], scales > 0); throws InputError naming the field.
+void validate(const TransferParameters& p);
+
+//! One operating state of the engine.
+struct Operation {
+  double fuel_flow = 0;              //!< wet fuel gas [mol/h]
+  double electrical_power = 0;       //!< output [W]; used for NOx in g/kWh
+  double load = 1;                   //!< output over rated output [-]
+  Air air;                           //!< excess-air ratio and humidity
+  double blowby_share = 0.01;        //!< blow-by as a share of the charge [-] (used when blowby_flow is 0)
+  double blowby_flow = 0;            //!< blow-by [mol/h]; overrides the share when > 0
+  double jacket_water_out = 363.15;  //!< jacket-water outlet temperature [K]
+  double coldest_crankcase_surface = 333.15;  //!< coldest surface the blow-by wets (breather, covers) [K]
+  double crankcase_pressure = 101325;         //!< [Pa]
+  double exhaust_pressure = 101325;           //!< at the heat-recovery exchanger [Pa]
+  double starts_per_hour = 0;        //!< engine starts per operating hour [1/h]
+  NoxEmission nox;                   //!< engine-out NOx
+};
+//! Validates an operating state; throws InputError naming the field.
+void validate(const Operation& op);
+
+//! Acid reaching the oil, per species [mol/h], and as base equivalents [g KOH/h].
+struct AcidInflow {
+  double sulfuric_liner = 0;      //!< S condensed on the liner, as H2SO4 [mol/h]
+  double sulfuric_blowby = 0;     //!< SO3 of the blow-by taken up, as H2SO4 [mol/h]
+  double sulfurous_fresh = 0;     //!< SO2 of the blow-by taken up by fresh oil [mol/h]; scales with (b − b_min)/(b_fresh − b_min)
+  double hydrochloric = 0;        //!< HCl [mol/h]
+  double hydrofluoric = 0;        //!< HF [mol/h]
+  double nitric = 0;              //!< NO2 taken up, as HNO3 [mol/h]
+  double strong_koh() const;      //!< everything but SO2, as KOH [g KOH/h]: R_strong of MODEL §8
+  double sulfurous_fresh_koh() const;  //!< SO2 uptake by fresh oil, 2 equivalents per S [g KOH/h]
+};
+
+//! What one operating state sends where.
+struct Transfer {
+  Combustion combustion;             //!< per mole of fuel, NOx included
+  double fuel_flow = 0;              //!< [mol/h]
+  double sulfur_flow = 0;            //!< fuel S [mol/h]
+  double charge_flow = 0;            //!< fuel + air [mol/h]
+  double blowby_flow = 0;            //!< [mol/h]
+  double cylinder_acid_dew_point = 0;  //!< in-cylinder H2SO4 dew point at liner_pressure [K] (0 without S)
+  double liner_temperature = 0;      //!< lower liner wall [K]
+  double liner_subcooling = 0;       //!< dew point − liner wall [K]
+  double liner_share = 0;            //!< share of fuel S taken up on the liner [-]
+  double blowby_water_dew_point = 0; //!< water dew point of the blow-by at crankcase pressure [K]
+  double wetness = 0;                //!< w, crankcase wetness [0–1]
+  AcidInflow inflow;                 //!< acid into the oil
+  std::array<double, gas_count> exhaust{};  //!< exhaust leaving the cylinders, after liner uptake [mol/h]
+  std::array<double, gas_count> blowby_burnt{};    //!< burnt part of the blow-by, before uptake [mol/h]
+  std::array<double, gas_count> blowby_unburnt{};  //!< unburnt part of the blow-by [mol/h]
+  double unburnt_sulfur = 0, unburnt_chlorine = 0, unburnt_fluorine = 0;  //!< trace atoms (other S, organic Cl, F) in the unburnt blow-by [mol/h]
+  //! Species taken up by the oil (SO2, SO3, HCl, HF, NO2) at base ratio r = (b − b_min)/(b_fresh − b_min) [mol/h].
+  std::array<double, gas_count> oil_uptake(double base_ratio) const;
+  //! Blow-by vented from the crankcase at base ratio r [mol/h].
+  std::array<double, gas_count> blowby_vented(double base_ratio) const;
+  //! Share of the fuel sulfur reaching the oil at base ratio r [-].
+  double sulfur_share_to_oil(double base_ratio) const;
+};
+
+//! Smooth liner uptake factor g(Δ) = (ΔT_s/10 K)·ln(1 + e^{Δ/ΔT_s}): ~0 well above the dew point,
+//! ≈ Δ/10 K well below it (softplus; MODEL §5) [-].
+double liner_uptake_factor(double subcooling, double scale);
+//! Crankcase wetness w = 1 − (1 − w_s)(1 − f_w): w_s = 1/(1 + e^{−(T_dp − T_cold)/scale}) from the
+//! coldest wetted surface, f_w = min(1, starts per hour · warm-up hours) from cold running [0–1].
+double crankcase_wetness(double blowby_dew_point, double coldest_surface, double scale,
+                         double starts_per_hour, double warmup_hours);
+
+//! The transfer of one operating state.
+Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParameters& p);
+
+}  // namespace acidload

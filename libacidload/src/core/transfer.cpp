@@ -1,0 +1,177 @@
+#include "acidload/core/transfer.hpp"
+
+#include <cmath>
+
+#include "acidload/core/dew_points.hpp"
+#include "acidload/core/error.hpp"
+#include "acidload/core/water.hpp"
+
+namespace acidload {
+
+namespace {
+constexpr std::size_t i(Gas g) { return static_cast<std::size_t>(g); }
+}  // namespace
+
+void validate(const TransferParameters& p) {
+  check::fraction("so3-share", p.so3_share);
+  check::in_range("liner-uptake", p.liner_uptake, 0.0, 0.1, "(share of fuel S per 10 K)");
+  check::positive("liner-subcooling-scale", p.liner_subcooling_scale);
+  check::in_range("liner-wall-rise", p.liner_wall_rise, 0.0, 200.0, "K");
+  check::in_range("liner-wall-rise-load-exponent", p.liner_wall_rise_load_exponent, 0.0, 3.0, "");
+  check::in_range("liner-pressure", p.liner_pressure, 1e5, 300e5, "Pa");
+  check::in_range("cylinder-dew-point-offset", p.cylinder_dew_point_offset, -100.0, 100.0, "K");
+  check::fraction("burnt-share-of-blow-by", p.burnt_share_of_blowby);
+  check::fraction("capture-so3", p.capture_so3);
+  check::fraction("capture-hcl", p.capture_hcl);
+  check::fraction("capture-hf", p.capture_hf);
+  check::fraction("capture-so2", p.capture_so2);
+  check::in_range("wet-so2-factor", p.wet_so2_factor, 1.0, 100.0, "");
+  check::positive("wetness-scale", p.wetness_scale);
+  check::in_range("warm-up-time", p.warmup_hours, 0.0, 24.0, "h");
+  check::fraction("capture-no2", p.capture_no2);
+}
+
+void validate(const Operation& op) {
+  check::non_negative("fuel-flow", op.fuel_flow);
+  check::non_negative("engine.electrical-power", op.electrical_power);
+  check::in_range("engine.load", op.load, 0.05, 1.2, "(share of rated output)");
+  check::fraction("engine.blow-by", op.blowby_share);
+  check::non_negative("engine.blow-by-flow", op.blowby_flow);
+  check::in_range("engine.jacket-water-out", op.jacket_water_out, 273.15, 423.15, "K");
+  check::in_range("engine.coldest-crankcase-surface", op.coldest_crankcase_surface, 233.15, 423.15, "K");
+  check::in_range("engine.crankcase-pressure", op.crankcase_pressure, 5e4, 2e5, "Pa");
+  check::in_range("engine.exhaust-pressure", op.exhaust_pressure, 5e4, 5e5, "Pa");
+  check::in_range("engine.starts-per-hour", op.starts_per_hour, 0.0, 10.0, "1/h");
+}
+
+double AcidInflow::strong_koh() const {
+  const double eq = koh_equivalents(Acid::H2SO4) * (sulfuric_liner + sulfuric_blowby) +
+                    koh_equivalents(Acid::HCl) * hydrochloric + koh_equivalents(Acid::HF) * hydrofluoric +
+                    koh_equivalents(Acid::HNO3) * nitric;  // [mol KOH/h]
+  return eq * koh_molar_mass() * 1e3;                     // [g KOH/h]
+}
+
+double AcidInflow::sulfurous_fresh_koh() const {
+  return 2 * sulfurous_fresh * koh_molar_mass() * 1e3;  // SO2 counts 2 equivalents (MODEL §2)
+}
+
+double liner_uptake_factor(double subcooling, double scale) {
+  const double z = subcooling / scale;
+  // softplus, written to neither overflow for large z nor lose digits for very negative z
+  const double sp = z > 0 ? z + std::log1p(std::exp(-z)) : std::log1p(std::exp(z));
+  return scale / 10.0 * sp;
+}
+
+double crankcase_wetness(double dew, double cold, double scale, double starts_per_hour, double warmup) {
+  const double ws = 1.0 / (1.0 + std::exp(-(dew - cold) / scale));  // condensation at the coldest surface
+  const double fw = std::fmin(1.0, starts_per_hour * warmup);       // share of time warming up
+  return 1.0 - (1.0 - ws) * (1.0 - fw);
+}
+
+Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParameters& p) {
+  validate(op);
+  validate(p);
+  Transfer t;
+  t.fuel_flow = op.fuel_flow;
+  t.sulfur_flow = fuel.sulfur() * op.fuel_flow;
+  t.combustion = burn(fuel, op.air, p.so3_share);
+  add_nox(t.combustion, op.fuel_flow > 0 ? nox_per_mol_fuel(t.combustion, op.nox, op.fuel_flow, op.electrical_power) : 0);
+  const Combustion& c = t.combustion;
+  t.charge_flow = op.fuel_flow * c.charge();
+  t.blowby_flow = op.blowby_flow > 0 ? op.blowby_flow : op.blowby_share * t.charge_flow;
+  if (t.blowby_flow > 0.2 * t.charge_flow && t.charge_flow > 0)
+    throw InputError("engine.blow-by-flow", format_value(t.blowby_flow) + " mol/h",
+                     "blow-by below 20 % of the charge (" + format_value(0.2 * t.charge_flow) + " mol/h)");
+  const double bb_charge_share = t.charge_flow > 0 ? t.blowby_flow / t.charge_flow : 0;
+
+  // Burnt gas per mole of charge, and the three streams leaving the cylinders [mol/h].
+  const double burnt_fuel = op.fuel_flow * (1 - bb_charge_share);  // fuel burnt in the cylinder proper
+  const double bb_burnt_fuel = op.fuel_flow * bb_charge_share * p.burnt_share_of_blowby;
+  const double bb_unburnt_fuel = op.fuel_flow * bb_charge_share * (1 - p.burnt_share_of_blowby);
+  for (Gas g : all_gases) {
+    t.exhaust[i(g)] = burnt_fuel * c.products[i(g)];
+    t.blowby_burnt[i(g)] = bb_burnt_fuel * c.products[i(g)];
+    t.blowby_unburnt[i(g)] = bb_unburnt_fuel * (fuel[g] + c.air_moles[i(g)]);
+  }
+  t.unburnt_sulfur = bb_unburnt_fuel * fuel.other_sulfur;
+  t.unburnt_chlorine = bb_unburnt_fuel * fuel.chlorine;
+  t.unburnt_fluorine = bb_unburnt_fuel * fuel.fluorine;
+
+  // Liner path: acid condensing on the liner below the in-cylinder acid dew point.
+  t.liner_temperature = op.jacket_water_out + p.liner_wall_rise * std::pow(op.load, p.liner_wall_rise_load_exponent);
+  if (c.products[i(Gas::SO3)] > 0) {
+    const double pw = c.wet_fraction(Gas::H2O) * p.liner_pressure;
+    const double ps = c.wet_fraction(Gas::SO3) * p.liner_pressure;
+    t.cylinder_acid_dew_point = dew_point::sulfuric_verhoff_banchero(pw, ps) + p.cylinder_dew_point_offset;
+    t.liner_subcooling = t.cylinder_acid_dew_point - t.liner_temperature;
+    t.liner_share = p.liner_uptake * liner_uptake_factor(t.liner_subcooling, p.liner_subcooling_scale);
+    if (t.liner_share > 0.5)
+      throw InputError("liner-uptake", format_value(p.liner_uptake),
+                       "parameters that keep the liner uptake below half the fuel sulfur (it is " +
+                           format_value(t.liner_share) + ")");
+  }
+  // Liner uptake: a share of the fuel S, taken from the cylinder gas's SO2 and SO3 in proportion.
+  const double liner_s = t.liner_share * t.sulfur_flow;
+  const double exhaust_s = t.exhaust[i(Gas::SO2)] + t.exhaust[i(Gas::SO3)];
+  if (liner_s > 0) {
+    const double keep = 1 - liner_s / exhaust_s;
+    t.exhaust[i(Gas::SO2)] *= keep;
+    t.exhaust[i(Gas::SO3)] *= keep;
+  }
+  t.inflow.sulfuric_liner = liner_s;
+
+  // Crankcase path: the blow-by's water dew point against the coldest wetted surface, cold starts.
+  double bb_total = 0;
+  for (Gas g : all_gases) bb_total += t.blowby_burnt[i(g)] + t.blowby_unburnt[i(g)];
+  const double bb_water = t.blowby_burnt[i(Gas::H2O)] + t.blowby_unburnt[i(Gas::H2O)];
+  t.blowby_water_dew_point = 0;
+  if (bb_total > 0 && bb_water / bb_total * op.crankcase_pressure >= water::if97_p_min)
+    t.blowby_water_dew_point = water::dew_point(bb_water / bb_total, op.crankcase_pressure);
+  t.wetness = crankcase_wetness(t.blowby_water_dew_point > 0 ? t.blowby_water_dew_point : 0,
+                                op.coldest_crankcase_surface, p.wetness_scale, op.starts_per_hour, p.warmup_hours);
+  t.inflow.sulfuric_blowby = p.capture_so3 * t.blowby_burnt[i(Gas::SO3)];
+  t.inflow.hydrochloric = p.capture_hcl * t.blowby_burnt[i(Gas::HCl)];
+  t.inflow.hydrofluoric = p.capture_hf * t.blowby_burnt[i(Gas::HF)];
+  t.inflow.nitric = p.capture_no2 * t.blowby_burnt[i(Gas::NO2)];
+  // r_SO2 = ṅ_SO2,bb · κ_SO2 · (b − b_min)/(b_fresh − b_min) · (1 + w (m_wet − 1)); here at fresh oil.
+  t.inflow.sulfurous_fresh = t.blowby_burnt[i(Gas::SO2)] * p.capture_so2 * (1 + t.wetness * (p.wet_so2_factor - 1));
+  if (t.inflow.sulfurous_fresh > t.blowby_burnt[i(Gas::SO2)])
+    throw InputError("capture-so2", format_value(p.capture_so2),
+                     "a capture share that, with the wet-crankcase factor, stays at most 1 (it is " +
+                         format_value(p.capture_so2 * (1 + t.wetness * (p.wet_so2_factor - 1))) + ")");
+  return t;
+}
+
+std::array<double, gas_count> Transfer::oil_uptake(double r) const {
+  std::array<double, gas_count> u{};
+  u[i(Gas::SO3)] = inflow.sulfuric_blowby;
+  u[i(Gas::SO2)] = inflow.sulfurous_fresh * r;
+  u[i(Gas::HCl)] = inflow.hydrochloric;
+  u[i(Gas::HF)] = inflow.hydrofluoric;
+  u[i(Gas::NO2)] = inflow.nitric;
+  // the liner's share, from the cylinder gas in its SO2:SO3 proportion
+  const double s = combustion.products[i(Gas::SO2)] + combustion.products[i(Gas::SO3)];
+  if (s > 0) {
+    u[i(Gas::SO2)] += inflow.sulfuric_liner * combustion.products[i(Gas::SO2)] / s;
+    u[i(Gas::SO3)] += inflow.sulfuric_liner * combustion.products[i(Gas::SO3)] / s;
+  }
+  return u;
+}
+
+std::array<double, gas_count> Transfer::blowby_vented(double r) const {
+  std::array<double, gas_count> v{};
+  for (Gas g : all_gases) v[i(g)] = blowby_burnt[i(g)] + blowby_unburnt[i(g)];
+  v[i(Gas::SO3)] -= inflow.sulfuric_blowby;
+  v[i(Gas::SO2)] -= inflow.sulfurous_fresh * r;
+  v[i(Gas::HCl)] -= inflow.hydrochloric;
+  v[i(Gas::HF)] -= inflow.hydrofluoric;
+  v[i(Gas::NO2)] -= inflow.nitric;
+  return v;
+}
+
+double Transfer::sulfur_share_to_oil(double r) const {
+  if (sulfur_flow <= 0) return 0;
+  return (inflow.sulfuric_liner + inflow.sulfuric_blowby + inflow.sulfurous_fresh * r) / sulfur_flow;
+}
+
+}  // namespace acidload
