@@ -1,0 +1,100 @@
+#pragma once
+// An operating record run through the oil balance: segments of constant operation, events between
+// them, the limits watched throughout, and the trajectories a user plots.
+#include <array>
+#include <optional>
+#include <vector>
+
+#include "acidload/core/fuel.hpp"
+#include "acidload/core/limits.hpp"
+#include "acidload/core/oil.hpp"
+#include "acidload/core/transfer.hpp"
+
+namespace acidload {
+
+//! Something done to the oil at the start of a segment.
+struct OilEvent {
+  enum class Kind { oil_change, top_up, partial_drain };
+  Kind kind = Kind::top_up;
+  double amount = -1;  //!< oil_change: residual share [-] (< 0: the charge's default); top_up: mass [kg]
+                       //!< (< 0: back to the full charge); partial_drain: share drained [-]
+};
+
+//! A stretch of constant operation.
+struct Segment {
+  double hours = 0;              //!< engine running hours [h]
+  double calendar_hours = -1;    //!< calendar time spanned [h]; < 0 means equal to `hours`
+  double starts = 0;             //!< engine starts in the segment [-]
+  FuelGas fuel;                  //!< gas quality
+  Operation operation;           //!< load, flows, temperatures (starts_per_hour is set from `starts`)
+  double oil_temperature = 358.15;  //!< sump oil temperature [K]
+  double oil_consumption = 0;    //!< oil burnt or lost [kg/h]
+  std::vector<OilEvent> events;  //!< applied, in order, before the segment runs
+};
+
+//! The oil charge and how it is kept.
+struct OilCharge {
+  OilProperties oil;              //!< the product
+  double mass = 0;                //!< full charge in circulation [kg]
+  bool continuous_makeup = true;  //!< makeup equals consumption; else the level falls until a top-up event
+  double residual_share = 0.10;   //!< share of the charge left in the system at an oil change [-] (10 %, from memory)
+};
+
+//! The calibratable model.
+struct ModelParameters {
+  TransferParameters transfer;  //!< the two paths into the oil
+  OxidationLaw oxidation;       //!< oxidation, organic acids, nitration
+  LimitSettings limits;         //!< what ends a charge
+};
+
+//! The oil at one instant of the record.
+struct TrajectoryPoint {
+  double engine_hours = 0;    //!< since the start of the record [h]
+  double oil_hours = 0;       //!< since the last oil change [h]
+  double calendar_hours = 0;  //!< since the start of the record [h]
+  double starts = 0;          //!< since the start of the record [-]
+  int charge = 0;             //!< which charge (0 = the one the record starts with)
+  OilState state;             //!< the states
+  double tbn_d2896 = 0, tbn_d4739 = 0, tan = 0, san = 0;  //!< readings [mg KOH/g]
+};
+
+//! What happened to one charge.
+struct ChargeSummary {
+  int index = 0;                        //!< 0 = the charge the record starts with
+  double start_engine_hours = 0;        //!< [h]
+  double oil_hours = 0;                 //!< hours the charge ran in the record [h]
+  bool ended_by_change = false;         //!< an oil change ended it inside the record
+  std::array<double, limit_count> reached_at{};  //!< oil hours each limit was first reached, −1 if not [h]
+  std::optional<Limit> first;           //!< the limit reached first, if any
+  double drain_interval = -1;           //!< oil hours at the first limit, −1 if none reached [h]
+  std::array<LimitReading, limit_count> at_end{};  //!< readings at the first limit, or at the end of the charge
+  double floor_reached_at = -1;         //!< oil hours the reactive base reached its floor, −1 if not [h]
+};
+
+struct RunOptions {
+  double output_interval = 0;   //!< trajectory points at least this often [h]; 0 = segment ends only
+  double detection_step = 25;   //!< limits are checked at least this often inside long segments [h]
+  bool stop_at_first_limit = false;  //!< end the run when the first charge reaches its first limit
+};
+
+//! The whole run.
+struct RunResult {
+  std::vector<TrajectoryPoint> trajectory;  //!< at the start, every output point and every segment end
+  std::vector<ChargeSummary> charges;       //!< one per charge
+  OilState initial, final_state;            //!< states at the start and the end
+  OilLedger ledger;                         //!< totals over the run [g KOH]
+  std::optional<OilState> steady_state;     //!< where the last charge settles under the last segment (continuous makeup, no limit reached)
+  Transfer first_transfer;                  //!< what the first segment sends where
+  OilRates first_rates;                     //!< the first segment's rates
+  double engine_hours = 0, calendar_hours = 0, starts = 0;  //!< totals [h], [h], [-]
+};
+
+//! Runs the record from a fresh charge (or from `start`, if given, in its 0th charge at `start_oil_hours`).
+RunResult simulate(const OilCharge& charge, const ModelParameters& model, const std::vector<Segment>& record,
+                   const RunOptions& options = {}, const std::optional<OilState>& start = std::nullopt,
+                   double start_oil_hours = 0);
+
+//! The rates of a segment (its transfer and oil rates).
+OilRates segment_rates(const Segment& s, const OilCharge& charge, const ModelParameters& model, Transfer* transfer = nullptr);
+
+}  // namespace acidload

@@ -1,0 +1,393 @@
+#include "acidload/core/oil.hpp"
+
+#include <cmath>
+#include <limits>
+
+#include "acidload/core/constants.hpp"
+#include "acidload/core/error.hpp"
+
+namespace acidload {
+
+// ---------------------------------------------------------------------------------------------
+// Oil, oxidation and readings
+
+double OilProperties::weak_base(BaseNumberMethod m) const {
+  return m == BaseNumberMethod::d2896 ? weak_base_d2896 : weak_base_d4739;
+}
+double OilProperties::fresh_reactive_base() const { return fresh_tbn - weak_base(fresh_tbn_method); }
+
+void validate(const OilProperties& o) {
+  check::in_range("oil.fresh-tbn", o.fresh_tbn, 0.5, 80.0, "mg KOH/g");
+  check::in_range("oil.weak-base-d2896", o.weak_base_d2896, 0.0, 10.0, "mg KOH/g");
+  check::in_range("oil.weak-base-d4739", o.weak_base_d4739, 0.0, 10.0, "mg KOH/g");
+  check::in_range("oil.base-floor", o.base_floor, 0.0, 40.0, "mg KOH/g");
+  if (!(o.fresh_reactive_base() > o.base_floor))
+    throw InputError("oil.base-floor", format_value(o.base_floor),
+                     "a floor below the fresh oil's reactive base (" + format_value(o.fresh_reactive_base()) +
+                         " mg KOH/g = fresh TBN less the method's weak base)");
+  check::in_range("oil.fresh-tan", o.fresh_tan, 0.0, 20.0, "mg KOH/g");
+  check::in_range("oil.additive-depletion", o.additive_depletion, 0.0, 1.0, "1/h");
+  check::fraction("oil.salt-titration-share", o.salt_titration_share);
+  check::fraction("oil.organic-neutralised-share", o.organic_neutralised_share);
+  check::in_range("oil.density", o.density_15, 600.0, 1200.0, "kg/m3");
+}
+
+void validate(const OxidationLaw& l) {
+  check::in_range("oxidation.rate", l.rate_at_reference, 0.0, 10.0, "A/cm per h");
+  check::in_range("oxidation.reference-temperature", l.reference_temperature, 273.15, 573.15, "K");
+  check::in_range("oxidation.doubling-interval", l.doubling_interval, 1.0, 50.0, "K");
+  check::in_range("oxidation.activation-energy", l.activation_energy, 1e3, 400e3, "J/mol");
+  check::in_range("oxidation.ring-zone-offset", l.ring_zone_offset, 0.0, 150.0, "K");
+  check::in_range("oxidation.organic-acid-yield", l.organic_acid_yield, 0.0, 5.0, "mg KOH/g per A/cm");
+  check::in_range("oxidation.nitration-yield", l.nitration_yield, 0.0, 1e6, "A/cm per mol/kg");
+}
+
+double oxidation_rate(const OxidationLaw& l, double T) {
+  check::temperature("ring-zone temperature", T);
+  if (l.kind == OxidationLaw::Kind::doubling)
+    return l.rate_at_reference * std::exp2((T - l.reference_temperature) / l.doubling_interval);
+  return l.rate_at_reference *
+         std::exp(-l.activation_energy / constants::molar_gas_constant * (1 / T - 1 / l.reference_temperature));
+}
+
+OilState fresh_oil(const OilProperties& oil, double mass) {
+  check::positive("oil mass", mass);
+  OilState s;
+  s.mass = mass;
+  s.base = oil.fresh_reactive_base();
+  s.additive_acidity = oil.fresh_tan;
+  return s;
+}
+
+double tbn(const OilState& s, const OilProperties& oil, BaseNumberMethod m) { return s.base + oil.weak_base(m); }
+double tan(const OilState& s, const OilProperties& oil) {
+  return s.additive_acidity + s.weak_acid + s.strong_acid + oil.salt_titration_share * s.salts;
+}
+double san(const OilState& s) { return s.strong_acid; }
+
+void validate(const OilRates& r) {
+  check::non_negative("rates.strong-acid", r.strong_acid);
+  check::non_negative("rates.sulfurous", r.sulfurous_fresh);
+  check::non_negative("rates.nitration", r.nitration);
+  check::non_negative("rates.oxidation", r.oxidation);
+  check::non_negative("rates.organic-acid", r.organic_acid);
+  check::non_negative("oil consumption", r.consumption);
+}
+
+OilBalance balance_constants(const OilProperties& oil) {
+  validate(oil);
+  return {oil.fresh_reactive_base(), oil.base_floor, oil.fresh_tan, oil.additive_depletion,
+          oil.organic_neutralised_share};
+}
+
+// ---------------------------------------------------------------------------------------------
+// Closed forms of dy/dt = a0 + a1/M(t) − (l0 + l1/M(t))·y with M(t) = M0 − c·t.
+
+namespace detail {
+double expm1_over_x(double x) { return x == 0 ? 1.0 : std::expm1(x) / x; }
+
+namespace {
+// I_n(m) = ∫₀¹ uⁿ e^{m u} du, the n-th derivative of expm1_over_x at m.
+double moment(int n, double m) {
+  if (std::fabs(m) < 2) {  // Σ m^k / (k! (n + k + 1))
+    double term = 1, sum = 1.0 / (n + 1);
+    for (int k = 1; k < 40; ++k) {
+      term *= m / k;
+      const double add = term / (n + k + 1);
+      sum += add;
+      if (std::fabs(add) < 1e-18 * std::fabs(sum)) break;
+    }
+    return sum;
+  }
+  double I = std::expm1(m) / m;  // I_0; then I_n = (e^m − n I_{n−1}) / m
+  for (int k = 1; k <= n; ++k) I = (std::exp(m) - k * I) / m;
+  return I;
+}
+}  // namespace
+
+double divided_expm1_over_x(double x, double y) {
+  const double d = x - y;
+  if (std::fabs(d) > 1e-2) return (expm1_over_x(x) - expm1_over_x(y)) / d;
+  const double mid = 0.5 * (x + y);  // f[x,y] = f'(m) + f'''(m) d²/24 + f⁽⁵⁾(m) d⁴/1920 + …
+  return moment(1, mid) + moment(3, mid) * d * d / 24 + moment(5, mid) * d * d * d * d / 1920;
+}
+}  // namespace detail
+
+namespace {
+using detail::divided_expm1_over_x;
+using detail::expm1_over_x;
+
+struct Linear {
+  double a0 = 0, a1 = 0, l0 = 0, l1 = 0;
+};
+struct Mass {
+  double m0 = 0;  // [kg] at the start of the piece
+  double c = 0;   // decline [kg/h]; 0 with continuous makeup
+  double at(double t) const { return m0 - c * t; }
+  double integral(double t) const { return m0 * t - 0.5 * c * t * t; }  // ∫M dt
+};
+
+// y(t) and ∫₀ᵗ y.
+struct Solution {
+  double y, integral;
+};
+
+Solution solve(const Linear& e, double y0, const Mass& m, double t) {
+  if (t == 0) return {y0, 0};
+  if (m.c == 0 || (e.a0 == 0 && e.a1 == 0 && e.l1 == 0)) {
+    // constant coefficients: y = y0 + (A − Λ y0)·t·E(−Λt), ∫y = y0 t + (A − Λ y0)·t²·E[0, −Λt]
+    const double A = m.c == 0 ? e.a0 + e.a1 / m.m0 : e.a0;
+    const double L = m.c == 0 ? e.l0 + e.l1 / m.m0 : e.l0;
+    const double slope = A - L * y0;
+    return {y0 + slope * t * expm1_over_x(-L * t), y0 * t + slope * t * t * divided_expm1_over_x(0, -L * t)};
+  }
+  // falling mass, l0 = 0 (no makeup): with m = M/M0, L = ln m, g = l1/c, T_M = M0/c,
+  // y = y0 m^g + a0 T_M (m^g − m)/(1 − g) + (a1/c)(1 − m^g)/g, in stable divided-difference form.
+  const double TM = m.m0 / m.c;
+  const double L = std::log1p(-t / TM);
+  const double g = e.l1 / m.c;
+  const double A1 = e.a0 * TM, A2 = e.a1 / m.c;
+  const double mg = std::exp(g * L), mm = std::exp(L);
+  const double y = y0 * mg - A1 * mm * L * expm1_over_x((g - 1) * L) - A2 * L * expm1_over_x(g * L);
+  // ∫₀ᵗ y dt = T_M [y0 h(g) − A1 h[g,1] − A2 h[g,0]], h(p) = ∫_m¹ s^p ds = −L E((p+1)L)
+  const double h = -L * expm1_over_x((g + 1) * L);
+  const double h_g1 = -L * L * divided_expm1_over_x((g + 1) * L, 2 * L);
+  const double h_g0 = -L * L * divided_expm1_over_x((g + 1) * L, L);
+  return {y, TM * (y0 * h - A1 * h_g1 - A2 * h_g0)};
+}
+
+// Time in (0, t_max] at which y reaches `target`, or −1. y is monotone within a regime.
+double crossing(const Linear& e, double y0, const Mass& m, double target, double t_max) {
+  const double y_end = solve(e, y0, m, t_max).y;
+  if ((y0 - target) * (y_end - target) > 0 || y0 == target) return -1;
+  if (m.c == 0) {
+    // y0 + (A − Λ y0)·t·E(−Λt) = target  ⇒  t = (target − y0)/(A − Λ y0) · log1p(u)/u,
+    // u = Λ (target − y0)/(A − Λ y0) > −1 since target lies between y0 and y(t_max)
+    const double A = e.a0 + e.a1 / m.m0, L = e.l0 + e.l1 / m.m0;
+    const double slope = A - L * y0;
+    const double u = L * (target - y0) / slope;
+    const double t = (target - y0) / slope * (u == 0 ? 1.0 : std::log1p(u) / u);
+    return std::fmin(std::fmax(t, 0.0), t_max);
+  }
+  // otherwise: Illinois (regula falsi) on the monotone closed form, to machine precision
+  double lo = 0, hi = t_max, flo = y0 - target, fhi = y_end - target;
+  int side = 0;
+  for (int it = 0; it < 200 && hi - lo > 1e-14 * t_max; ++it) {
+    double t = (lo * fhi - hi * flo) / (fhi - flo);
+    if (!(t > lo && t < hi)) t = 0.5 * (lo + hi);
+    const double f = solve(e, y0, m, t).y - target;
+    if (f == 0) return t;
+    if ((f > 0) == (fhi > 0)) {
+      hi = t, fhi = f;
+      if (side == -1) flo /= 2;
+      side = -1;
+    } else {
+      lo = t, flo = f;
+      if (side == 1) fhi /= 2;
+      side = 1;
+    }
+  }
+  return 0.5 * (lo + hi);
+}
+
+// The equations of each state in a regime.
+struct Equations {
+  Linear base, strong, weak, oxidation, nitration, additive, base_plus_salts;
+  bool base_fixed = false, strong_fixed = false;
+};
+
+struct Context {
+  const OilBalance& k;
+  const OilRates& r;
+  Mass mass;
+  double makeup_rate;   // k = c/M [1/h] with continuous makeup, else 0
+  double makeup_base;   // B_mk = c·(b_fresh − b_min) [g KOH/h] with continuous makeup, else 0
+  double so2_coeff;     // l1 = SO2 uptake of fresh oil / (b_fresh − b_min) [kg/h]
+};
+
+Context make_context(const OilState& s, const OilBalance& k, const OilRates& r) {
+  Context c{k, r, {s.mass, r.continuous_makeup ? 0.0 : r.consumption}, 0, 0, 0};
+  if (r.continuous_makeup) {
+    c.makeup_rate = r.consumption / s.mass;
+    c.makeup_base = r.consumption * (k.fresh_base - k.base_floor);
+  }
+  c.so2_coeff = r.sulfurous_fresh / (k.fresh_base - k.base_floor);
+  return c;
+}
+
+Equations equations(Regime g, const Context& c) {
+  const double km = c.makeup_rate, phi = c.k.organic_neutralised_share, rw = c.r.organic_acid;
+  Equations e;
+  e.oxidation = {c.r.oxidation, 0, km, 0};
+  e.nitration = {0, c.r.nitration, km, 0};
+  e.additive = {km * c.k.fresh_additive, 0, km + c.k.additive_depletion, 0};
+  e.base_plus_salts = {km * c.k.fresh_base, 0, km, 0};  // u = b + c_n: base consumed becomes salt 1:1
+  switch (g) {
+    case Regime::above_floor:  // db/dt = −φ r_w − R/M − l1 (b − b_min)/M + k (b_f − b)
+      e.base = {-phi * rw + km * c.k.fresh_base, -c.r.strong_acid + c.so2_coeff * c.k.base_floor, km, c.so2_coeff};
+      e.strong_fixed = true;
+      e.weak = {(1 - phi) * rw, 0, km, 0};
+      break;
+    case Regime::floor_acid:  // ds/dt = (R − B_mk)/M − k s; all organic acid stays free
+      e.base_fixed = true;
+      e.strong = {0, c.r.strong_acid - c.makeup_base, km, 0};
+      e.weak = {rw, 0, km, 0};
+      break;
+    case Regime::floor_weak:  // makeup base left after the strong acid neutralises part of the organic acid
+      e.base_fixed = e.strong_fixed = true;
+      e.weak = {rw, -(c.makeup_base - c.r.strong_acid), km, 0};
+      break;
+  }
+  return e;
+}
+
+Regime regime_at(const OilState& s, const Context& c) {
+  if (s.base > c.k.base_floor) return Regime::above_floor;
+  if (s.strong_acid > 0 || c.r.strong_acid > c.makeup_base) return Regime::floor_acid;
+  if (c.makeup_base - c.r.strong_acid < c.k.organic_neutralised_share * c.r.organic_acid * s.mass)
+    return Regime::floor_weak;
+  return Regime::above_floor;  // at the floor, but the makeup lifts the base again
+}
+
+// Advances one piece of a regime; returns the ledger increments into `ledger`.
+void advance_piece(OilState& s, Regime g, const Context& c, const Equations& e, double t, OilLedger& ledger) {
+  const auto b = e.base_fixed ? Solution{s.base, s.base * t} : solve(e.base, s.base, c.mass, t);
+  const auto sa = e.strong_fixed ? Solution{s.strong_acid, s.strong_acid * t} : solve(e.strong, s.strong_acid, c.mass, t);
+  const auto w = solve(e.weak, s.weak_acid, c.mass, t);
+  const auto u = solve(e.base_plus_salts, s.base + s.salts, c.mass, t);
+  const double R = c.r.strong_acid, IM = c.mass.integral(t), cons = c.r.consumption;
+  const double so2 = g == Regime::above_floor ? c.so2_coeff * (b.integral - c.k.base_floor * t) : 0;
+  if (c.r.continuous_makeup) ledger.base_added += cons * c.k.fresh_base * t;
+  ledger.base_removed += cons * b.integral;
+  ledger.base_consumed += g == Regime::above_floor
+                              ? R * t + c.k.organic_neutralised_share * c.r.organic_acid * IM + so2
+                              : c.makeup_base * t;
+  ledger.acid_entered += R * t + c.r.organic_acid * IM + so2;
+  ledger.acid_removed += cons * (sa.integral + w.integral);
+  s.mass = c.mass.at(t);
+  s.base = b.y;
+  s.strong_acid = sa.y;
+  s.weak_acid = w.y;
+  s.salts = u.y - b.y;
+  s.oxidation = solve(e.oxidation, s.oxidation, c.mass, t).y;
+  s.nitration = solve(e.nitration, s.nitration, c.mass, t).y;
+  s.additive_acidity = solve(e.additive, s.additive_acidity, c.mass, t).y;
+}
+}  // namespace
+
+Regime regime_of(const OilState& s, const OilBalance& k, const OilRates& r) {
+  return regime_at(s, make_context(s, k, r));
+}
+
+SegmentOutcome advance(OilState& s, const OilBalance& k, const OilRates& r, double hours, OilLedger& ledger) {
+  validate(r);
+  check::non_negative("segment hours", hours);
+  check::positive("oil mass", s.mass);
+  if (s.base < k.base_floor * (1 - 1e-12) - 1e-300)
+    throw InputError("oil.base", format_value(s.base), "a reactive base at or above the floor " + format_value(k.base_floor));
+  if (!r.continuous_makeup && r.consumption * hours >= 0.9 * s.mass)
+    throw InputError("segment hours", format_value(hours) + " h",
+                     "a stretch without top-up that burns less than 90 % of the oil (" +
+                         format_value(0.9 * s.mass / r.consumption) + " h at this consumption)");
+  SegmentOutcome out;
+  double done = 0;
+  for (int piece = 0; piece < 8 && done < hours; ++piece) {
+    const Context c = make_context(s, k, r);
+    const Regime g = regime_at(s, c);
+    const Equations e = equations(g, c);
+    const double left = hours - done;
+    double t_switch = -1;
+    if (g == Regime::above_floor) t_switch = crossing(e.base, s.base, c.mass, k.base_floor, left);
+    if (g == Regime::floor_acid && s.strong_acid > 0) t_switch = crossing(e.strong, s.strong_acid, c.mass, 0, left);
+    if (t_switch < 0 || t_switch >= left) {
+      advance_piece(s, g, c, e, left, ledger);
+      if (g == Regime::above_floor && s.base < k.base_floor) s.base = k.base_floor;  // rounding at the very end
+      if (g == Regime::floor_acid && s.strong_acid < 0) s.strong_acid = 0;
+      out.end_regime = g;
+      return out;
+    }
+    advance_piece(s, g, c, e, t_switch, ledger);
+    if (g == Regime::above_floor) {
+      s.base = k.base_floor;
+      if (out.floor_reached_at < 0) out.floor_reached_at = done + t_switch;
+    } else {
+      s.strong_acid = 0;
+      if (out.acid_cleared_at < 0) out.acid_cleared_at = done + t_switch;
+    }
+    done += t_switch;
+  }
+  out.end_regime = regime_of(s, k, r);
+  return out;
+}
+
+OilState steady_state(const OilState& s, const OilBalance& k, const OilRates& r) {
+  if (!r.continuous_makeup || r.consumption <= 0)
+    throw NotModelledError("no steady state without continuous makeup: the oil changes until it is topped up");
+  OilState x = s;
+  OilLedger scratch;
+  const double km = r.consumption / s.mass;
+  advance(x, k, r, 800.0 / km, scratch);  // e^{−800} = 0 in double precision: every transient has died
+  return x;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Events
+
+namespace {
+void neutralise_at_once(OilState& s, double floor, OilLedger& ledger) {
+  if (s.strong_acid > 0 && s.base > floor) {
+    const double d = std::fmin(s.strong_acid, s.base - floor);
+    s.strong_acid -= d;
+    s.base -= d;
+    s.salts += d;
+    ledger.base_consumed += d * s.mass;
+  }
+}
+void add_fresh(OilState& s, const OilProperties& oil, double added, OilLedger& ledger) {
+  const double m = s.mass + added;
+  const double f_old = s.mass / m, f_new = added / m;
+  s.base = s.base * f_old + oil.fresh_reactive_base() * f_new;
+  s.additive_acidity = s.additive_acidity * f_old + oil.fresh_tan * f_new;
+  s.strong_acid *= f_old;
+  s.weak_acid *= f_old;
+  s.salts *= f_old;
+  s.oxidation *= f_old;
+  s.nitration *= f_old;
+  s.mass = m;
+  ledger.base_added += added * oil.fresh_reactive_base();
+  neutralise_at_once(s, oil.base_floor, ledger);
+}
+void remove_oil(OilState& s, double removed, OilLedger& ledger) {
+  ledger.base_removed += removed * s.base;
+  ledger.acid_removed += removed * (s.strong_acid + s.weak_acid);
+  s.mass -= removed;
+}
+}  // namespace
+
+void top_up(OilState& s, const OilProperties& oil, double mass, OilLedger& ledger) {
+  check::non_negative("top-up mass", mass);
+  add_fresh(s, oil, mass, ledger);
+}
+
+void partial_drain(OilState& s, const OilProperties& oil, double share, double full_mass, OilLedger& ledger) {
+  check::fraction("drained share", share);
+  check::positive("oil mass", full_mass);
+  remove_oil(s, share * s.mass, ledger);
+  if (full_mass > s.mass) add_fresh(s, oil, full_mass - s.mass, ledger);
+}
+
+void oil_change(OilState& s, const OilProperties& oil, double residual_share, double full_mass, OilLedger& ledger) {
+  check::in_range("residual share", residual_share, 0.0, 0.9, "(share of the charge left in the system)");
+  check::positive("oil mass", full_mass);
+  const double keep = std::fmin(s.mass, residual_share * full_mass);
+  remove_oil(s, s.mass - keep, ledger);
+  if (s.mass <= 0) {  // nothing left: the system holds fresh oil only
+    const double m = full_mass;
+    s = fresh_oil(oil, m);
+    ledger.base_added += m * oil.fresh_reactive_base();
+    return;
+  }
+  add_fresh(s, oil, full_mass - s.mass, ledger);
+}
+
+}  // namespace acidload

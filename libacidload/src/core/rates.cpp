@@ -1,0 +1,28 @@
+#include "acidload/core/rates.hpp"
+
+#include "acidload/core/constants.hpp"
+#include "acidload/core/error.hpp"
+
+namespace acidload {
+
+double oil_consumption(double specific, double power) {
+  check::in_range("oil.consumption", specific, 0.0, 5e-9, "kg/J (up to 18 g/kWh)");
+  check::non_negative("engine.electrical-power", power);
+  return specific * power * constants::seconds_per_hour;
+}
+
+OilRates oil_rates(const Transfer& t, const OxidationLaw& law, double sump_T, double consumption, bool continuous) {
+  validate(law);
+  check::in_range("engine.oil-temperature", sump_T, 273.15, 423.15, "K");
+  OilRates r;
+  r.strong_acid = t.inflow.strong_koh();
+  r.sulfurous_fresh = t.inflow.sulfurous_fresh_koh();
+  r.nitration = law.nitration_yield * t.inflow.nitric;  // [A/cm per mol/kg] × [mol/h] = A/cm·kg/h
+  r.oxidation = oxidation_rate(law, sump_T + law.ring_zone_offset);
+  r.organic_acid = law.organic_acid_yield * r.oxidation;  // α·k_ox
+  r.consumption = consumption;
+  r.continuous_makeup = continuous;
+  return r;
+}
+
+}  // namespace acidload

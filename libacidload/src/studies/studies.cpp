@@ -1,1 +1,0 @@
-// acidload::studies is filled by the timeline simulation (oil-balance issue).
