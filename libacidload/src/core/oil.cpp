@@ -161,12 +161,12 @@ double crossing(const Linear& e, double y0, const Mass& m, double target, double
   const double y_end = solve(e, y0, m, t_max).y;
   if ((y0 - target) * (y_end - target) > 0 || y0 == target) return -1;
   if (m.c == 0) {
-    // y0 + (A − Λ y0)·t·E(−Λt) = target  ⇒  t = (target − y0)/(A − Λ y0) · log1p(u)/u,
-    // u = Λ (target − y0)/(A − Λ y0) > −1 since target lies between y0 and y(t_max)
+    // y∞ + (y0 − y∞) e^{−Λt} = target  ⇒  t = −log1p(−u)/Λ = (target − y0)/(A − Λ y0) · (−log1p(−u)/u),
+    // u = Λ (target − y0)/(A − Λ y0) < 1 since target lies between y0 and y(t_max)
     const double A = e.a0 + e.a1 / m.m0, L = e.l0 + e.l1 / m.m0;
     const double slope = A - L * y0;
     const double u = L * (target - y0) / slope;
-    const double t = (target - y0) / slope * (u == 0 ? 1.0 : std::log1p(u) / u);
+    const double t = (target - y0) / slope * (u == 0 ? 1.0 : -std::log1p(-u) / u);
     return std::fmin(std::fmax(t, 0.0), t_max);
   }
   // otherwise: Illinois (regula falsi) on the monotone closed form, to machine precision
@@ -301,13 +301,17 @@ SegmentOutcome advance(OilState& s, const OilBalance& k, const OilRates& r, doub
     if (g == Regime::floor_acid && s.strong_acid > 0) t_switch = crossing(e.strong, s.strong_acid, c.mass, 0, left);
     if (t_switch < 0 || t_switch >= left) {
       advance_piece(s, g, c, e, left, ledger);
-      if (g == Regime::above_floor && s.base < k.base_floor) s.base = k.base_floor;  // rounding at the very end
+      if (g == Regime::above_floor && s.base < k.base_floor) {  // rounding at the very end
+        s.salts += s.base - k.base_floor;
+        s.base = k.base_floor;
+      }
       if (g == Regime::floor_acid && s.strong_acid < 0) s.strong_acid = 0;
       out.end_regime = g;
       return out;
     }
     advance_piece(s, g, c, e, t_switch, ledger);
     if (g == Regime::above_floor) {
+      s.salts += s.base - k.base_floor;  // keep base + salts as solved while the base lands on the floor
       s.base = k.base_floor;
       if (out.floor_reached_at < 0) out.floor_reached_at = done + t_switch;
     } else {

@@ -16,7 +16,7 @@ struct OilProperties {
   double weak_base_d4739 = 0.0;  //!< the same for D4739 [mg KOH/g] (calibratable)
   double base_floor = 1.0;       //!< b_min, reactive base below which strong acid stays free [mg KOH/g] (calibratable)
   double fresh_tan = 1.5;        //!< fresh-oil acid number, mostly anti-wear additive (D664) [mg KOH/g]
-  double additive_depletion = 1e-3;   //!< k_d, first-order loss of additive acidity [1/h] (calibratable)
+  double additive_depletion = 2e-4;   //!< k_d, first-order loss of additive acidity [1/h] (calibratable)
   double salt_titration_share = 0.2;  //!< β, share of neutralised salts still titrating in TAN [-] (calibratable)
   double organic_neutralised_share = 0.5;  //!< φ_B, share of organic acids neutralised by reactive base [-] (calibratable)
   double density_15 = 880;       //!< density at 15 °C [kg/m³]

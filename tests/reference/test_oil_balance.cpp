@@ -1,0 +1,359 @@
+// The oil balance against an independent integration of the same equations (Boost.Odeint,
+// Dormand–Prince 5(4) with dense output, tolerances 1e-13), written here in absolute amounts
+// (g KOH, A/cm·kg) rather than the library's concentrations, with its own event handling.
+#include <doctest/doctest.h>
+
+#include <array>
+#include <boost/numeric/odeint.hpp>
+#include <cmath>
+#include <string>
+#include <vector>
+
+#include "acidload/core/oil.hpp"
+
+using namespace acidload;
+namespace odeint = boost::numeric::odeint;
+
+namespace {
+
+// ---- the reference model ---------------------------------------------------------------
+// x = {M, B, S, W, C, O, N, T}: mass [kg] and amounts b·M, s·M, a_w·M, c_n·M, o·M, n·M, t_add·M.
+using Vec = std::array<double, 8>;
+enum class Mode { above, floor_acid, floor_weak };
+
+struct Reference {
+  OilBalance k;
+  OilRates r;
+
+  double makeup_base() const { return r.continuous_makeup ? r.consumption * (k.fresh_base - k.base_floor) : 0; }
+
+  void rhs(Mode mode, const Vec& x, Vec& d) const {
+    const double M = x[0], c = r.consumption, bmin = k.base_floor, phi = k.organic_neutralised_share;
+    const bool cont = r.continuous_makeup;
+    const double rw = r.organic_acid, R = r.strong_acid, Bmk = makeup_base();
+    const double l1 = r.sulfurous_fresh / (k.fresh_base - bmin);
+    d[0] = cont ? 0 : -c;
+    d[5] = r.oxidation * M - c * x[5] / M;
+    d[6] = r.nitration - c * x[6] / M;
+    d[7] = -k.additive_depletion * x[7] - c * x[7] / M + (cont ? c * k.fresh_additive : 0);
+    switch (mode) {
+      case Mode::above: {
+        const double so2 = l1 * (x[1] / M - bmin);
+        d[1] = -R - phi * rw * M - so2 - c * x[1] / M + (cont ? c * k.fresh_base : 0);
+        d[2] = 0;
+        d[3] = (1 - phi) * rw * M - c * x[3] / M;
+        d[4] = R + phi * rw * M + so2 - c * x[4] / M;
+        break;
+      }
+      case Mode::floor_acid:
+        d[1] = cont ? 0 : -c * bmin;
+        d[2] = R - Bmk - c * x[2] / M;
+        d[3] = rw * M - c * x[3] / M;
+        d[4] = Bmk - c * x[4] / M;
+        break;
+      case Mode::floor_weak:
+        d[1] = cont ? 0 : -c * bmin;
+        d[2] = 0;
+        d[3] = rw * M - (Bmk - R) - c * x[3] / M;
+        d[4] = Bmk - c * x[4] / M;
+        break;
+    }
+  }
+  Mode mode_of(const Vec& x) const {
+    if (x[1] / x[0] > k.base_floor * (1 + 1e-12)) return Mode::above;
+    if (x[2] > 1e-14 * x[0] || r.strong_acid > makeup_base()) return Mode::floor_acid;
+    if (makeup_base() - r.strong_acid < k.organic_neutralised_share * r.organic_acid * x[0]) return Mode::floor_weak;
+    return Mode::above;
+  }
+  // the quantity whose zero ends a mode
+  double switch_function(Mode m, const Vec& x) const {
+    return m == Mode::above ? x[1] / x[0] - k.base_floor : x[2];
+  }
+};
+
+// Integrates over `hours`, switching modes at located zeros. Returns the switch times.
+std::vector<double> integrate(const Reference& ref, Vec& x, double hours) {
+  std::vector<double> switches;
+  double t = 0;
+  while (t < hours) {
+    const Mode mode = ref.mode_of(x);
+    if (mode == Mode::floor_acid) x[1] = ref.k.base_floor * x[0];
+    if (mode == Mode::floor_weak) x[1] = ref.k.base_floor * x[0], x[2] = 0;
+    auto sys = [&](const Vec& y, Vec& d, double) { ref.rhs(mode, y, d); };
+    auto stepper = odeint::make_dense_output(1e-13, 1e-13, odeint::runge_kutta_dopri5<Vec>());
+    stepper.initialize(x, t, std::min(1.0, hours - t));
+    bool switched = false;
+    const bool can_switch = mode == Mode::above || (mode == Mode::floor_acid && x[2] > 0);
+    while (stepper.current_time() < hours) {
+      stepper.do_step(sys);
+      double t1 = std::min(stepper.current_time(), hours);
+      Vec y;
+      stepper.calc_state(t1, y);
+      if (can_switch && ref.switch_function(mode, y) < 0) {
+        double lo = stepper.previous_time(), hi = t1;  // bisection on the dense output
+        for (int i = 0; i < 200 && hi - lo > 1e-13 * hi; ++i) {
+          const double mid = 0.5 * (lo + hi);
+          Vec z;
+          stepper.calc_state(mid, z);
+          (ref.switch_function(mode, z) < 0 ? hi : lo) = mid;
+        }
+        stepper.calc_state(hi, x);
+        t = hi;
+        switches.push_back(hi);
+        if (mode == Mode::above) x[1] = ref.k.base_floor * x[0]; else x[2] = 0;
+        switched = true;
+        break;
+      }
+      if (t1 >= hours) {
+        x = y;
+        t = hours;
+        break;
+      }
+    }
+    if (!switched) t = hours;
+  }
+  return switches;
+}
+
+Vec amounts(const OilState& s) {
+  return {s.mass, s.base * s.mass, s.strong_acid * s.mass, s.weak_acid * s.mass, s.salts * s.mass,
+          s.oxidation * s.mass, s.nitration * s.mass, s.additive_acidity * s.mass};
+}
+
+void check_close(const OilState& lib, const Vec& ref, double rel) {
+  const Vec a = amounts(lib);
+  const char* names[] = {"mass", "base", "strong acid", "weak acid", "salts", "oxidation", "nitration", "additive"};
+  for (int i = 0; i < 8; ++i) {
+    const double scale = std::fmax(std::fabs(ref[i]), 1.0 * ref[0] * (i == 0 ? 0 : 1e-2));  // 0.01 mg KOH/g of oil floor
+    const std::string what = std::string(names[i]) + ": acidload " + std::to_string(a[i] / lib.mass) +
+                             ", reference " + std::to_string(ref[i] / ref[0]) + " (per kg of oil)";
+    INFO(what);
+    CHECK(std::fabs(a[i] - ref[i]) <= rel * std::fmax(scale, 1e-300));
+  }
+}
+
+OilProperties test_oil() {
+  OilProperties o;
+  o.fresh_tbn = 6.0;
+  o.additive_depletion = 2e-4;
+  return o;
+}
+
+OilRates rates(double strong, double so2, bool continuous = true, double consumption = 0.2) {
+  OilRates r;
+  r.strong_acid = strong;
+  r.sulfurous_fresh = so2;
+  r.nitration = 0.004 * 528;
+  r.oxidation = 0.007;
+  r.organic_acid = 0.08 * 0.007;
+  r.consumption = consumption;
+  r.continuous_makeup = continuous;
+  return r;
+}
+
+// Reference events, in amounts.
+void ref_top_up(Vec& x, const OilProperties& oil, const OilBalance& k, double dm) {
+  x[0] += dm;
+  x[1] += dm * k.fresh_base;
+  x[7] += dm * oil.fresh_tan;
+  const double avail = x[1] - k.base_floor * x[0];
+  if (x[2] > 0 && avail > 0) {
+    const double d = std::fmin(x[2], avail);
+    x[2] -= d, x[1] -= d, x[4] += d;
+  }
+}
+void ref_oil_change(Vec& x, const OilProperties& oil, const OilBalance& k, double residual, double full) {
+  const double keep = residual * full / x[0];
+  for (double& v : x) v *= keep;
+  ref_top_up(x, oil, k, full - x[0]);
+}
+
+struct Ledgers {
+  double base_start, free_start;
+};
+
+void check_ledgers(const OilState& start, const OilState& end, const OilLedger& l) {
+  // base: start + added − removed − consumed = now; acid: entered = consumed + free now − free at start + removed
+  const double b0 = start.base * start.mass, b1 = end.base * end.mass;
+  const double scale_b = std::fmax(std::fmax(b0, l.base_added), l.base_consumed);
+  INFO("base ledger: start " << b0 << " added " << l.base_added << " removed " << l.base_removed << " consumed " << l.base_consumed << " now " << b1);
+  CHECK(std::fabs(b0 + l.base_added - l.base_removed - l.base_consumed - b1) <= 1e-9 * scale_b);
+  const double f0 = (start.strong_acid + start.weak_acid) * start.mass, f1 = (end.strong_acid + end.weak_acid) * end.mass;
+  const double scale_a = std::fmax(l.acid_entered, 1.0);
+  INFO("acid ledger: entered " << l.acid_entered << " consumed " << l.base_consumed << " free " << f0 << " -> " << f1 << " removed " << l.acid_removed);
+  CHECK(std::fabs(l.acid_entered - (l.base_consumed + f1 - f0 + l.acid_removed)) <= 1e-9 * scale_a);
+}
+
+}  // namespace
+
+TEST_CASE("continuous makeup: floor crossing, SAN build-up, recovery, oil change — vs Odeint") {
+  const OilProperties oil = test_oil();
+  const OilBalance k = balance_constants(oil);
+  OilState s = fresh_oil(oil, 528);
+  const OilState start = s;
+  Vec x = amounts(s);
+  OilLedger ledger;
+  struct Step { double hours; OilRates r; };
+  const Step steps[] = {{400, rates(4.0, 0.5)},   // heavy acid: the base falls
+                        {600, rates(4.0, 0.5)},   // reaches the floor inside; SAN builds up
+                        {1500, rates(0.3, 0.1)},  // scrubber fitted: SAN neutralised, base recovers
+                        {300, rates(0.8, 0.1)}};  // acid just under the makeup base: organic acid limits
+  double ref_crossing = -1, lib_crossing = -1, elapsed = 0;
+  for (const auto& st : steps) {
+    const SegmentOutcome out = advance(s, k, st.r, st.hours, ledger);
+    const auto sw = integrate(Reference{k, st.r}, x, st.hours);
+    if (out.floor_reached_at >= 0 && lib_crossing < 0) lib_crossing = elapsed + out.floor_reached_at;
+    if (!sw.empty() && ref_crossing < 0) ref_crossing = elapsed + sw.front();
+    elapsed += st.hours;
+    check_close(s, x, 1e-7);
+  }
+  REQUIRE(lib_crossing > 0);
+  INFO("floor crossing: acidload " << lib_crossing << " h, bisection on the integrator " << ref_crossing << " h");
+  CHECK(std::fabs(lib_crossing - ref_crossing) <= 1e-7 * ref_crossing);
+  check_ledgers(start, s, ledger);
+  // oil change with a 10 % residual, then another stretch
+  const OilState before_change = s;
+  OilLedger l2;
+  oil_change(s, oil, 0.1, 528, l2);
+  ref_oil_change(x, oil, k, 0.1, 528);
+  advance(s, k, rates(4.0, 0.5), 900, l2);
+  integrate(Reference{k, rates(4.0, 0.5)}, x, 900);
+  check_close(s, x, 1e-7);
+  check_ledgers(before_change, s, l2);
+}
+
+TEST_CASE("discrete top-ups: falling level, floor crossing and SAN between top-ups — vs Odeint") {
+  const OilProperties oil = test_oil();
+  const OilBalance k = balance_constants(oil);
+  OilState s = fresh_oil(oil, 528);
+  const OilState start = s;
+  Vec x = amounts(s);
+  OilLedger ledger;
+  const OilRates r = rates(4.0, 0.6, false, 0.25);
+  double lib_crossing = -1, ref_crossing = -1, elapsed = 0;
+  for (int i = 0; i < 8; ++i) {
+    const SegmentOutcome out = advance(s, k, r, 150, ledger);
+    const auto sw = integrate(Reference{k, r}, x, 150);
+    if (out.floor_reached_at >= 0 && lib_crossing < 0) lib_crossing = elapsed + out.floor_reached_at;
+    if (!sw.empty() && ref_crossing < 0) ref_crossing = elapsed + sw.front();
+    elapsed += 150;
+    check_close(s, x, 1e-7);
+    const double dm = 528 - s.mass;  // top up to the full charge
+    top_up(s, oil, dm, ledger);
+    ref_top_up(x, oil, k, dm);
+    check_close(s, x, 1e-7);
+  }
+  REQUIRE(lib_crossing > 0);
+  CHECK(s.strong_acid > 0);
+  CHECK(std::fabs(lib_crossing - ref_crossing) <= 1e-7 * ref_crossing);
+  check_ledgers(start, s, ledger);
+}
+
+TEST_CASE("one 1000 h segment equals 1000 one-hour segments to 1e-10") {
+  const OilProperties oil = test_oil();
+  const OilBalance k = balance_constants(oil);
+  for (bool continuous : {true, false}) {
+    const OilRates r = rates(4.0, 0.5, continuous, continuous ? 0.2 : 0.1);
+    OilState one = fresh_oil(oil, 528), many = one;
+    OilLedger l1, l2;
+    advance(one, k, r, 1000, l1);
+    for (int i = 0; i < 1000; ++i) advance(many, k, r, 1, l2);
+    INFO("continuous makeup: " << continuous);
+    const Vec a = amounts(one), b = amounts(many);
+    for (int i = 0; i < 8; ++i) CHECK(std::fabs(a[i] - b[i]) <= 1e-10 * std::fmax(std::fabs(a[i]), 528 * 1e-2));
+    CHECK(one.strong_acid > 0);  // the run crossed the floor
+    CHECK(std::fabs(l1.base_consumed - l2.base_consumed) <= 1e-10 * l1.base_consumed);
+  }
+}
+
+TEST_CASE("hand check: no makeup, no oxidation — TBN falls linearly at the stoichiometric rate") {
+  OilProperties oil = test_oil();
+  oil.additive_depletion = 0;
+  const OilBalance k = balance_constants(oil);
+  // 0.01 mol/h of H2SO4: 2 × 0.01 × 56.1056 g KOH/mol = 1.122112 g KOH/h (IUPAC masses; hand arithmetic)
+  OilRates r;
+  r.strong_acid = 2 * 0.01 * (39.0983 + 15.9994 + 1.00794);
+  r.consumption = 0;
+  OilState s = fresh_oil(oil, 500);
+  OilLedger l;
+  advance(s, k, r, 1000, l);
+  // b(t) = b0 − R t / M = 5.4 − 1.12211 × 1000 / 500 = 3.15578 mg KOH/g
+  CHECK(s.base == doctest::Approx(5.4 - r.strong_acid * 1000 / 500).epsilon(1e-13));
+  CHECK(tbn(s, oil, BaseNumberMethod::d2896) == doctest::Approx(6.0 - 2.244224).epsilon(1e-6));
+}
+
+TEST_CASE("hand check: the closed-form steady state under continuous makeup") {
+  const OilProperties oil = test_oil();
+  const OilBalance k = balance_constants(oil);
+  const OilRates r = rates(0.3, 0.4);
+  const double M = 528, km = r.consumption / M, l1 = r.sulfurous_fresh / (k.fresh_base - k.base_floor);
+  const double phi = k.organic_neutralised_share;
+  // db/dt = 0: b∞ = (k b_f − φ r_w − R/M + l1 b_min/M) / (k + l1/M)
+  const double b_inf = (km * k.fresh_base - phi * r.organic_acid - r.strong_acid / M + l1 * k.base_floor / M) / (km + l1 / M);
+  REQUIRE(b_inf > k.base_floor);
+  const OilState ss = steady_state(fresh_oil(oil, M), k, r);
+  CHECK(ss.base == doctest::Approx(b_inf).epsilon(1e-12));
+  CHECK(ss.oxidation == doctest::Approx(r.oxidation / km).epsilon(1e-12));
+  CHECK(ss.weak_acid == doctest::Approx((1 - phi) * r.organic_acid / km).epsilon(1e-12));
+  CHECK(ss.nitration == doctest::Approx(r.nitration / M / km).epsilon(1e-12));
+  CHECK(ss.additive_acidity == doctest::Approx(km * oil.fresh_tan / (km + oil.additive_depletion)).epsilon(1e-12));
+  CHECK(ss.strong_acid == 0);
+  // above the floor: salts = (b_f − b∞) (base + salts relaxes to b_f)
+  CHECK(ss.salts == doctest::Approx(k.fresh_base - b_inf).epsilon(1e-10));
+}
+
+TEST_CASE("hand check: at the floor, free acid settles at (R − makeup base)/consumption") {
+  const OilProperties oil = test_oil();
+  const OilBalance k = balance_constants(oil);
+  const OilRates r = rates(4.0, 0.5);
+  const OilState ss = steady_state(fresh_oil(oil, 528), k, r);
+  CHECK(ss.base == k.base_floor);
+  CHECK(ss.strong_acid == doctest::Approx((r.strong_acid - r.consumption * (k.fresh_base - k.base_floor)) / r.consumption).epsilon(1e-12));
+}
+
+TEST_CASE("numerical helpers of the closed forms") {
+  using detail::divided_expm1_over_x;
+  using detail::expm1_over_x;
+  CHECK(expm1_over_x(0) == 1);
+  CHECK(expm1_over_x(1e-20) == 1);
+  CHECK(expm1_over_x(1) == doctest::Approx(std::exp(1.0) - 1).epsilon(1e-15));
+  // divided differences: continuous across the switch between direct and series forms
+  for (double x : {-30.0, -3.0, -0.5, 0.0, 0.7, 4.0})
+    for (double d : {0.5, 2e-2, 1.0001e-2, 0.9999e-2, 1e-4, 1e-9, 0.0}) {
+      const double series = divided_expm1_over_x(x + d, x);
+      // reference: ∫₀¹ u e^{(x + θ d) u} du averaged over θ ∈ [0,1], by Gauss–Legendre in θ and u
+      const double gl_x[] = {-0.9602898564975363, -0.7966664774136267, -0.5255324099163290, -0.1834346424956498,
+                             0.1834346424956498,  0.5255324099163290,  0.7966664774136267,  0.9602898564975363};
+      const double gl_w[] = {0.1012285362903763, 0.2223810344533745, 0.3137066458778873, 0.3626837833783620,
+                             0.3626837833783620, 0.3137066458778873, 0.2223810344533745, 0.1012285362903763};
+      double ref = 0;
+      for (int i = 0; i < 8; ++i)
+        for (int j = 0; j < 8; ++j) {
+          const double th = 0.5 * (gl_x[i] + 1), u = 0.5 * (gl_x[j] + 1);
+          ref += 0.25 * gl_w[i] * gl_w[j] * u * std::exp((x + th * d) * u);
+        }
+      INFO("x " << x << " d " << d);
+      if (std::fabs(x) <= 4) CHECK(series == doctest::Approx(ref).epsilon(1e-11));
+    }
+}
+
+TEST_CASE("free acid cleared into the organic-acid-limited floor — vs Odeint") {
+  const OilProperties oil = test_oil();
+  const OilBalance k = balance_constants(oil);
+  OilState s = steady_state(fresh_oil(oil, 528), k, rates(4.0, 0.5));  // at the floor, SAN > 0
+  REQUIRE(s.strong_acid > 0);
+  const OilState start = s;
+  Vec x = amounts(s);
+  OilLedger ledger;
+  // acid just below the makeup base (0.88 g KOH/h) but above it with the organic acid share
+  const OilRates r = rates(0.8, 0.1);
+  const SegmentOutcome out = advance(s, k, r, 12000, ledger);
+  const auto sw = integrate(Reference{k, r}, x, 12000);
+  REQUIRE(sw.size() == 1);
+  CHECK(out.acid_cleared_at == doctest::Approx(sw.front()).epsilon(1e-7));
+  CHECK(out.end_regime == Regime::floor_weak);
+  CHECK(s.base == k.base_floor);
+  CHECK(s.strong_acid == 0);
+  check_close(s, x, 1e-7);
+  check_ledgers(start, s, ledger);
+}

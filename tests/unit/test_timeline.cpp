@@ -1,0 +1,170 @@
+// The timeline: limits, drain interval and the directions a plant engineer expects.
+#include <doctest/doctest.h>
+
+#include <cmath>
+
+#include "../support/sanity_case.hpp"
+#include "acidload/core/error.hpp"
+#include "acidload/studies/timeline.hpp"
+
+using namespace acidload;
+using acidload_test::sanity_charge;
+using acidload_test::sanity_segment;
+
+namespace {
+double interval(const OilCharge& c, const Segment& s, const ModelParameters& m = {}) {
+  const RunResult r = simulate(c, m, {s});
+  return r.charges.front().drain_interval;
+}
+Segment hours(double h, double h2s = 300) { return sanity_segment(h, h2s); }
+}  // namespace
+
+TEST_CASE("sanity case: a drain interval ended by the TBN limit within 500-2000 h") {
+  const RunResult r = simulate(sanity_charge(), {}, {hours(8000)});
+  const ChargeSummary& c = r.charges.front();
+  REQUIRE(c.first);
+  MESSAGE("first limit: " << std::string(name(*c.first)) << " at " << c.drain_interval << " h");
+  CHECK(c.drain_interval > 500);
+  CHECK(c.drain_interval < 2000);
+  // MODEL §8: half TBN in roughly 500–2000 h (from memory)
+  const double half_tbn = c.reached_at[static_cast<std::size_t>(Limit::tbn_fall)];
+  CHECK(half_tbn > 500);
+  CHECK(half_tbn < 2000);
+}
+
+TEST_CASE("directions of the drain interval") {
+  const OilCharge base = sanity_charge();
+  const double t0 = interval(base, hours(8000));
+  SUBCASE("more H2S, shorter") { CHECK(interval(base, hours(8000, 600)) < t0); }
+  SUBCASE("more blow-by, shorter") {
+    Segment s = hours(8000);
+    s.operation.blowby_share = 0.02;
+    CHECK(interval(base, s) < t0);
+  }
+  SUBCASE("larger SO3 share, shorter") {
+    ModelParameters m;
+    m.transfer.so3_share = 0.04;
+    CHECK(interval(base, hours(8000), m) < t0);
+  }
+  SUBCASE("hotter jacket water, longer") {
+    Segment s = hours(8000);
+    s.operation.jacket_water_out += 10;
+    CHECK(interval(base, s) > t0);
+  }
+  SUBCASE("bigger sump, longer") {
+    OilCharge c = base;
+    c.mass *= 1.5;
+    CHECK(interval(c, hours(8000)) > t0);
+  }
+  SUBCASE("higher fresh TBN, longer") {
+    OilCharge c = base;
+    c.oil.fresh_tbn = 9;
+    CHECK(interval(c, hours(8000)) > t0);
+  }
+  SUBCASE("more makeup, longer") {
+    Segment s = hours(8000);
+    s.oil_consumption *= 2;
+    CHECK(interval(base, s) > t0);
+  }
+}
+
+TEST_CASE("no contaminants: only oxidation, nitration, TAN or the cap end the charge") {
+  Segment s = hours(8000, 0);
+  const RunResult r = simulate(sanity_charge(), {}, {s});
+  const ChargeSummary& c = r.charges.front();
+  CHECK(c.reached_at[static_cast<std::size_t>(Limit::san)] < 0);
+  CHECK(c.reached_at[static_cast<std::size_t>(Limit::tbn_fall)] < 0);
+  REQUIRE(c.first);
+  const Limit l = *c.first;
+  CHECK((l == Limit::oxidation || l == Limit::nitration || l == Limit::tan_rise || l == Limit::max_hours));
+  for (const auto& p : r.trajectory) CHECK(p.san == 0);
+}
+
+TEST_CASE("TAN rises from the first hours on sour gas") {
+  RunOptions o;
+  o.output_interval = 1;
+  const RunResult r = simulate(sanity_charge(), {}, {hours(24)}, o);
+  REQUIRE(r.trajectory.size() > 3);
+  for (std::size_t i = 1; i < r.trajectory.size(); ++i) CHECK(r.trajectory[i].tan > r.trajectory[i - 1].tan);
+}
+
+TEST_CASE("a drain interval found inside a long segment is where the limit is met") {
+  const RunResult r = simulate(sanity_charge(), {}, {hours(8000)});
+  const ChargeSummary& c = r.charges.front();
+  REQUIRE(c.first);
+  const LimitReading at = c.at_end[static_cast<std::size_t>(*c.first)];
+  CHECK(std::fabs(at.value - at.limit) <= 1e-9 * std::fabs(at.limit));
+  // the other limits carry a margin at that time
+  for (Limit l : all_limits) {
+    if (l == *c.first) continue;
+    const LimitReading x = c.at_end[static_cast<std::size_t>(l)];
+    INFO(std::string(name(l)));
+    CHECK(!x.reached);
+    if (l == Limit::san) CHECK(x.value == 0);  // "any free acid": no margin to show, none present
+    else CHECK(x.margin() > 0);
+  }
+}
+
+TEST_CASE("continuous makeup can settle short of every limit: not reached, with the steady state") {
+  OilCharge c = sanity_charge();
+  c.oil.fresh_tbn = 15;
+  ModelParameters m;
+  m.limits.max_hours = 20000;
+  m.oxidation.rate_at_reference = 0.001;
+  Segment s = hours(20000, 40);
+  s.operation.nox.value = 0;
+  const RunResult r = simulate(c, m, {s});
+  CHECK(r.charges.front().first == Limit::max_hours);
+  Segment shorter = s;
+  shorter.hours = 5000;
+  const RunResult r2 = simulate(c, m, {shorter});
+  CHECK(!r2.charges.front().first);
+  REQUIRE(r2.steady_state);
+  CHECK(r2.steady_state->base > c.oil.base_floor);
+}
+
+TEST_CASE("events: oil change starts a new charge; hours kept apart") {
+  Segment a = hours(700), b = hours(500);
+  a.starts = 3;
+  a.calendar_hours = 800;
+  b.events.push_back({OilEvent::Kind::oil_change, -1});
+  b.events.push_back({OilEvent::Kind::top_up, 5.0});
+  const RunResult r = simulate(sanity_charge(), {}, {a, b});
+  REQUIRE(r.charges.size() == 2);
+  CHECK(r.charges[0].ended_by_change);
+  CHECK(r.charges[0].oil_hours == doctest::Approx(700));
+  CHECK(r.charges[1].oil_hours == doctest::Approx(500));
+  CHECK(r.engine_hours == doctest::Approx(1200));
+  CHECK(r.calendar_hours == doctest::Approx(1300));
+  CHECK(r.starts == doctest::Approx(3));
+  CHECK(r.trajectory.back().oil_hours == doctest::Approx(500));
+  CHECK(r.trajectory.back().charge == 1);
+  // after the change the oil is mostly fresh: 10 % residual
+  const OilCharge ch = sanity_charge();
+  const double b_fresh = ch.oil.fresh_reactive_base();
+  const auto& p_after = r.trajectory[r.trajectory.size() - 3];  // the point recorded after the oil change
+  CHECK(p_after.oil_hours == 0);
+  CHECK(p_after.state.base > 0.9 * b_fresh);
+  CHECK(p_after.state.base < b_fresh);
+}
+
+TEST_CASE("a run's ledgers close over events") {
+  Segment a = hours(900), b = hours(900, 900), c = hours(600, 50);
+  b.events.push_back({OilEvent::Kind::partial_drain, 0.3});
+  c.events.push_back({OilEvent::Kind::oil_change, 0.1});
+  const RunResult r = simulate(sanity_charge(), {}, {a, b, c});
+  const OilLedger& l = r.ledger;
+  const double b0 = r.initial.base * r.initial.mass, b1 = r.final_state.base * r.final_state.mass;
+  CHECK(std::fabs(b0 + l.base_added - l.base_removed - l.base_consumed - b1) <= 1e-9 * (b0 + l.base_added));
+  const double f0 = (r.initial.strong_acid + r.initial.weak_acid) * r.initial.mass;
+  const double f1 = (r.final_state.strong_acid + r.final_state.weak_acid) * r.final_state.mass;
+  CHECK(std::fabs(l.acid_entered - (l.base_consumed + f1 - f0 + l.acid_removed)) <= 1e-9 * l.acid_entered);
+}
+
+TEST_CASE("bad segments are refused with the field named") {
+  Segment s = hours(-5);
+  CHECK_THROWS_AS(simulate(sanity_charge(), {}, {s}), InputError);
+  OilCharge c = sanity_charge();
+  c.continuous_makeup = false;
+  CHECK_THROWS_AS(simulate(c, {}, {hours(5000)}), InputError);  // burns the sump dry without a top-up
+}
