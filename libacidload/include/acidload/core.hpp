@@ -18,14 +18,20 @@
 //   oxidation, nitration        A/cm            FTIR, per cm of path length
 //
 // Every field's comment repeats its unit in brackets.
+#include "acidload/core/combustion.hpp"
 #include "acidload/core/constants.hpp"
 #include "acidload/core/dew_points.hpp"
 #include "acidload/core/error.hpp"
+#include "acidload/core/exhaust.hpp"
 #include "acidload/core/fuel.hpp"
-#include "acidload/core/heating_value.hpp"
 #include "acidload/core/gas.hpp"
 #include "acidload/core/halocarbons.hpp"
+#include "acidload/core/heating_value.hpp"
+#include "acidload/core/limits.hpp"
+#include "acidload/core/oil.hpp"
+#include "acidload/core/rates.hpp"
 #include "acidload/core/so3_equilibrium.hpp"
 #include "acidload/core/species.hpp"
+#include "acidload/core/transfer.hpp"
 #include "acidload/core/version.hpp"
 #include "acidload/core/water.hpp"

@@ -279,6 +279,14 @@ Regime regime_of(const OilState& s, const OilBalance& k, const OilRates& r) {
   return regime_at(s, make_context(s, k, r));
 }
 
+double base_rate(const OilState& s, const OilBalance& k, const OilRates& r) {
+  const Context c = make_context(s, k, r);
+  const Regime g = regime_at(s, c);
+  if (g != Regime::above_floor) return 0;
+  const Linear e = equations(g, c).base;  // db/dt = a0 + a1/M − (l0 + l1/M) b
+  return e.a0 + e.a1 / s.mass - (e.l0 + e.l1 / s.mass) * s.base;
+}
+
 SegmentOutcome advance(OilState& s, const OilBalance& k, const OilRates& r, double hours, OilLedger& ledger) {
   validate(r);
   check::non_negative("segment hours", hours);

@@ -51,6 +51,13 @@ double AcidInflow::strong_koh() const {
   return eq * koh_molar_mass() * 1e3;                     // [g KOH/h]
 }
 
+AcidInflow::Koh AcidInflow::as_koh() const {
+  const double g = koh_molar_mass() * 1e3;  // [g KOH/mol]
+  return {koh_equivalents(Acid::H2SO4) * (sulfuric_liner + sulfuric_blowby) * g, sulfurous_fresh_koh(),
+          koh_equivalents(Acid::HCl) * hydrochloric * g, koh_equivalents(Acid::HF) * hydrofluoric * g,
+          koh_equivalents(Acid::HNO3) * nitric * g};
+}
+
 double AcidInflow::sulfurous_fresh_koh() const {
   return 2 * sulfurous_fresh * koh_molar_mass() * 1e3;  // SO2 counts 2 equivalents (MODEL §2)
 }

@@ -110,6 +110,9 @@ SegmentOutcome advance(OilState& state, const OilBalance& k, const OilRates& r, 
 //! state after `hours` when the mass falls (no steady state without makeup).
 OilState steady_state(const OilState& state, const OilBalance& k, const OilRates& r);
 
+//! Rate of change of the reactive base at this state [mg KOH/g per h] (negative while it falls).
+double base_rate(const OilState& s, const OilBalance& k, const OilRates& r);
+
 //! The regime the oil is in at this state under these rates.
 Regime regime_of(const OilState& s, const OilBalance& k, const OilRates& r);
 

@@ -58,6 +58,11 @@ struct AcidInflow {
   double hydrofluoric = 0;        //!< HF [mol/h]
   double nitric = 0;              //!< NO2 taken up, as HNO3 [mol/h]
   double strong_koh() const;      //!< everything but SO2, as KOH [g KOH/h]: R_strong of MODEL §8
+  //! Each acid as the KOH it neutralises [g KOH/h]: H2SO4 (liner + blow-by SO3), SO2 at fresh oil, HCl, HF, HNO3.
+  struct Koh {
+    double sulfuric = 0, sulfurous_fresh = 0, hydrochloric = 0, hydrofluoric = 0, nitric = 0;
+  };
+  Koh as_koh() const;
   double sulfurous_fresh_koh() const;  //!< SO2 uptake by fresh oil, 2 equivalents per S [g KOH/h]
 };
 
