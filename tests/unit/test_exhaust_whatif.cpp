@@ -3,6 +3,7 @@
 
 #include "../support/sanity_case.hpp"
 #include "acidload/core/dew_points.hpp"
+#include "acidload/core/error.hpp"
 #include "acidload/core/exhaust.hpp"
 #include "acidload/core/water.hpp"
 #include "acidload/studies/whatif.hpp"
