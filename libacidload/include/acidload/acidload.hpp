@@ -3,3 +3,4 @@
 #include "acidload/core.hpp"
 #include "acidload/studies/timeline.hpp"
 #include "acidload/studies/whatif.hpp"
+#include "acidload/units.hpp"
