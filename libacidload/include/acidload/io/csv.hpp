@@ -1,0 +1,32 @@
+#pragma once
+// CSV tables (operating records, lab results): a header row, then data rows; comma-separated,
+// double quotes for fields with commas; lines starting with '#' are comments.
+#include <cstddef>
+#include <string>
+#include <vector>
+
+#include "acidload/core/error.hpp"
+
+namespace acidload::io {
+
+struct CsvTable {
+  std::string file;                              //!< as given
+  std::vector<std::string> header;               //!< column names, trimmed
+  std::vector<std::vector<std::string>> rows;    //!< cells, trimmed; every row has header.size() cells
+  std::vector<int> lines;                        //!< 1-based file line of each row
+  std::vector<std::vector<int>> columns;         //!< 1-based character column where each cell starts
+  std::vector<std::string> text;                 //!< the file's lines, for carets
+  //! Index of a column by name, or −1.
+  int column(const std::string& name) const;
+  //! An InputError at a cell: file:line:col, key = the column's header, the cell's text, the expectation.
+  InputError error(std::size_t row, std::size_t col, std::string expected) const;
+};
+
+//! Reads a CSV file. Missing file, empty file, no data rows, a row with the wrong number of cells,
+//! an unterminated quote, a duplicate column name or a file over `max_bytes` throw InputError with
+//! the file, line and column.
+CsvTable read_csv(const std::string& path, std::size_t max_bytes = 64u << 20);
+//! Parses CSV text (as read_csv, without the file system).
+CsvTable parse_csv(const std::string& text, const std::string& file_name, std::size_t max_bytes = 64u << 20);
+
+}  // namespace acidload::io

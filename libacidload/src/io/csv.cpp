@@ -1,0 +1,264 @@
+// CSV reader, close to RFC 4180:
+//   - cells are separated by commas; a cell may be quoted with double quotes, and "" inside quotes
+//     stands for one quote; a quote inside an unquoted cell is an error, and so is anything but
+//     spaces between a closing quote and the next comma;
+//   - a quoted cell ends on its own line (cells spanning lines are refused, so that every cell has
+//     an exact line and column);
+//   - line ends LF or CR LF; a UTF-8 byte-order mark at the start is dropped;
+//   - blank lines and lines whose first non-blank character is '#' are skipped;
+//   - every cell, and every column name, is trimmed of spaces and tabs;
+//   - the first row is the header: names non-empty and unique.
+// Columns are 1-based and counted in characters (UTF-8 code points).
+#include "acidload/io/csv.hpp"
+
+#include <algorithm>
+#include <fstream>
+#include <string_view>
+
+namespace acidload::io {
+
+namespace {
+
+InputWhere file_only(const std::string& file) {
+  InputWhere w;
+  w.file = file;
+  return w;
+}
+
+bool is_space(char c) { return c == ' ' || c == '\t'; }
+
+std::string trim(std::string_view s) {
+  while (!s.empty() && is_space(s.front())) s.remove_prefix(1);
+  while (!s.empty() && is_space(s.back())) s.remove_suffix(1);
+  return std::string(s);
+}
+
+std::vector<std::string> split_lines(std::string_view text) {
+  std::vector<std::string> lines;
+  std::size_t start = 0;
+  while (start < text.size()) {
+    std::size_t end = text.find('\n', start);
+    if (end == std::string_view::npos) end = text.size();
+    std::string_view line = text.substr(start, end - start);
+    if (!line.empty() && line.back() == '\r') line.remove_suffix(1);
+    lines.emplace_back(line);
+    start = end + 1;
+  }
+  return lines;
+}
+
+std::string display(const std::vector<std::string>& text, int line) {
+  if (line < 1 || static_cast<std::size_t>(line) > text.size()) return {};
+  std::string s = text[static_cast<std::size_t>(line - 1)];
+  std::replace(s.begin(), s.end(), '\t', ' ');
+  return s;
+}
+
+class Parser {
+ public:
+  Parser(std::string_view text, CsvTable& table) : s_(text), t_(table) {}
+
+  void run() {
+    while (pos_ < s_.size()) {
+      if (skip_blank_or_comment()) continue;
+      read_record();
+    }
+    if (t_.header.empty())
+      throw InputError("header", "", "a header row, then data rows (the file has none)", file_only(t_.file));
+    if (t_.rows.empty())
+      throw error(header_line_, 1, "header", t_.header.front(), "at least one data row after the header");
+  }
+
+ private:
+  // 1-based character column of byte offset p on the current line.
+  // Counts on from the last position asked for on the same line, so that a long line with many
+  // cells costs linear time.
+  int column(std::size_t p) const {
+    if (col_line_start_ != line_start_ || p < col_pos_) {
+      col_line_start_ = col_pos_ = line_start_;
+      col_ = 1;
+    }
+    for (; col_pos_ < p && col_pos_ < s_.size(); ++col_pos_)
+      if ((static_cast<unsigned char>(s_[col_pos_]) & 0xC0) != 0x80) ++col_;
+    return col_;
+  }
+
+  InputError error(int line, int col, std::string key, std::string value, std::string expected) const {
+    return InputError(std::move(key), std::move(value), std::move(expected),
+                      InputWhere{t_.file, line, col, display(t_.text, line)});
+  }
+  InputError error_here(std::size_t p, std::string key, std::string value, std::string expected) const {
+    return error(line_, column(p), std::move(key), std::move(value), std::move(expected));
+  }
+
+  bool at_line_end(std::size_t p) const {
+    return p >= s_.size() || s_[p] == '\n' || (s_[p] == '\r' && p + 1 < s_.size() && s_[p + 1] == '\n');
+  }
+  // Consumes the line end at pos_ (if any) and starts the next line.
+  void next_line() {
+    if (pos_ < s_.size() && s_[pos_] == '\r') ++pos_;
+    if (pos_ < s_.size() && s_[pos_] == '\n') ++pos_;
+    ++line_;
+    line_start_ = pos_;
+  }
+
+  bool skip_blank_or_comment() {
+    std::size_t p = pos_;
+    while (p < s_.size() && is_space(s_[p])) ++p;
+    if (at_line_end(p) || s_[p] == '#') {
+      while (!at_line_end(p)) ++p;
+      pos_ = p;
+      next_line();
+      return true;
+    }
+    return false;
+  }
+
+  std::string key_for(std::size_t cell) const {
+    if (t_.header.empty()) return "header";
+    return cell < t_.header.size() ? t_.header[cell] : "(extra cell)";
+  }
+
+  void read_record() {
+    std::vector<std::string> cells;
+    std::vector<int> cols;
+    for (;;) {
+      while (pos_ < s_.size() && is_space(s_[pos_])) ++pos_;
+      const int col = column(pos_);
+      std::string cell;
+      if (pos_ < s_.size() && s_[pos_] == '"') {
+        const std::size_t open = pos_++;
+        for (;;) {
+          if (at_line_end(pos_))
+            throw error_here(open, key_for(cells.size()), std::string(s_.substr(open, pos_ - open)),
+                             "a closing quote on the same line for the quote opened here");
+          if (s_[pos_] == '"') {
+            if (pos_ + 1 < s_.size() && s_[pos_ + 1] == '"') {
+              cell += '"';
+              pos_ += 2;
+              continue;
+            }
+            ++pos_;
+            break;
+          }
+          cell += s_[pos_++];
+        }
+        while (pos_ < s_.size() && is_space(s_[pos_])) ++pos_;
+        if (!at_line_end(pos_) && s_[pos_] != ',')
+          throw error_here(pos_, key_for(cells.size()), cell, "a comma or the line end after the closing quote");
+      } else {
+        const std::size_t start = pos_;
+        while (!at_line_end(pos_) && s_[pos_] != ',') {
+          if (s_[pos_] == '"')
+            throw error_here(pos_, key_for(cells.size()), trim(s_.substr(start, pos_ - start + 1)),
+                             "a cell quoted as a whole when it holds a quote (\"say \"\"x\"\"\")");
+          if (s_[pos_] == '\r')
+            throw error_here(pos_, key_for(cells.size()), trim(s_.substr(start, pos_ - start)),
+                             "line ends LF or CR LF (a lone CR is here)");
+          ++pos_;
+        }
+        cell = std::string(s_.substr(start, pos_ - start));
+      }
+      cells.push_back(trim(cell));
+      cols.push_back(col);
+      if (pos_ < s_.size() && s_[pos_] == ',') {
+        ++pos_;
+        continue;
+      }
+      break;
+    }
+    const int end_col = column(pos_);
+    const int line = line_;
+    next_line();
+    if (t_.header.empty()) {
+      take_header(cells, cols, line);
+      return;
+    }
+    const std::size_t n = t_.header.size();
+    if (cells.size() > n)
+      throw error(line, cols[n], "(extra cell)", cells[n],
+                  std::to_string(n) + " cells, as the header has (this row has " + std::to_string(cells.size()) + ")");
+    if (cells.size() < n)
+      throw error(line, end_col, t_.header[cells.size()], "",
+                  std::to_string(n) + " cells, as the header has (this row has " + std::to_string(cells.size()) + ")");
+    t_.rows.push_back(std::move(cells));
+    t_.columns.push_back(std::move(cols));
+    t_.lines.push_back(line);
+  }
+
+  void take_header(const std::vector<std::string>& cells, const std::vector<int>& cols, int line) {
+    for (std::size_t i = 0; i < cells.size(); ++i) {
+      if (cells[i].empty()) throw error(line, cols[i], "header", "", "a column name in every header cell");
+      for (std::size_t j = 0; j < i; ++j)
+        if (cells[j] == cells[i])
+          throw error(line, cols[i], "header", cells[i],
+                      "each column name once: duplicate column '" + cells[i] + "' (first in column " +
+                          std::to_string(cols[j]) + ")");
+    }
+    t_.header = cells;
+    header_line_ = line;
+  }
+
+  std::string_view s_;
+  CsvTable& t_;
+  std::size_t pos_ = 0;
+  std::size_t line_start_ = 0;
+  int line_ = 1;
+  int header_line_ = 0;
+  mutable std::size_t col_line_start_ = static_cast<std::size_t>(-1), col_pos_ = 0;
+  mutable int col_ = 1;
+};
+
+}  // namespace
+
+int CsvTable::column(const std::string& name) const {
+  const auto it = std::find(header.begin(), header.end(), name);
+  return it == header.end() ? -1 : static_cast<int>(it - header.begin());
+}
+
+InputError CsvTable::error(std::size_t row, std::size_t col, std::string expected) const {
+  const std::string key = col < header.size() ? header[col] : "";
+  if (row >= rows.size() || row >= lines.size()) return InputError(key, "", std::move(expected), file_only(file));
+  const std::string value = col < rows[row].size() ? rows[row][col] : "";
+  const int line = lines[row];
+  const int c = row < columns.size() && col < columns[row].size() ? columns[row][col] : 0;
+  return InputError(key, value, std::move(expected), InputWhere{file, line, c, display(text, line)});
+}
+
+CsvTable parse_csv(const std::string& text, const std::string& file_name, std::size_t max_bytes) {
+  CsvTable t;
+  t.file = file_name;
+  if (text.size() > max_bytes)
+    throw InputError("file", std::to_string(text.size()) + " bytes",
+                     "a file of at most " + std::to_string(max_bytes) + " bytes", file_only(file_name));
+  std::string_view s(text);
+  if (s.size() >= 3 && s.substr(0, 3) == "\xEF\xBB\xBF") s.remove_prefix(3);  // UTF-8 byte-order mark
+  t.text = split_lines(s);
+  if (const std::size_t nul = s.find('\0'); nul != std::string_view::npos) {
+    const int line = static_cast<int>(std::count(s.begin(), s.begin() + static_cast<long>(nul), '\n')) + 1;
+    std::size_t start = nul;
+    while (start > 0 && s[start - 1] != '\n') --start;
+    throw InputError("file", "byte 0x00", "text (a NUL byte is here; is this a CSV file?)",
+                     InputWhere{file_name, line, static_cast<int>(nul - start) + 1, ""});
+  }
+  Parser(s, t).run();
+  return t;
+}
+
+CsvTable read_csv(const std::string& path, std::size_t max_bytes) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw InputError("file", path, "a readable CSV file (cannot open it)", file_only(path));
+  std::string text;
+  char buf[65536];
+  while (in.read(buf, sizeof buf) || in.gcount() > 0) {
+    text.append(buf, static_cast<std::size_t>(in.gcount()));
+    if (text.size() > max_bytes)
+      throw InputError("file", "more than " + std::to_string(max_bytes) + " bytes",
+                       "a file of at most " + std::to_string(max_bytes) + " bytes", file_only(path));
+    if (!in) break;
+  }
+  if (in.bad()) throw InputError("file", path, "a readable CSV file (reading it failed)", file_only(path));
+  return parse_csv(text, path, max_bytes);
+}
+
+}  // namespace acidload::io

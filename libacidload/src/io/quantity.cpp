@@ -1,0 +1,332 @@
+// Values with units from case files and CSV cells. The lists of units are closed: a unit not listed
+// for a kind is an error that names the accepted ones. The only alternative spelling is "Nm³" for
+// "Nm3" (in Nm3/h, Nm3/min, mg/Nm3 and mg/Nm3 CH4).
+//
+// Number syntax: [+|-] digits [. digits] [(e|E) [+|-] digits], e.g. 12, -0.5, 1.2e-3. No hex, no
+// "inf" or "nan", no thousands separators or decimal commas; magnitudes beyond 1e300 (and non-zero
+// ones below 1e-300) are refused. The unit follows after one or more spaces or tabs.
+//
+// Range checks are the caller's (a fraction of 1.4 is read as 1.4), except what no value of a kind
+// can be: a temperature at or below absolute zero, a negative absolute pressure, a negative count and
+// a negative concentration are refused here.
+#include "acidload/io/quantity.hpp"
+
+#include <charconv>
+#include <cmath>
+#include <system_error>
+#include <utility>
+
+namespace acidload::io {
+
+namespace {
+
+struct UnitDef {
+  std::string name;    // as written
+  double factor;       // core value = written value × factor + offset
+  double offset;
+  UnitDef(std::string n, double f, double o = 0) : name(std::move(n)), factor(f), offset(o) {}
+};
+
+struct KindInfo {
+  std::string_view name;
+  std::vector<UnitDef> units;
+  bool bare = false;                 // a bare number is accepted (factor 1)
+  std::vector<std::string> names;    // the units' names, for accepted_units()
+  KindInfo() = default;
+  KindInfo(std::string_view n, std::vector<UnitDef> u, bool b = false) : name(n), units(std::move(u)), bare(b) {}
+};
+
+constexpr Kind all_kinds[] = {Kind::temperature, Kind::temperature_change, Kind::power, Kind::volume, Kind::mass,
+                              Kind::molar_flow, Kind::fraction, Kind::acid_number, Kind::specific_consumption,
+                              Kind::duration, Kind::pressure, Kind::density, Kind::per_hour, Kind::oxidation,
+                              Kind::oxidation_rate, Kind::molar_energy, Kind::count, Kind::number};
+
+KindInfo make_info(Kind k) {
+  // Nm³ is an amount: V_m at 0 °C and 101.325 kPa (the normal state).
+  const double per_Nm3 = 1.0 / molar_volume(ReferenceState::normal());  // [mol/Nm³]
+  KindInfo i;
+  switch (k) {
+    case Kind::temperature: i = {"temperature", {{"degC", 1, 273.15}, {"K", 1}}}; break;
+    case Kind::temperature_change: i = {"temperature change", {{"K", 1}, {"degC", 1}}}; break;
+    case Kind::power: i = {"power", {{"W", 1}, {"kW", 1e3}, {"MW", 1e6}}}; break;
+    case Kind::volume: i = {"volume", {{"L", 1e-3}, {"m3", 1}}}; break;
+    case Kind::mass: i = {"mass", {{"kg", 1}, {"g", 1e-3}, {"t", 1e3}}}; break;
+    case Kind::molar_flow:
+      i = {"molar flow", {{"Nm3/h", per_Nm3}, {"mol/h", 1}, {"kmol/h", 1e3}, {"Nm3/min", 60 * per_Nm3}}};
+      break;
+    case Kind::fraction: i = {"fraction", {{"%", 1e-2}}, true}; break;
+    case Kind::acid_number: i = {"acid or base number", {{"mg KOH/g", 1}}}; break;
+    case Kind::specific_consumption: i = {"specific consumption", {{"g/kWh", 1e-3 / 3.6e6}}}; break;
+    case Kind::duration: i = {"duration", {{"h", 1}, {"d", 24}, {"min", 1.0 / 60}}}; break;
+    case Kind::pressure: i = {"pressure", {{"Pa", 1}, {"kPa", 1e3}, {"bar", 1e5}, {"mbar", 1e2}, {"MPa", 1e6}}}; break;
+    case Kind::density: i = {"density", {{"kg/m3", 1}, {"kg/L", 1e3}, {"g/cm3", 1e3}}}; break;
+    case Kind::per_hour: i = {"rate per hour", {{"1/h", 1}}}; break;
+    // Absorbance per length: 0.1 mm = 0.01 cm, so 1 A/0.1mm = 100 A/cm.
+    case Kind::oxidation: i = {"oxidation", {{"A/cm", 1}, {"A/0.1mm", 100}}}; break;
+    case Kind::oxidation_rate: i = {"oxidation rate", {{"A/cm/h", 1}}}; break;
+    case Kind::molar_energy: i = {"molar energy", {{"J/mol", 1}, {"kJ/mol", 1e3}}}; break;
+    case Kind::count: i = {"count", {}, true}; break;
+    case Kind::number: i = {"number", {}, true}; break;
+  }
+  for (const auto& u : i.units) i.names.push_back(u.name);
+  return i;
+}
+
+const KindInfo& info(Kind k) {
+  static const std::vector<KindInfo> table = [] {
+    std::vector<KindInfo> t;
+    for (Kind kind : all_kinds) t.push_back(make_info(kind));
+    return t;
+  }();
+  return table[static_cast<std::size_t>(k)];
+}
+
+bool is_space(char c) { return c == ' ' || c == '\t'; }
+
+std::string_view trim(std::string_view s) {
+  while (!s.empty() && is_space(s.front())) s.remove_prefix(1);
+  while (!s.empty() && is_space(s.back())) s.remove_suffix(1);
+  return s;
+}
+
+// Runs of white space become one space; "Nm³" becomes "Nm3".
+std::string normalize_unit(std::string_view s) {
+  std::string r;
+  for (std::size_t i = 0; i < s.size(); ++i) {
+    if (is_space(s[i])) {
+      if (!r.empty() && r.back() != ' ') r += ' ';
+    } else if (s.compare(i, 4, "Nm\xC2\xB3") == 0) {
+      r += "Nm3";
+      i += 3;
+    } else {
+      r += s[i];
+    }
+  }
+  return r;
+}
+
+// Length of the longest prefix of s that follows the number syntax (0 if none).
+std::size_t number_prefix(std::string_view s) {
+  std::size_t i = 0;
+  const auto digits = [&] {
+    const std::size_t start = i;
+    while (i < s.size() && s[i] >= '0' && s[i] <= '9') ++i;
+    return i > start;
+  };
+  if (i < s.size() && (s[i] == '+' || s[i] == '-')) ++i;
+  if (!digits()) return 0;
+  std::size_t end = i;
+  if (i < s.size() && s[i] == '.') {
+    ++i;
+    if (digits()) end = i;
+    else return end;
+  }
+  i = end;
+  if (i < s.size() && (s[i] == 'e' || s[i] == 'E')) {
+    ++i;
+    if (i < s.size() && (s[i] == '+' || s[i] == '-')) ++i;
+    if (digits()) end = i;
+  }
+  return end;
+}
+
+const char* const number_form = "a number such as 12, -0.5 or 1.2e-3";
+
+// Parses a whole token as a number; `problem` says what is wrong, for the message.
+bool parse_number(std::string_view s, double& out, std::string& problem) {
+  if (s.empty()) {
+    problem = "the value is empty";
+    return false;
+  }
+  if (number_prefix(s) != s.size()) {
+    problem = "'" + std::string(s) + "' is not " + number_form;
+    return false;
+  }
+  std::string_view digits = s;
+  if (digits.front() == '+') digits.remove_prefix(1);  // from_chars takes no '+'
+  double v = 0;
+  const auto r = std::from_chars(digits.data(), digits.data() + digits.size(), v, std::chars_format::general);
+  const bool bad = r.ec != std::errc() || r.ptr != digits.data() + digits.size() || !std::isfinite(v) ||
+                   std::fabs(v) > 1e300 || (v != 0 && std::fabs(v) < 1e-300);
+  if (bad) {
+    problem = "'" + std::string(s) + "' is out of range: numbers from 1e-300 to 1e300 in magnitude, or 0";
+    return false;
+  }
+  out = v == 0 ? 0.0 : v;  // no negative zero
+  return true;
+}
+
+std::string join(const std::vector<std::string>& items) {
+  std::string s;
+  for (std::size_t i = 0; i < items.size(); ++i) s += (i ? ", " : "") + items[i];
+  return s;
+}
+
+// What a kind accepts, as the "expected" part of a message.
+std::string expectation(Kind k) {
+  const KindInfo& i = info(k);
+  switch (k) {
+    case Kind::fraction: return "a fraction: a bare number (0.4) or a percentage with the unit % (40 %)";
+    case Kind::count: return "a count: a bare number >= 0";
+    case Kind::number: return number_form;
+    default: return "a " + std::string(i.name) + " with one of the units: " + join(i.names);
+  }
+}
+
+std::string with_problem(Kind k, const std::string& problem) {
+  return problem.empty() ? expectation(k) : expectation(k) + " (" + problem + ")";
+}
+
+// Splits "<number> <rest>": the number token and the rest, normalized. False (with `problem`) when
+// the number is bad or glued to the unit.
+bool split_value(std::string_view text, std::string_view& number_text, std::string& rest, std::string& problem) {
+  text = trim(text);
+  std::size_t cut = 0;
+  while (cut < text.size() && !is_space(text[cut])) ++cut;
+  number_text = text.substr(0, cut);
+  rest = normalize_unit(trim(text.substr(cut)));
+  const std::size_t p = number_prefix(number_text);
+  if (p > 0 && p < number_text.size()) {
+    const char c = number_text[p];
+    const bool unit_like = !(c >= '0' && c <= '9') && c != '.' && c != ',' && c != 'x' && c != 'X' && c != '_';
+    if (unit_like && rest.empty()) {
+      problem = "put a space between the number and the unit: '" + std::string(number_text.substr(0, p)) + " " +
+                std::string(number_text.substr(p)) + "'";
+      return false;
+    }
+  }
+  return true;
+}
+
+std::string node_text(const Node& n) {
+  switch (n.type) {
+    case Node::Type::null: return "";
+    case Node::Type::scalar: return n.scalar;
+    case Node::Type::sequence: return "(a list)";
+    case Node::Type::map: return "(a map)";
+  }
+  return "";
+}
+
+std::string not_scalar(const Node& n) {
+  switch (n.type) {
+    case Node::Type::null: return "the value is empty";
+    case Node::Type::sequence: return "found a list";
+    case Node::Type::map: return "found a map";
+    default: return "";
+  }
+}
+
+}  // namespace
+
+const std::vector<std::string>& accepted_units(Kind k) { return info(k).names; }
+
+std::string_view kind_name(Kind k) { return info(k).name; }
+
+bool parse_quantity_text(std::string_view text, Kind k, double& out, std::string& why) {
+  const KindInfo& ki = info(k);
+  std::string_view number_text;
+  std::string unit, problem;
+  double v = 0;
+  if (!split_value(text, number_text, unit, problem) || !parse_number(number_text, v, problem)) {
+    why = with_problem(k, problem);
+    return false;
+  }
+  const UnitDef* def = nullptr;
+  static const UnitDef bare("", 1, 0);
+  if (unit.empty()) {
+    if (!ki.bare) {
+      why = with_problem(k, "the unit is missing");
+      return false;
+    }
+    def = &bare;
+  } else {
+    for (const auto& u : ki.units)
+      if (u.name == unit) def = &u;
+    if (!def) {
+      why = with_problem(k, ki.units.empty() ? "no unit is taken: '" + unit + "'"
+                                             : "'" + unit + "' is not one of them");
+      return false;
+    }
+  }
+  const double value = v * def->factor + def->offset;
+  if (k == Kind::temperature && !(value > 0)) {
+    why = "a temperature above absolute zero (-273.15 degC, 0 K)";
+    return false;
+  }
+  if (k == Kind::pressure && value < 0) {
+    why = "an absolute pressure, not below 0 (" + join(ki.names) + ")";
+    return false;
+  }
+  if (k == Kind::count && value < 0) {
+    why = "a count: a bare number >= 0";
+    return false;
+  }
+  if (!std::isfinite(value) || std::fabs(value) > 1e300) {  // e.g. 1e300 MW
+    why = with_problem(k, "out of range once converted");
+    return false;
+  }
+  out = value;
+  return true;
+}
+
+double quantity(const Document& doc, const Node& node, Kind k) {
+  if (node.type != Node::Type::scalar) throw doc.error(node, node_text(node), with_problem(k, not_scalar(node)));
+  double v = 0;
+  std::string why;
+  if (!parse_quantity_text(node.scalar, k, v, why)) throw doc.error(node, node.scalar, why);
+  return v;
+}
+
+double number(const Document& doc, const Node& node) { return quantity(doc, node, Kind::number); }
+
+Concentration concentration(const Document& doc, const Node& node, Basis default_basis) {
+  struct ConcUnit {
+    const char* name;
+    ConcentrationUnit unit;
+    bool has_basis;
+  };
+  static const ConcUnit units[] = {
+      {"ppmv", ConcentrationUnit::ppmv, true},       {"ppm", ConcentrationUnit::ppmv, true},
+      {"mg/Nm3", ConcentrationUnit::mg_per_m3, true}, {"mg/m3", ConcentrationUnit::mg_per_m3, true},
+      {"mg/MJ", ConcentrationUnit::mg_per_MJ, false}, {"mg/Nm3 CH4", ConcentrationUnit::mg_per_m3_methane, false},
+      {"mol/h", ConcentrationUnit::mol_per_h, false},
+  };
+  const std::string expected =
+      "a concentration with one of the units: ppmv, ppm, mg/Nm3, mg/m3, mg/MJ, mg/Nm3 CH4, mol/h, "
+      "then optionally dry or wet";
+  const auto fail = [&](const std::string& problem) {
+    return doc.error(node, node_text(node), problem.empty() ? expected : expected + " (" + problem + ")");
+  };
+  if (node.type != Node::Type::scalar) throw fail(not_scalar(node));
+
+  std::string_view number_text;
+  std::string rest, problem;
+  double v = 0;
+  if (!split_value(node.scalar, number_text, rest, problem) || !parse_number(number_text, v, problem))
+    throw fail(problem);
+  if (rest.empty()) throw fail("the unit is missing");
+
+  Concentration c;
+  c.basis = default_basis;
+  bool basis_given = false;
+  const std::size_t sp = rest.rfind(' ');
+  if (sp != std::string::npos && (rest.compare(sp + 1, std::string::npos, "dry") == 0 ||
+                                  rest.compare(sp + 1, std::string::npos, "wet") == 0)) {
+    c.basis = rest.compare(sp + 1, std::string::npos, "dry") == 0 ? Basis::dry : Basis::wet;
+    basis_given = true;
+    rest.resize(sp);
+  }
+  const ConcUnit* found = nullptr;
+  for (const auto& u : units)
+    if (rest == u.name) found = &u;
+  if (!found) throw fail("'" + rest + "' is not one of them");
+  if (basis_given && !found->has_basis)
+    throw fail("dry or wet applies to ppmv and mg/Nm3 only; " + rest + " has no basis");
+  if (v < 0) throw fail("a concentration is not negative");
+  c.value = v;
+  c.unit = found->unit;
+  return c;
+}
+
+}  // namespace acidload::io
