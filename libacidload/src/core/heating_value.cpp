@@ -1,5 +1,7 @@
 #include "acidload/core/heating_value.hpp"
 
+#include <cmath>
+
 #include "acidload/core/error.hpp"
 
 namespace acidload {
@@ -11,7 +13,7 @@ double temperature(CombustionReference r) {
 
 CombustionReference combustion_reference_at(double T) {
   for (int i = 0; i < 4; ++i)
-    if (T == temperature(static_cast<CombustionReference>(i))) return static_cast<CombustionReference>(i);
+    if (std::fabs(T - temperature(static_cast<CombustionReference>(i))) < 1e-9) return static_cast<CombustionReference>(i);
   throw InputError("combustion-reference-temperature", format_value(T) + " K",
                    "one of the ISO 6976 reference temperatures 0, 15, 20 or 25 degC");
 }

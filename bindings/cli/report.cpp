@@ -1,0 +1,79 @@
+#include "report.hpp"
+
+#include <string>
+
+#include "acidload/acidload.hpp"
+
+namespace acidload_cli {
+
+using namespace acidload;
+
+namespace {
+double c_of(double kelvin) { return kelvin - constants::zero_celsius; }
+const char* method_name(BaseNumberMethod m) { return m == BaseNumberMethod::d2896 ? "D2896" : "D4739"; }
+}  // namespace
+
+void print_check(std::FILE* out, const io::CaseFile& c) {
+  std::fprintf(out, "%s: format version %d, %zu variant(s) — inputs read as follows (invented data if it is the demo)\n",
+               c.file.c_str(), c.format_version, c.variants.size());
+  if (!c.title.empty()) std::fprintf(out, "case: %s\n", c.title.c_str());
+  for (const std::string& o : c.overlays) std::fprintf(out, "overlay: %s\n", o.c_str());
+  for (const EngineCase& v : c.variants) {
+    const Segment& s = v.record.front();
+    const FuelGas& g = s.fuel;
+    const GasContext ctx = context(g);
+    std::fprintf(out, "\n[%s]\n", v.name.c_str());
+    std::fprintf(out, "  fuel: CH4 %.2f %%, CO2 %.2f %%, H2O %.2f %% (wet); LHV %.3f MJ/Nm3\n", g[Gas::CH4] * 100,
+                 g[Gas::CO2] * 100, g[Gas::H2O] * 100, lower_heating_value_volumetric(g) * 1e-6);
+    std::fprintf(out, "        H2S %.2f ppmv dry; other S %.3f mg/Nm3 dry as S; Cl %.3f, F %.3f mg/Nm3 dry\n",
+                 from_wet_mole_fraction(g[Gas::H2S], ConcentrationUnit::ppmv, Basis::dry, molar_mass(Gas::H2S), ctx),
+                 from_wet_mole_fraction(g.other_sulfur, ConcentrationUnit::mg_per_m3, Basis::dry, atomic_weight(Element::S) * 1e-3, ctx),
+                 from_wet_mole_fraction(g.chlorine, ConcentrationUnit::mg_per_m3, Basis::dry, atomic_weight(Element::Cl) * 1e-3, ctx),
+                 from_wet_mole_fraction(g.fluorine, ConcentrationUnit::mg_per_m3, Basis::dry, atomic_weight(Element::F) * 1e-3, ctx));
+    std::fprintf(out, "  engine: %.1f kW, fuel %.2f Nm3/h, lambda %.2f, blow-by %.2f %%, jacket water %.1f degC, oil %.1f degC\n",
+                 s.operation.electrical_power * 1e-3, s.operation.fuel_flow * molar_volume(ReferenceState::normal()),
+                 s.operation.air.excess_air_ratio, s.operation.blowby_share * 100, c_of(s.operation.jacket_water_out),
+                 c_of(s.oil_temperature));
+    std::fprintf(out, "  oil: %.1f kg (%.0f L), fresh TBN %.2f mg KOH/g by %s, TAN %.2f, consumption %.4f kg/h, %s makeup\n",
+                 v.charge.mass, v.charge.mass / v.charge.oil.density_15 * 1e3, v.charge.oil.fresh_tbn,
+                 method_name(v.charge.oil.fresh_tbn_method), v.charge.oil.fresh_tan, s.oil_consumption,
+                 v.charge.continuous_makeup ? "continuous" : "top-up");
+    const LimitSettings& l = v.model.limits;
+    std::fprintf(out, "  limits: TBN <= %.0f %% of fresh (%s), TAN >= fresh + %.2f, crossover %s, SAN > %.2f, ox %.0f, nitr %.0f A/cm, cap %.0f h\n",
+                 l.tbn_share_of_fresh * 100, method_name(l.tbn_method), l.tan_rise, l.crossover ? "on" : "off", l.san,
+                 l.oxidation, l.nitration, l.max_hours);
+    double hours = 0;
+    for (const Segment& x : v.record) hours += x.hours;
+    std::fprintf(out, "  record: %zu segment(s), %.1f h\n", v.record.size(), hours);
+  }
+}
+
+void print_comparison(std::FILE* out, const io::CaseFile& c, const std::vector<VariantSummary>& rows) {
+  if (!c.title.empty()) std::fprintf(out, "%s\n\n", c.title.c_str());
+  std::fprintf(out, "%-31s %-29s %6s %8s %11s  %-10s %5s %5s %5s %6s\n", "", "acid into the oil [g KOH/h]", "S to",
+               "TBN fall", "drain", "limit", "TBN", "TAN", "SAN", "H2SO4");
+  std::fprintf(out, "%-31s %5s %5s %5s %5s %5s %6s %8s %11s  %-10s %5s %5s %5s %6s\n", "variant", "H2SO4", "SO2", "HCl",
+               "HF", "HNO3", "oil %", "/100 h", "interval", "reached", "end", "end", "end", "dew C");
+  for (const VariantSummary& v : rows) {
+    const std::string interval =
+        v.charge.first ? std::to_string(static_cast<long>(v.charge.drain_interval + 0.5)) + " h" : "not reached";
+    const std::string limit = v.charge.first ? std::string(name(*v.charge.first)) : "-";
+    std::fprintf(out, "%-31s %5.2f %5.2f %5.2f %5.2f %5.2f %6.3f %8.3f %11s  %-10s %5.2f %5.2f %5.2f %6.1f\n",
+                 v.name.c_str(), v.inflow_koh.sulfuric, v.inflow_koh.sulfurous_fresh, v.inflow_koh.hydrochloric,
+                 v.inflow_koh.hydrofluoric, v.inflow_koh.nitric, v.sulfur_share_to_oil * 100, -v.initial_tbn_rate * 100,
+                 interval.c_str(), limit.c_str(), v.tbn_end, v.tan_end, v.san_end,
+                 v.dew_points.sulfuric > 0 ? c_of(v.dew_points.sulfuric) : 0.0);
+  }
+  const LimitSettings& l = c.variants.front().model.limits;
+  std::fprintf(out, "\nTBN by %s at the drain interval (or at the end of the record). SO2 uptake shown for fresh oil.\n",
+               method_name(l.tbn_method));
+}
+
+void print_caution(std::FILE* out) {
+  std::fprintf(out,
+               "\nCaution: estimates that support, not replace, the engine maker's and oil supplier's limits, lab\n"
+               "analysis, local codes and licensed practice. Never extend a drain interval without lab confirmation.\n"
+               "H2S is toxic (the nose stops warning above ~100 ppm) and flammable; used oil with free acid is corrosive.\n");
+}
+
+}  // namespace acidload_cli

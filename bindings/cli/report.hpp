@@ -1,0 +1,19 @@
+#pragma once
+// Printing for the acidload program: plain text tables of what the library computed.
+#include <cstdio>
+#include <vector>
+
+#include "acidload/io/case_file.hpp"
+#include "acidload/studies/whatif.hpp"
+
+namespace acidload_cli {
+
+//! What `check` reports: the inputs as the reader understood them.
+void print_check(std::FILE* out, const acidload::io::CaseFile& c);
+//! The comparison table of the variants.
+void print_comparison(std::FILE* out, const acidload::io::CaseFile& c,
+                      const std::vector<acidload::VariantSummary>& rows);
+//! The one-line caution every result carries, and the fuller one.
+void print_caution(std::FILE* out);
+
+}  // namespace acidload_cli
