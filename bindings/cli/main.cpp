@@ -7,7 +7,13 @@
 
 #include "acidload/acidload.hpp"
 #include "acidload/io/case_file.hpp"
+#include "acidload/io/quantity.hpp"
+#include "acidload/io/results.hpp"
+#include "acidload/studies/inverse.hpp"
 #include "report.hpp"
+
+#include <chrono>
+#include <unistd.h>
 
 namespace {
 constexpr int exit_ok = 0, exit_usage = 2, exit_bad_input = 3, exit_internal = 4;
@@ -21,7 +27,9 @@ const char* main_help =
     "usage: acidload <command> [options]\n\n"
     "commands:\n"
     "  check CASE   read a case file and report what it found, without running it\n"
-    "  run CASE     run a case and print the comparison of its variants\n"
+    "  run CASE     run a case and print the comparison of its variants (and write result files)\n"
+    "  solve CASE   an inverse question: the H2S, fresh TBN, jacket water or oil volume for a target interval\n"
+    "  convert FIG  a contaminant figure in every unit, for the gas of a case\n"
     "  demo         run the bundled demo site (invented data)\n\n"
     "options:\n"
     "  --help       this text (also after a command: acidload run --help)\n"
@@ -35,10 +43,33 @@ const char* check_help =
     "Exit code 3 with file:line:column and the reason when the case has a mistake.\n";
 
 const char* run_help =
-    "usage: acidload run CASE [--overlay FILE]...\n\n"
+    "usage: acidload run CASE [--overlay FILE]... [--out FOLDER]\n\n"
     "Runs every variant of the case file CASE and prints a comparison: acid into the oil by species,\n"
     "the initial TBN fall, the drain interval and the limit that ends it (or 'not reached'), TBN, TAN\n"
-    "and SAN there, and the exhaust sulfuric-acid dew point.\n";
+    "and SAN there, and the exhaust sulfuric-acid dew point.\n\n"
+    "  --out FOLDER   also write FOLDER/summary.json (every figure, units in the key names) and\n"
+    "                 FOLDER/trajectories.csv (TBN, TAN, SAN, oxidation, nitration against hours per\n"
+    "                 variant). Written to a new folder and swapped in: a failed run leaves an\n"
+    "                 existing FOLDER as it was.\n";
+
+const char* solve_help =
+    "usage: acidload solve CASE --for LEVER --target HOURS [--range LOW HIGH] [--variant NAME] [--overlay FILE]...\n\n"
+    "Finds the value of one lever at which the drain interval equals the target, by bracketing\n"
+    "root-finding on the forward model, and checks it by running the model at the answer.\n"
+    "LEVER and its unit:\n"
+    "  h2s                highest H2S [ppmv, dry] that still reaches the target (default range 0 to 3000 ppmv)\n"
+    "  fresh-tbn          fresh-oil TBN needed [mg KOH/g] (default range: just above the floor to 30 mg KOH/g)\n"
+    "  jacket-water-out   lowest jacket-water outlet temperature [degC] (default range 60 to 120 degC)\n"
+    "  oil-volume         oil in circulation needed [L] (default range: a tenth to ten times the case's)\n"
+    "HOURS as '4000 h'. LOW and HIGH with units, e.g. --range '0 ppmv' '800 ppmv'.\n"
+    "'No answer in the range' is a plain answer: the model is not extrapolated.\n";
+
+const char* convert_help =
+    "usage: acidload convert FIGURE --case CASE [--as SPECIES] [--variant NAME]\n\n"
+    "Shows a contaminant FIGURE ('300 ppmv', '450 mg/Nm3 dry', '25 mg/MJ', …) in every unit for the\n"
+    "fuel gas of CASE: ppmv and mg/Nm3 dry and wet, mg/MJ of LHV, mg per Nm3 of CH4, mol/h at the\n"
+    "case's fuel flow. SPECIES: H2S (default), S (as sulfur), Cl, F, or a halocarbon by name or\n"
+    "formula (then also its Cl and F content).\n";
 
 const char* demo_help =
     "usage: acidload demo\n\n"
@@ -47,6 +78,7 @@ const char* demo_help =
 struct Args {
   std::string command, case_file;
   std::vector<std::string> overlays;
+  std::string out, lever, target, low, high, variant, species = "H2S", convert_case;
   bool help = false;
 };
 
@@ -56,9 +88,21 @@ Args parse(int argc, char** argv) {
   for (int i = 2; i < argc; ++i) {
     const std::string s = argv[i];
     if (s == "--help" || s == "-h") a.help = true;
-    else if (s == "--overlay") {
-      if (i + 1 >= argc) throw UsageError("--overlay needs a file");
-      a.overlays.push_back(argv[++i]);
+    else if (s == "--overlay" || s == "--out" || s == "--for" || s == "--target" || s == "--variant" ||
+             s == "--as" || s == "--case") {
+      if (i + 1 >= argc) throw UsageError(s + " needs a value");
+      const std::string v = argv[++i];
+      if (s == "--overlay") a.overlays.push_back(v);
+      else if (s == "--out") a.out = v;
+      else if (s == "--for") a.lever = v;
+      else if (s == "--target") a.target = v;
+      else if (s == "--variant") a.variant = v;
+      else if (s == "--as") a.species = v;
+      else a.convert_case = v;
+    } else if (s == "--range") {
+      if (i + 2 >= argc) throw UsageError("--range needs LOW and HIGH");
+      a.low = argv[++i];
+      a.high = argv[++i];
     } else if (!s.empty() && s[0] == '-') throw UsageError("unknown option '" + s + "'");
     else if (a.case_file.empty()) a.case_file = s;
     else throw UsageError("one case file at a time (got '" + a.case_file + "' and '" + s + "')");
@@ -66,11 +110,111 @@ Args parse(int argc, char** argv) {
   return a;
 }
 
-int run_case(const acidload::io::CaseFile& c) {
+int run_case(const acidload::io::CaseFile& c, const std::string& out) {
+  using clock = std::chrono::steady_clock;
+  const auto start = clock::now();
+  const bool terminal = isatty(STDERR_FILENO);
+  bool shown = false;
   std::vector<acidload::VariantSummary> rows;
-  for (const auto& v : c.variants) rows.push_back(acidload::summarize(v));
+  for (std::size_t i = 0; i < c.variants.size(); ++i) {
+    if (terminal && std::chrono::duration<double>(clock::now() - start).count() > 1.0) {
+      std::fprintf(stderr, "\racidload: running variant %zu of %zu …", i + 1, c.variants.size());
+      shown = true;
+    }
+    rows.push_back(acidload::summarize(c.variants[i]));
+  }
+  if (shown) std::fprintf(stderr, "\r%60s\r", "");
+  if (!out.empty()) acidload::io::write_results(out, c, rows);  // before printing: a failed write prints no table
   acidload_cli::print_comparison(stdout, c, rows);
+  if (!out.empty()) std::printf("\nResults written to %s/summary.json and %s/trajectories.csv\n", out.c_str(), out.c_str());
   acidload_cli::print_caution(stdout);
+  return exit_ok;
+}
+
+const acidload::EngineCase& pick_variant(const acidload::io::CaseFile& c, const std::string& name) {
+  if (name.empty()) return c.variants.front();
+  std::string names;
+  for (const auto& v : c.variants) {
+    if (v.name == name) return v;
+    names += (names.empty() ? "" : ", ") + v.name;
+  }
+  throw UsageError("no variant named '" + name + "' (the case has: " + names + ")");
+}
+
+double parse_cli_quantity(const std::string& text, acidload::io::Kind k, const char* option) {
+  double v = 0;
+  std::string why;
+  if (!acidload::io::parse_quantity_text(text, k, v, why))
+    throw UsageError(std::string(option) + " '" + text + "': " + why);
+  return v;
+}
+
+int solve(const Args& a) {
+  using namespace acidload;
+  if (a.case_file.empty()) throw UsageError("solve needs a case file");
+  if (a.lever.empty()) throw UsageError("solve needs --for h2s|fresh-tbn|jacket-water-out|oil-volume");
+  if (a.target.empty()) throw UsageError("solve needs --target, e.g. --target '4000 h'");
+  const io::CaseFile file = io::load_case(a.case_file, a.overlays);
+  const EngineCase& c = pick_variant(file, a.variant);
+  const double target = parse_cli_quantity(a.target, io::Kind::duration, "--target");
+  Lever lever;
+  io::Kind kind;
+  double lo, hi, tol, shown_offset = 0, shown_scale = 1;
+  const char* unit;
+  if (a.lever == "h2s") lever = Lever::h2s_ppmv_dry, kind = io::Kind::number, lo = 0, hi = 3000, tol = 0.01, unit = "ppmv";
+  else if (a.lever == "fresh-tbn") {
+    lever = Lever::fresh_tbn, kind = io::Kind::acid_number, unit = "mg KOH/g", tol = 1e-4;
+    lo = c.charge.oil.base_floor + c.charge.oil.weak_base(c.charge.oil.fresh_tbn_method) + 0.01, hi = 30;
+  } else if (a.lever == "jacket-water-out") {
+    lever = Lever::jacket_water_out, kind = io::Kind::temperature, unit = "degC", tol = 1e-3;
+    lo = 333.15, hi = 393.15, shown_offset = -273.15;
+  } else if (a.lever == "oil-volume") {
+    lever = Lever::oil_volume, kind = io::Kind::volume, unit = "L", tol = 1e-6, shown_scale = 1e3;
+    const double v = lever_value(c, lever);
+    lo = 0.1 * v, hi = 10 * v;
+  } else {
+    throw UsageError("--for '" + a.lever + "': one of h2s, fresh-tbn, jacket-water-out, oil-volume");
+  }
+  if (!a.low.empty()) {
+    if (lever == Lever::h2s_ppmv_dry) {
+      const auto strip = [](std::string t) {
+        const auto p = t.find("ppmv");
+        if (p == std::string::npos) throw UsageError("--range for h2s in ppmv, e.g. '0 ppmv' '800 ppmv'");
+        return t.substr(0, p);
+      };
+      lo = parse_cli_quantity(strip(a.low), io::Kind::number, "--range");
+      hi = parse_cli_quantity(strip(a.high), io::Kind::number, "--range");
+    } else {
+      lo = parse_cli_quantity(a.low, kind, "--range");
+      hi = parse_cli_quantity(a.high, kind, "--range");
+    }
+  }
+  const InverseAnswer r = solve_for_interval(c, lever, target, lo, hi, tol);
+  const auto show = [&](double v) { return (v + shown_offset) * shown_scale; };
+  std::printf("%s — variant '%s': %s for a drain interval of %.0f h\n", file.title.c_str(), c.name.c_str(),
+              a.lever.c_str(), target);
+  std::printf("range searched: %.4g to %.4g %s (interval %.0f h and %.0f h at its ends)\n", show(lo), show(hi), unit,
+              r.interval_at_low, r.interval_at_high);
+  if (r.found)
+    std::printf("answer: %.4f %s — the model run at the answer gives %.1f h (%d runs)\n", show(r.value), unit,
+                r.interval_at_value, r.evaluations);
+  else if (target >= c.model.limits.max_hours)
+    std::printf("no answer: %s\n", r.reason.c_str());
+  else
+    std::printf("no answer in the range: the interval is %.0f h at %.4g %s and %.0f h at %.4g %s, both %s the target\n",
+                r.interval_at_low, show(lo), unit, r.interval_at_high, show(hi), unit,
+                r.interval_at_low > target ? "above" : "below");
+  acidload_cli::print_caution(stdout);
+  return exit_ok;
+}
+
+int convert(const Args& a) {
+  using namespace acidload;
+  if (a.case_file.empty()) throw UsageError("convert needs a figure, e.g. acidload convert '300 ppmv' --case CASE");
+  if (a.convert_case.empty()) throw UsageError("convert needs --case CASE for the gas the figure belongs to");
+  const io::CaseFile file = io::load_case(a.convert_case, a.overlays);
+  const EngineCase& c = pick_variant(file, a.variant);
+  acidload_cli::print_conversion(stdout, c, a.case_file, a.species);
   return exit_ok;
 }
 }  // namespace
@@ -100,13 +244,21 @@ int main(int argc, char** argv) {
         std::printf("\n%s: no mistakes found\n", a.case_file.c_str());
         return exit_ok;
       }
-      return run_case(c);
+      return run_case(c, a.out);
+    }
+    if (a.command == "solve") {
+      if (a.help) return std::printf("%s", solve_help), exit_ok;
+      return solve(a);
+    }
+    if (a.command == "convert") {
+      if (a.help) return std::printf("%s", convert_help), exit_ok;
+      return convert(a);
     }
     if (a.command == "demo") {
       if (a.help) return std::printf("%s", demo_help), exit_ok;
       if (!a.case_file.empty() || !a.overlays.empty()) throw UsageError("demo takes no case file");
       std::printf("acidload %s — demo: Harrowfield landfill, engine 2 (invented data)\n\n", acidload::version());
-      return run_case(acidload::io::load_case(ACIDLOAD_DEMO_CASE));
+      return run_case(acidload::io::load_case(ACIDLOAD_DEMO_CASE), "");
     }
     throw UsageError("unknown command '" + a.command + "'");
   } catch (const UsageError& e) {
@@ -115,8 +267,14 @@ int main(int argc, char** argv) {
   } catch (const acidload::InputError& e) {
     std::fprintf(stderr, "acidload: %s\n", e.what());
     return exit_bad_input;
+  } catch (const acidload::NoAnswerError& e) {
+    std::fprintf(stderr, "acidload: no answer: %s\n", e.what());
+    return exit_bad_input;
   } catch (const acidload::NotModelledError& e) {
     std::fprintf(stderr, "acidload: not modelled: %s\n", e.what());
+    return exit_bad_input;
+  } catch (const acidload::Error& e) {
+    std::fprintf(stderr, "acidload: %s\n", e.what());
     return exit_bad_input;
   } catch (const std::exception& e) {
     std::fprintf(stderr, "acidload: internal error: %s\n", e.what());

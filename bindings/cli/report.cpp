@@ -3,6 +3,8 @@
 #include <string>
 
 #include "acidload/acidload.hpp"
+#include "acidload/io/document.hpp"
+#include "acidload/io/quantity.hpp"
 
 namespace acidload_cli {
 
@@ -63,10 +65,66 @@ void print_comparison(std::FILE* out, const io::CaseFile& c, const std::vector<V
                  v.inflow_koh.hydrofluoric, v.inflow_koh.nitric, v.sulfur_share_to_oil * 100, -v.initial_tbn_rate * 100,
                  interval.c_str(), limit.c_str(), v.tbn_end, v.tan_end, v.san_end,
                  v.dew_points.sulfuric > 0 ? c_of(v.dew_points.sulfuric) : 0.0);
+    if (v.run.charges.size() > 1)  // a record with oil changes: every charge's outcome
+      for (const ChargeSummary& ch : v.run.charges) {
+        const std::string when = ch.first ? std::to_string(static_cast<long>(ch.drain_interval + 0.5)) + " h"
+                                          : "not reached";
+        std::fprintf(out, "  charge %d (from %.0f h, ran %.0f h%s): limit %s%s\n", ch.index + 1, ch.start_engine_hours,
+                     ch.oil_hours, ch.ended_by_change ? ", then changed" : "", ch.first ? std::string(name(*ch.first)).c_str() : "none",
+                     ch.first ? (" at " + when + " of oil").c_str() : " in the record");
+      }
   }
   const LimitSettings& l = c.variants.front().model.limits;
   std::fprintf(out, "\nTBN by %s at the drain interval (or at the end of the record). SO2 uptake shown for fresh oil.\n",
                method_name(l.tbn_method));
+}
+
+void print_conversion(std::FILE* out, const EngineCase& c, const std::string& figure, const std::string& species) {
+  const Segment& s = c.record.front();
+  const GasContext ctx = context(s.fuel, s.operation.fuel_flow);
+  double M = 0;  // molar mass the figure is stated as [kg/mol]
+  Formula compound;
+  bool is_compound = false;
+  if (species == "H2S") M = molar_mass(Gas::H2S);
+  else if (species == "S") M = atomic_weight(Element::S) * 1e-3;
+  else if (species == "Cl") M = atomic_weight(Element::Cl) * 1e-3;
+  else if (species == "F") M = atomic_weight(Element::F) * 1e-3;
+  else {
+    compound = parse_formula(find_halocarbon(species).formula);
+    M = molar_mass(compound);
+    is_compound = true;
+  }
+  io::Document doc;
+  doc.file = "(command line)";
+  doc.lines = {figure};
+  io::Node n;
+  n.type = io::Node::Type::scalar;
+  n.scalar = figure;
+  n.mark = {1, 1};
+  n.path = "figure";
+  const Concentration given = io::concentration(doc, n, Basis::dry);
+  const double x = to_wet_mole_fraction(given, M, ctx);
+  std::fprintf(out, "%s of %s in the gas of '%s' (reference %.2f K, %.3f kPa; water %.3f %%; CH4 %.3f %% wet; LHV %.3f MJ/Nm3):\n",
+               figure.c_str(), species.c_str(), c.name.c_str(), ctx.reference.temperature, ctx.reference.pressure * 1e-3,
+               ctx.water_fraction * 100, ctx.methane_fraction * 100, lower_heating_value_volumetric(s.fuel) * 1e-6);
+  const auto row = [&](const char* what, double xx, double m) {
+    std::fprintf(out, "  %-24s %12.5g ppmv dry %12.5g ppmv wet %12.5g mg/Nm3 dry %12.5g mg/Nm3 wet\n", what,
+                 from_wet_mole_fraction(xx, ConcentrationUnit::ppmv, Basis::dry, m, ctx),
+                 from_wet_mole_fraction(xx, ConcentrationUnit::ppmv, Basis::wet, m, ctx),
+                 from_wet_mole_fraction(xx, ConcentrationUnit::mg_per_m3, Basis::dry, m, ctx),
+                 from_wet_mole_fraction(xx, ConcentrationUnit::mg_per_m3, Basis::wet, m, ctx));
+    std::fprintf(out, "  %-24s %12.5g mg/MJ    %12.5g mg/Nm3 CH4", "", from_wet_mole_fraction(xx, ConcentrationUnit::mg_per_MJ, Basis::wet, m, ctx),
+                 from_wet_mole_fraction(xx, ConcentrationUnit::mg_per_m3_methane, Basis::wet, m, ctx));
+    if (ctx.molar_flow > 0)
+      std::fprintf(out, " %12.5g mol/h at %.1f Nm3/h of fuel", from_wet_mole_fraction(xx, ConcentrationUnit::mol_per_h, Basis::wet, m, ctx),
+                   ctx.molar_flow * molar_volume(ReferenceState::normal()));
+    std::fprintf(out, "\n");
+  };
+  row(species.c_str(), x, M);
+  if (is_compound) {
+    if (compound[Element::Cl] > 0) row("as Cl", x * compound[Element::Cl], atomic_weight(Element::Cl) * 1e-3);
+    if (compound[Element::F] > 0) row("as F", x * compound[Element::F], atomic_weight(Element::F) * 1e-3);
+  }
 }
 
 void print_caution(std::FILE* out) {

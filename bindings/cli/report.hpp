@@ -1,6 +1,7 @@
 #pragma once
 // Printing for the acidload program: plain text tables of what the library computed.
 #include <cstdio>
+#include <string>
 #include <vector>
 
 #include "acidload/io/case_file.hpp"
@@ -13,6 +14,10 @@ void print_check(std::FILE* out, const acidload::io::CaseFile& c);
 //! The comparison table of the variants.
 void print_comparison(std::FILE* out, const acidload::io::CaseFile& c,
                       const std::vector<acidload::VariantSummary>& rows);
+//! A contaminant figure in every unit for a case's gas (a figure such as "300 ppmv"; species H2S, S, Cl,
+//! F or a halocarbon).
+void print_conversion(std::FILE* out, const acidload::EngineCase& c, const std::string& figure,
+                      const std::string& species);
 //! The one-line caution every result carries, and the fuller one.
 void print_caution(std::FILE* out);
 

@@ -82,6 +82,17 @@ FuelGas resolve(const FuelAnalysis& a) {
   return f;
 }
 
+FuelGas with_h2s(const FuelGas& f, double x) {
+  check::in_range("fuel.h2s", x, 0.0, 0.199999, "mol/mol");
+  FuelGas g = f;
+  double main = 0;
+  for (Gas s : main_species) main += f[s];
+  const double scale = (main + f[Gas::H2S] - x) / main;  // the main components fill what H2S leaves
+  for (Gas s : main_species) g.x[static_cast<std::size_t>(s)] *= scale;
+  g.x[static_cast<std::size_t>(Gas::H2S)] = x;
+  return g;
+}
+
 double fuel_flow_from_power(double electrical_power, double electrical_efficiency, double lhv_molar) {
   check::non_negative("engine.electrical-power", electrical_power);
   check::in_range("engine.electrical-efficiency", electrical_efficiency, 0.01, 0.7, "(fraction)");

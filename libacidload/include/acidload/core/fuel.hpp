@@ -49,6 +49,10 @@ struct FuelGas {
 //! Throws InputError for negative or non-finite figures, or main components far from summing to 1.
 FuelGas resolve(const FuelAnalysis& a);
 
+//! The same gas with another H2S content [wet mol/mol]: the main components are rescaled to keep the
+//! sum at 1; water, other sulfur and halogens stay. Throws InputError outside [0, 0.2).
+FuelGas with_h2s(const FuelGas& f, double h2s_wet_fraction);
+
 //! Lower heating value of the wet gas [J/mol] (ISO 6976 net molar values; traces neglected).
 double lower_heating_value(const FuelGas& f);
 //! Lower heating value per m³ of wet gas at the fuel's reference state [J/m³] (ideal gas).

@@ -1,0 +1,43 @@
+#pragma once
+// Inverse questions: the value of one lever that gives a target drain interval, found by
+// bracketing root-finding on the exact forward model. "No answer in the range" is an answer.
+#include <optional>
+#include <string>
+
+#include "acidload/studies/whatif.hpp"
+
+namespace acidload {
+
+//! What an inverse question may vary.
+enum class Lever {
+  h2s_ppmv_dry,       //!< H2S in the fuel [ppmv, dry], every segment; power and efficiency kept
+  fresh_tbn,          //!< fresh-oil base number by the oil's method [mg KOH/g]
+  jacket_water_out,   //!< jacket-water outlet temperature, every segment [K]
+  oil_volume,         //!< oil in circulation at 15 °C [m³]
+};
+std::string_view name(Lever l);  //!< "h2s", "fresh-tbn", "jacket-water-out", "oil-volume"
+
+//! The case with one lever set to `value` (in the lever's unit).
+EngineCase with_lever(const EngineCase& c, Lever l, double value);
+//! The lever's value in a case (of its first segment).
+double lever_value(const EngineCase& c, Lever l);
+
+//! The drain interval of a case [h]; the hours cap when no limit other than the cap is reached.
+double drain_interval(const EngineCase& c);
+
+struct InverseAnswer {
+  bool found = false;         //!< a value in [low, high] meets the target
+  double value = 0;           //!< that value, in the lever's unit
+  double interval_at_value = 0;  //!< the forward model's interval there [h]
+  double interval_at_low = 0, interval_at_high = 0;  //!< at the ends of the range [h]
+  std::string reason;         //!< why there is no answer, in plain words
+  int evaluations = 0;        //!< forward runs used
+};
+
+//! The lever value in [low, high] at which the drain interval equals `target_hours`, to `tolerance`
+//! in the lever's unit (TOMS 748 bracketing). If the target lies outside what the range gives, the
+//! answer says so plainly instead of extrapolating.
+InverseAnswer solve_for_interval(const EngineCase& c, Lever lever, double target_hours, double low, double high,
+                                 double tolerance);
+
+}  // namespace acidload

@@ -1,0 +1,101 @@
+#include "acidload/studies/inverse.hpp"
+
+#include <boost/math/tools/toms748_solve.hpp>
+#include <cmath>
+#include <cstdint>
+
+#include "acidload/core/error.hpp"
+
+namespace acidload {
+
+std::string_view name(Lever l) {
+  switch (l) {
+    case Lever::h2s_ppmv_dry: return "h2s";
+    case Lever::fresh_tbn: return "fresh-tbn";
+    case Lever::jacket_water_out: return "jacket-water-out";
+    case Lever::oil_volume: return "oil-volume";
+  }
+  return "?";
+}
+
+EngineCase with_lever(const EngineCase& c, Lever l, double v) {
+  EngineCase x = c;
+  switch (l) {
+    case Lever::h2s_ppmv_dry:
+      check::in_range("h2s", v, 0.0, 1e5, "ppmv");
+      for (Segment& s : x.record) {
+        const double lhv_before = lower_heating_value(s.fuel);
+        s.fuel = with_h2s(s.fuel, v * 1e-6 * (1 - s.fuel[Gas::H2O]));
+        if (s.operation.electrical_power > 0)  // same power and efficiency: the fuel flow follows the LHV
+          s.operation.fuel_flow *= lhv_before / lower_heating_value(s.fuel);
+      }
+      break;
+    case Lever::fresh_tbn:
+      x.charge.oil.fresh_tbn = v;
+      break;
+    case Lever::jacket_water_out:
+      for (Segment& s : x.record) s.operation.jacket_water_out = v;
+      break;
+    case Lever::oil_volume:
+      check::positive("oil-volume", v);
+      x.charge.mass = v * x.charge.oil.density_15;
+      break;
+  }
+  return x;
+}
+
+double lever_value(const EngineCase& c, Lever l) {
+  const Segment& s = c.record.at(0);
+  switch (l) {
+    case Lever::h2s_ppmv_dry: return s.fuel[Gas::H2S] / (1 - s.fuel[Gas::H2O]) * 1e6;
+    case Lever::fresh_tbn: return c.charge.oil.fresh_tbn;
+    case Lever::jacket_water_out: return s.operation.jacket_water_out;
+    case Lever::oil_volume: return c.charge.mass / c.charge.oil.density_15;
+  }
+  return 0;
+}
+
+double drain_interval(const EngineCase& c) {
+  RunOptions o = c.options;
+  o.stop_at_first_limit = true;
+  o.output_interval = 0;
+  const RunResult r = simulate(c.charge, c.model, c.record, o);
+  const ChargeSummary& ch = r.charges.front();
+  return ch.first ? ch.drain_interval : c.model.limits.max_hours;
+}
+
+InverseAnswer solve_for_interval(const EngineCase& c, Lever lever, double target, double lo, double hi, double tol) {
+  check::positive("target interval", target);
+  if (!(lo < hi)) throw InputError("range", format_value(lo) + " to " + format_value(hi), "a low end below the high end");
+  check::positive("tolerance", tol);
+  InverseAnswer a;
+  const auto f = [&](double v) {
+    ++a.evaluations;
+    return drain_interval(with_lever(c, lever, v)) - target;
+  };
+  const double flo = f(lo), fhi = f(hi);
+  a.interval_at_low = flo + target;
+  a.interval_at_high = fhi + target;
+  if (target >= c.model.limits.max_hours) {
+    a.reason = "the target is at or beyond the hours cap (" + format_value(c.model.limits.max_hours) + " h)";
+    return a;
+  }
+  if (flo == 0) return a.found = true, a.value = lo, a.interval_at_value = target, a;
+  if (fhi == 0) return a.found = true, a.value = hi, a.interval_at_value = target, a;
+  if ((flo > 0) == (fhi > 0)) {
+    a.reason = "no answer in the range: the interval is " + format_value(std::round(a.interval_at_low)) + " h at " +
+               format_value(lo) + " and " + format_value(std::round(a.interval_at_high)) + " h at " + format_value(hi) +
+               ", both " + (flo > 0 ? "above" : "below") + " the target of " + format_value(target) + " h";
+    return a;
+  }
+  std::uintmax_t iterations = 100;
+  const auto tolerance = [tol](double x, double y) { return std::fabs(x - y) <= tol; };
+  const auto bracket = boost::math::tools::toms748_solve(f, lo, hi, flo, fhi, tolerance, iterations);
+  a.found = true;
+  a.value = 0.5 * (bracket.first + bracket.second);
+  a.interval_at_value = drain_interval(with_lever(c, lever, a.value));
+  ++a.evaluations;
+  return a;
+}
+
+}  // namespace acidload

@@ -1,0 +1,140 @@
+"""Example tier: the shipped cases run through the program.
+- Golden results: the summaries of cases/demo-site.yaml and cases/drifting-gas.yaml against
+  tests/example/golden.json (regression values written by acidload itself when the physics was
+  validated; they guard against unintended change, they are not a validation — that is the
+  reference tier's job). Tolerance: 1e-9 relative on every number.
+- A failed run leaves an existing output folder byte-identical (checksums compared).
+- --help of every command answers with its usage and exit code 0; usage errors give exit code 2.
+Usage: run.py PROGRAM [--update]"""
+import hashlib
+import json
+import math
+import pathlib
+import shutil
+import subprocess
+import sys
+import tempfile
+
+program = sys.argv[1]
+update = "--update" in sys.argv
+root = pathlib.Path(__file__).resolve().parents[2]
+golden_path = pathlib.Path(__file__).parent / "golden.json"
+failures = []
+checks = 0
+
+
+def fail(msg):
+    failures.append(msg)
+
+
+def run(*args, cwd=root):
+    return subprocess.run([program, *args], capture_output=True, text=True, cwd=cwd, timeout=300)
+
+
+def compare(path, a, b):
+    global checks
+    if isinstance(b, dict):
+        if not isinstance(a, dict) or set(a) != set(b):
+            fail(f"{path}: keys differ: {sorted(set(a) ^ set(b)) if isinstance(a, dict) else type(a)}")
+            return
+        for k in b:
+            compare(f"{path}.{k}", a[k], b[k])
+    elif isinstance(b, list):
+        if not isinstance(a, list) or len(a) != len(b):
+            fail(f"{path}: list lengths differ")
+            return
+        for i, (x, y) in enumerate(zip(a, b)):
+            compare(f"{path}[{i}]", x, y)
+    elif isinstance(b, float) or isinstance(a, float):
+        checks += 1
+        if not (isinstance(a, (int, float)) and math.isclose(a, b, rel_tol=1e-9, abs_tol=1e-12)):
+            fail(f"{path}: {a} != golden {b}")
+    else:
+        checks += 1
+        if a != b:
+            fail(f"{path}: {a!r} != golden {b!r}")
+
+
+def tree_digest(folder):
+    h = hashlib.sha256()
+    for p in sorted(pathlib.Path(folder).rglob("*")):
+        h.update(str(p.relative_to(folder)).encode())
+        if p.is_file():
+            h.update(p.read_bytes())
+    return h.hexdigest()
+
+
+with tempfile.TemporaryDirectory() as tmp:
+    tmp = pathlib.Path(tmp)
+    results = {}
+    for case in ("demo-site", "drifting-gas"):
+        out = tmp / case
+        r = run("run", f"cases/{case}.yaml", "--out", str(out))
+        if r.returncode != 0:
+            fail(f"{case}: exit {r.returncode}: {r.stderr}")
+            continue
+        if "Caution:" not in r.stdout:
+            fail(f"{case}: no caution line in the output")
+        summary = json.loads((out / "summary.json").read_text())
+        summary.pop("acidload-version")
+        summary.pop("case-file")
+        results[case] = summary
+        header = (out / "trajectories.csv").read_text().split("\n", 1)[0]
+        if not header.startswith("variant,charge,engine_hours_h,oil_hours_h"):
+            fail(f"{case}: trajectories.csv header {header!r}")
+    if update:
+        golden_path.write_text(json.dumps(results, indent=1, sort_keys=True) + "\n")
+        print(f"golden results written to {golden_path}")
+    else:
+        golden = json.loads(golden_path.read_text())
+        compare("golden", results, golden)
+
+    # a failed run leaves the previous results untouched
+    out = tmp / "keep"
+    r = run("run", "cases/demo-site.yaml", "--out", str(out))
+    before = tree_digest(out)
+    bad = tmp / "bad.yaml"
+    bad.write_text((root / "cases" / "demo-site.yaml").read_text().replace("h2s: 300 ppmv", "h2s: 300 ppmw"))
+    r = run("run", str(bad), "--out", str(out))
+    if r.returncode != 3:
+        fail(f"bad case: exit {r.returncode}, expected 3")
+    if r.stdout:
+        fail("bad case: wrote a result to standard output")
+    if tree_digest(out) != before:
+        fail("a failed run changed the existing output folder")
+    checks += 3
+    # and a run to a path that is a file refuses without writing anything
+    blocker = tmp / "blocker"
+    blocker.write_text("keep me")
+    r = run("run", "cases/demo-site.yaml", "--out", str(blocker))
+    if r.returncode == 0 or blocker.read_text() != "keep me":
+        fail("an output path that is a file was overwritten")
+    if any(p.name.startswith(".blocker") for p in tmp.iterdir()):
+        fail("a failed write left a temporary folder behind")
+    checks += 2
+
+# --help of every command, usage errors
+for cmd in ("check", "run", "solve", "convert", "demo"):
+    r = run(cmd, "--help")
+    checks += 1
+    if r.returncode != 0 or f"usage: acidload {cmd}" not in r.stdout:
+        fail(f"{cmd} --help: exit {r.returncode}, output {r.stdout[:80]!r}")
+for args, code in ((["--help"], 0), (["--version"], 0), ([], 2), (["frobnicate"], 2), (["run"], 2),
+                   (["run", "cases/demo-site.yaml", "--bogus"], 2), (["solve", "cases/demo-site.yaml", "--for", "wind"], 2),
+                   (["check", "no-such-file.yaml"], 3)):
+    r = run(*args)
+    checks += 1
+    if r.returncode != code:
+        fail(f"acidload {' '.join(args)}: exit {r.returncode}, expected {code}")
+r = run("--version")
+cmake = (root / "CMakeLists.txt").read_text()
+import re
+v = re.search(r"project\(acidload VERSION ([0-9.]+)", cmake).group(1)
+checks += 1
+if r.stdout.strip() != f"acidload {v}":
+    fail(f"--version says {r.stdout.strip()!r}, CMake says {v}")
+
+for f in failures:
+    print("FAIL", f)
+print(f"{checks - len(failures)} passed, {len(failures)} failed")
+sys.exit(1 if failures else 0)

@@ -1,0 +1,76 @@
+// Inverse questions: each answer is checked by running the forward model at it.
+#include <doctest/doctest.h>
+
+#include <cmath>
+
+#include "../support/sanity_case.hpp"
+#include "acidload/core/error.hpp"
+#include "acidload/studies/inverse.hpp"
+
+using namespace acidload;
+
+namespace {
+EngineCase sanity() {
+  EngineCase c;
+  c.name = "sanity";
+  c.charge = acidload_test::sanity_charge();
+  c.record = {acidload_test::sanity_segment(8000)};
+  return c;
+}
+}  // namespace
+
+TEST_CASE("highest H2S for a target interval, verified forward") {
+  const EngineCase c = sanity();
+  const InverseAnswer a = solve_for_interval(c, Lever::h2s_ppmv_dry, 2500, 0, 3000, 1e-3);
+  REQUIRE(a.found);
+  CHECK(a.value > 0);
+  CHECK(a.value < 300);  // the sanity case's 300 ppmv gives ~1000 h: 2500 h needs less H2S
+  CHECK(std::fabs(drain_interval(with_lever(c, Lever::h2s_ppmv_dry, a.value)) - 2500) < 0.05);
+  // more H2S than the answer misses the target, less reaches it
+  CHECK(drain_interval(with_lever(c, Lever::h2s_ppmv_dry, a.value * 1.01)) < 2500);
+  CHECK(drain_interval(with_lever(c, Lever::h2s_ppmv_dry, a.value * 0.99)) > 2500);
+  CHECK(lever_value(with_lever(c, Lever::h2s_ppmv_dry, 123.0), Lever::h2s_ppmv_dry) == doctest::Approx(123.0).epsilon(1e-12));
+}
+
+TEST_CASE("fresh TBN needed, verified forward") {
+  const EngineCase c = sanity();
+  const InverseAnswer a = solve_for_interval(c, Lever::fresh_tbn, 2000, 3, 30, 1e-5);
+  REQUIRE(a.found);
+  CHECK(a.value > c.charge.oil.fresh_tbn);
+  CHECK(std::fabs(drain_interval(with_lever(c, Lever::fresh_tbn, a.value)) - 2000) < 0.05);
+}
+
+TEST_CASE("lowest jacket-water temperature, verified forward; no answer is said plainly") {
+  EngineCase c = sanity();
+  const double base = drain_interval(c);
+  const double target = base * 1.1;
+  const InverseAnswer a = solve_for_interval(c, Lever::jacket_water_out, target, 333.15, 393.15, 1e-4);
+  REQUIRE(a.found);
+  CHECK(a.value > c.record[0].operation.jacket_water_out);
+  CHECK(std::fabs(drain_interval(with_lever(c, Lever::jacket_water_out, a.value)) - target) < 0.05);
+  const InverseAnswer none = solve_for_interval(c, Lever::jacket_water_out, base * 5, 333.15, 393.15, 1e-4);
+  CHECK(!none.found);
+  CHECK(none.reason.find("no answer in the range") != std::string::npos);
+  CHECK(none.interval_at_high < base * 5);
+  const InverseAnswer cap = solve_for_interval(c, Lever::h2s_ppmv_dry, 9000, 0, 300, 1e-3);
+  CHECK(!cap.found);
+  CHECK(cap.reason.find("cap") != std::string::npos);
+  CHECK_THROWS_AS(solve_for_interval(c, Lever::h2s_ppmv_dry, 1000, 300, 0, 1e-3), InputError);
+}
+
+TEST_CASE("oil volume needed, verified forward") {
+  const EngineCase c = sanity();
+  const InverseAnswer a = solve_for_interval(c, Lever::oil_volume, 1500, 0.1, 5, 1e-7);
+  REQUIRE(a.found);
+  CHECK(std::fabs(drain_interval(with_lever(c, Lever::oil_volume, a.value)) - 1500) < 0.05);
+}
+
+TEST_CASE("with_h2s keeps the gas summing to one") {
+  const FuelGas g = acidload_test::sanity_gas();
+  const FuelGas h = with_h2s(g, 1e-3);
+  double sum = 0;
+  for (Gas s : all_gases) sum += h[s];
+  CHECK(sum == doctest::Approx(1.0).epsilon(1e-15));
+  CHECK(h[Gas::H2S] == 1e-3);
+  CHECK(h[Gas::CH4] / h[Gas::CO2] == doctest::Approx(g[Gas::CH4] / g[Gas::CO2]).epsilon(1e-14));
+}
