@@ -198,6 +198,10 @@ TEST_CASE("size and node limits") {
   CHECK_NOTHROW(parse_document("[1, 2, 3, 4]", "t.yaml", few));  // list + 4 items
   CHECK(contains(parse_error("[1, 2, 3, 4, 5]", few).what(), "at most 5 values and keys"));
 
+  // a key path is capped at 512 characters (memory: every node keeps its path)
+  CHECK(contains(parse_error(std::string(600, 'k') + ": 1\n").what(), "a key path of at most 512 characters"));
+  CHECK_NOTHROW(parse_document(std::string(500, 'k') + ": 1\n", "t.yaml"));
+
   const std::string path = "test_io_document_big.yaml";
   {
     std::ofstream out(path);

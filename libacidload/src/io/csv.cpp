@@ -14,6 +14,7 @@
 #include <algorithm>
 #include <fstream>
 #include <string_view>
+#include <unordered_map>
 
 namespace acidload::io {
 
@@ -187,13 +188,14 @@ class Parser {
   }
 
   void take_header(const std::vector<std::string>& cells, const std::vector<int>& cols, int line) {
+    std::unordered_map<std::string, int> first_column;
     for (std::size_t i = 0; i < cells.size(); ++i) {
       if (cells[i].empty()) throw error(line, cols[i], "header", "", "a column name in every header cell");
-      for (std::size_t j = 0; j < i; ++j)
-        if (cells[j] == cells[i])
-          throw error(line, cols[i], "header", cells[i],
-                      "each column name once: duplicate column '" + cells[i] + "' (first in column " +
-                          std::to_string(cols[j]) + ")");
+      const auto [it, inserted] = first_column.emplace(cells[i], cols[i]);
+      if (!inserted)
+        throw error(line, cols[i], "header", cells[i],
+                    "each column name once: duplicate column '" + cells[i] + "' (first in column " +
+                        std::to_string(it->second) + ")");
     }
     t_.header = cells;
     header_line_ = line;

@@ -83,6 +83,34 @@ int char_column(const std::vector<std::string>& lines, int line, int byte_column
   return code_points(std::string_view(l).substr(0, b)) + 1;
 }
 
+// yaml-cpp's marks → 1-based character columns, counting on from the last mark on the same line
+// (events arrive in text order), so that a long line with many values costs linear time.
+class Columns {
+ public:
+  explicit Columns(const std::vector<std::string>& lines) : lines_(lines) {}
+  Mark operator()(const YAML::Mark& m) {
+    if (m.is_null() || m.line < 0 || m.column < 0) return {};
+    const std::size_t line = static_cast<std::size_t>(m.line);
+    const std::size_t byte = static_cast<std::size_t>(m.column);
+    if (line >= lines_.size()) return {m.line + 1, m.column + 1};
+    const std::string& l = lines_[line];
+    if (line != line_ || byte < byte_) {
+      line_ = line;
+      byte_ = 0;
+      chars_ = 0;
+    }
+    for (; byte_ < byte && byte_ < l.size(); ++byte_)
+      if ((static_cast<unsigned char>(l[byte_]) & 0xC0) != 0x80) ++chars_;
+    const int beyond = byte > l.size() ? static_cast<int>(byte - l.size()) : 0;
+    return {m.line + 1, chars_ + beyond + 1};
+  }
+
+ private:
+  const std::vector<std::string>& lines_;
+  std::size_t line_ = static_cast<std::size_t>(-1), byte_ = 0;
+  int chars_ = 0;
+};
+
 Mark to_mark(const std::vector<std::string>& lines, const YAML::Mark& m) {
   if (m.is_null() || m.line < 0) return {};
   Mark r;
@@ -241,12 +269,13 @@ class TreeBuilder : public YAML::EventHandler {
     if (key_position()) {
       Frame& f = stack_.back();
       count(m);
-      const auto [it, inserted] = f.key_lines.emplace(value, to_mark(doc_.lines, m).line);
+      const Mark km = columns_(m);
+      const auto [it, inserted] = f.key_lines.emplace(value, km.line);
       if (!inserted)
         fail(m, join(f.node.path, value), value,
              "each key once: duplicate key '" + value + "' (first at line " + std::to_string(it->second) + ")");
       f.key = value;
-      f.key_mark = to_mark(doc_.lines, m);
+      f.key_mark = km;
       f.have_key = true;
       return;
     }
@@ -334,8 +363,11 @@ class TreeBuilder : public YAML::EventHandler {
     count(m);
     Node n;
     n.type = type;
-    n.mark = to_mark(doc_.lines, m);
+    n.mark = columns_(m);
     n.path = context_path();
+    if (n.path.size() > max_path)
+      fail(m, n.path.substr(0, 60) + "...", excerpt(text_, pos(m)),
+           "a key path of at most " + std::to_string(max_path) + " characters (shorter keys, or less nesting)");
     return n;
   }
 
@@ -382,6 +414,10 @@ class TreeBuilder : public YAML::EventHandler {
   const ReadLimits& limits_;
   std::vector<Frame> stack_;
   std::size_t nodes_ = 0;
+  Columns columns_{doc_.lines};
+  // Every node stores its key path: capping its length caps the memory a file of long keys over
+  // many nodes could take (max_nodes × max_path bytes).
+  static constexpr std::size_t max_path = 512;
 };
 
 std::string describe(const Node& n) {
