@@ -3,7 +3,8 @@
 //   acidload::Error                 anything acidload reports
 //   ├── acidload::InputError        a value the user gave is wrong (where, key, value, expected)
 //   ├── acidload::NotModelledError  a valid request outside what the model covers
-//   └── acidload::NoAnswerError     an inverse question with no answer in the given range
+//   ├── acidload::NoAnswerError     an inverse question with no answer in the given range
+//   └── acidload::FitRefusedError   a calibration that the data cannot identify, with the reason
 #include <stdexcept>
 #include <string>
 
@@ -45,6 +46,12 @@ class NotModelledError : public Error {
 
 //! An inverse question whose answer does not lie in the range searched.
 class NoAnswerError : public Error {
+ public:
+  using Error::Error;
+};
+
+//! A fit the data cannot identify (too few samples, a flat or rank-deficient direction, no signal).
+class FitRefusedError : public Error {
  public:
   using Error::Error;
 };
