@@ -7,6 +7,7 @@
 
 #include "acidload/acidload.hpp"
 #include "acidload/io/case_file.hpp"
+#include "acidload/io/lab_file.hpp"
 #include "acidload/io/quantity.hpp"
 #include "acidload/io/results.hpp"
 #include "acidload/studies/inverse.hpp"
@@ -30,6 +31,9 @@ const char* main_help =
     "  run CASE     run a case and print the comparison of its variants (and write result files)\n"
     "  solve CASE   an inverse question: the H2S, fresh TBN, jacket water or oil volume for a target interval\n"
     "  convert FIG  a contaminant figure in every unit, for the gas of a case\n"
+    "  fit CASE     calibrate parameters to the plant's lab history (--lab FILE --parameters …)\n"
+    "  forecast CASE  remaining hours of the current charge to each limit, with a band (after a fit)\n"
+    "  uncertainty CASE  Monte Carlo over the case's uncertain inputs: P10/P50/P90 of the interval\n"
     "  demo         run the bundled demo site (invented data)\n\n"
     "options:\n"
     "  --help       this text (also after a command: acidload run --help)\n"
@@ -75,10 +79,34 @@ const char* demo_help =
     "usage: acidload demo\n\n"
     "Runs the bundled demo case (cases/demo-site.yaml: Harrowfield landfill, engine 2 — invented data).\n";
 
+const char* fit_help =
+    "usage: acidload fit CASE --lab FILE --parameters KEY[,KEY…] [--write-overlay FILE] [--overlay FILE]...\n\n"
+    "Fits the named parameters of CASE (keys as in the case file, e.g. model.liner-uptake,\n"
+    "model.capture-so2, model.oxidation-rate) to the lab results in FILE (CSV; columns in\n"
+    "docs/lab-results.md) by weighted least squares (Levenberg-Marquardt, weights from each method's\n"
+    "precision, bounded parameters in log/logit space). Prints estimates with standard errors, their\n"
+    "correlations, the residual of every reading, the reduced chi-square and flags for outliers and\n"
+    "lab changes. A fit the data cannot identify is refused with the reason (exit code 3).\n"
+    "  --write-overlay FILE  write the estimates as an overlay for 'acidload run CASE --overlay FILE'\n";
+
+const char* forecast_help =
+    "usage: acidload forecast CASE --lab FILE --parameters KEY[,KEY…] [--overlay FILE]...\n\n"
+    "Fits as 'acidload fit' does, then runs the current (last) charge of CASE's record on under its last\n"
+    "segment and prints the remaining hours to each limit, with a 90 %% band from the parameter\n"
+    "covariance. Confirm with a lab sample before acting on it.\n";
+
+const char* uncertainty_help =
+    "usage: acidload uncertainty CASE [--draws N] [--seed N] [--threads N] [--variant NAME]\n\n"
+    "Monte Carlo over the uncertain inputs declared in CASE's 'uncertainty' section (normal, lognormal,\n"
+    "uniform, triangular): P10, P50 and P90 of the drain interval and of the time to the first free\n"
+    "strong acid. Every draw has its own counter-based random stream, so the result is the same for\n"
+    "any number of threads (default: every core).\n";
+
 struct Args {
   std::string command, case_file;
   std::vector<std::string> overlays;
-  std::string out, lever, target, low, high, variant, species = "H2S", convert_case;
+  std::string out, lever, target, low, high, variant, species = "H2S", convert_case, lab, parameters, write_overlay;
+  std::string draws, seed, threads;
   bool help = false;
 };
 
@@ -89,7 +117,8 @@ Args parse(int argc, char** argv) {
     const std::string s = argv[i];
     if (s == "--help" || s == "-h") a.help = true;
     else if (s == "--overlay" || s == "--out" || s == "--for" || s == "--target" || s == "--variant" ||
-             s == "--as" || s == "--case") {
+             s == "--as" || s == "--case" || s == "--lab" || s == "--parameters" || s == "--write-overlay" ||
+             s == "--draws" || s == "--seed" || s == "--threads") {
       if (i + 1 >= argc) throw UsageError(s + " needs a value");
       const std::string v = argv[++i];
       if (s == "--overlay") a.overlays.push_back(v);
@@ -98,6 +127,12 @@ Args parse(int argc, char** argv) {
       else if (s == "--target") a.target = v;
       else if (s == "--variant") a.variant = v;
       else if (s == "--as") a.species = v;
+      else if (s == "--lab") a.lab = v;
+      else if (s == "--parameters") a.parameters = v;
+      else if (s == "--write-overlay") a.write_overlay = v;
+      else if (s == "--draws") a.draws = v;
+      else if (s == "--seed") a.seed = v;
+      else if (s == "--threads") a.threads = v;
       else a.convert_case = v;
     } else if (s == "--range") {
       if (i + 2 >= argc) throw UsageError("--range needs LOW and HIGH");
@@ -208,6 +243,70 @@ int solve(const Args& a) {
   return exit_ok;
 }
 
+acidload::FitResult fit_case(const Args& a, acidload::io::CaseFile& file, const acidload::EngineCase*& c) {
+  using namespace acidload;
+  if (a.case_file.empty()) throw UsageError(a.command + " needs a case file");
+  if (a.lab.empty()) throw UsageError(a.command + " needs --lab FILE with the lab results");
+  if (a.parameters.empty()) throw UsageError(a.command + " needs --parameters, e.g. model.liner-uptake,model.oxidation-rate");
+  file = io::load_case(a.case_file, a.overlays);
+  c = &pick_variant(file, a.variant);
+  FitSettings fs;
+  std::string p = a.parameters;
+  for (std::size_t start = 0; start <= p.size();) {
+    const auto comma = p.find(',', start);
+    const std::string key = p.substr(start, comma == std::string::npos ? std::string::npos : comma - start);
+    if (!key.empty()) fs.parameters.push_back(key);
+    if (comma == std::string::npos) break;
+    start = comma + 1;
+  }
+  for (const std::string& k : fs.parameters) parameter(k);  // unknown keys: bad input with the list
+  return calibrate(*c, io::read_lab_samples(a.lab), fs);
+}
+
+int fit(const Args& a) {
+  acidload::io::CaseFile file;
+  const acidload::EngineCase* c = nullptr;
+  const acidload::FitResult f = fit_case(a, file, c);
+  if (!a.write_overlay.empty()) acidload::io::write_overlay(a.write_overlay, f, a.case_file, a.lab);
+  acidload_cli::print_fit(stdout, *c, f);
+  if (!a.write_overlay.empty())
+    std::printf("\nOverlay written to %s: acidload run %s --overlay %s\n", a.write_overlay.c_str(), a.case_file.c_str(),
+                a.write_overlay.c_str());
+  acidload_cli::print_caution(stdout);
+  return exit_ok;
+}
+
+int forecast(const Args& a) {
+  acidload::io::CaseFile file;
+  const acidload::EngineCase* c = nullptr;
+  const acidload::FitResult f = fit_case(a, file, c);
+  acidload_cli::print_forecast(stdout, f, acidload::forecast(f));
+  acidload_cli::print_caution(stdout);
+  return exit_ok;
+}
+
+int uncertainty(const Args& a) {
+  using namespace acidload;
+  if (a.case_file.empty()) throw UsageError("uncertainty needs a case file");
+  const io::CaseFile file = io::load_case(a.case_file, a.overlays);
+  const EngineCase& c = pick_variant(file, a.variant);
+  if (file.uncertainty.inputs.empty())
+    throw InputError("uncertainty", "(no section)", "an 'uncertainty' section with inputs in " + a.case_file,
+                     InputWhere{a.case_file, 1, 1, ""});
+  const auto count = [](const std::string& text, const char* option, double lo, double hi) {
+    const double v = parse_cli_quantity(text, io::Kind::count, option);
+    if (!(v >= lo && v <= hi)) throw UsageError(std::string(option) + " '" + text + "': out of range");
+    return v;
+  };
+  const int draws = a.draws.empty() ? file.uncertainty.draws : static_cast<int>(count(a.draws, "--draws", 1, 1e7));
+  const std::uint64_t seed = a.seed.empty() ? file.uncertainty.seed : static_cast<std::uint64_t>(count(a.seed, "--seed", 0, 9e15));
+  const int threads = a.threads.empty() ? 0 : static_cast<int>(count(a.threads, "--threads", 1, 256));
+  const MonteCarloResult r = monte_carlo(c, file.uncertainty.inputs, draws, seed, threads);
+  acidload_cli::print_monte_carlo(stdout, c, file.uncertainty.inputs, r, seed);
+  acidload_cli::print_caution(stdout);
+  return exit_ok;
+}
+
 int convert(const Args& a) {
   using namespace acidload;
   if (a.case_file.empty()) throw UsageError("convert needs a figure, e.g. acidload convert '300 ppmv' --case CASE");
@@ -250,6 +349,18 @@ int main(int argc, char** argv) {
       if (a.help) return std::printf("%s", solve_help), exit_ok;
       return solve(a);
     }
+    if (a.command == "fit") {
+      if (a.help) return std::printf("%s", fit_help), exit_ok;
+      return fit(a);
+    }
+    if (a.command == "forecast") {
+      if (a.help) return std::printf("%s", forecast_help), exit_ok;
+      return forecast(a);
+    }
+    if (a.command == "uncertainty") {
+      if (a.help) return std::printf("%s", uncertainty_help), exit_ok;
+      return uncertainty(a);
+    }
     if (a.command == "convert") {
       if (a.help) return std::printf("%s", convert_help), exit_ok;
       return convert(a);
@@ -266,6 +377,9 @@ int main(int argc, char** argv) {
     return exit_usage;
   } catch (const acidload::InputError& e) {
     std::fprintf(stderr, "acidload: %s\n", e.what());
+    return exit_bad_input;
+  } catch (const acidload::FitRefusedError& e) {
+    std::fprintf(stderr, "acidload: fit refused: %s\n", e.what());
     return exit_bad_input;
   } catch (const acidload::NoAnswerError& e) {
     std::fprintf(stderr, "acidload: no answer: %s\n", e.what());

@@ -1,5 +1,6 @@
 #include "report.hpp"
 
+#include <cmath>
 #include <string>
 
 #include "acidload/acidload.hpp"
@@ -125,6 +126,60 @@ void print_conversion(std::FILE* out, const EngineCase& c, const std::string& fi
     if (compound[Element::Cl] > 0) row("as Cl", x * compound[Element::Cl], atomic_weight(Element::Cl) * 1e-3);
     if (compound[Element::F] > 0) row("as F", x * compound[Element::F], atomic_weight(Element::F) * 1e-3);
   }
+}
+
+void print_fit(std::FILE* out, const EngineCase& c, const FitResult& f) {
+  std::fprintf(out, "Fit of '%s': %d readings, %zu parameters, %d iterations, %s\n", c.name.c_str(), f.observations,
+               f.parameters.size(), f.iterations, f.converged ? "converged" : "NOT converged (use the figures with care)");
+  std::fprintf(out, "reduced chi-square %.3f on %d degrees of freedom (about 1 when the lab precisions are right)\n\n",
+               f.s2, f.degrees_of_freedom);
+  std::fprintf(out, "  %-34s %14s %14s %14s  %s\n", "parameter", "start", "estimate", "std. error", "unit");
+  for (const FittedParameter& p : f.parameters)
+    std::fprintf(out, "  %-34s %14.6g %14.6g %14.6g  %s\n", p.key.c_str(), p.initial, p.estimate, p.standard_error,
+                 parameter(p.key).unit.c_str());
+  if (f.parameters.size() > 1) {
+    std::fprintf(out, "\ncorrelation of the estimates:\n");
+    for (std::size_t i = 0; i < f.parameters.size(); ++i) {
+      std::fprintf(out, "  %-34s", f.parameters[i].key.c_str());
+      for (std::size_t j = 0; j < f.parameters.size(); ++j) std::fprintf(out, " %7.3f", f.correlation[i][j]);
+      std::fprintf(out, "\n");
+    }
+  }
+  std::fprintf(out, "\nresiduals (measured − fitted, in standard deviations of the method):\n");
+  std::fprintf(out, "  %-10s %-10s %10s %10s %8s\n", "sample", "reading", "measured", "fitted", "resid.");
+  for (const SampleResidual& r : f.residuals)
+    std::fprintf(out, "  %-10zu %-10s %10.3f %10.3f %8.2f%s%s\n", r.sample + 1, r.reading.c_str(), r.measured, r.predicted,
+                 r.standardized, r.censored ? "  (censored)" : "", r.outlier ? "  OUTLIER?" : "");
+  if (!f.flags.empty()) {
+    std::fprintf(out, "\nflags:\n");
+    for (const std::string& fl : f.flags) std::fprintf(out, "  - %s\n", fl.c_str());
+  }
+}
+
+void print_forecast(std::FILE* out, const FitResult& f, const std::vector<LimitForecast>& fc) {
+  std::fprintf(out, "Current charge after the fit (%zu parameters, reduced chi-square %.3f): hours left to each limit\n",
+               f.parameters.size(), f.s2);
+  std::fprintf(out, "  %-12s %12s   %s\n", "limit", "remaining", "90 % band");
+  for (const LimitForecast& x : fc) {
+    if (x.already) std::fprintf(out, "  %-12s %12s   reached before the last record hour\n", std::string(name(x.limit)).c_str(), "0 h");
+    else if (!x.reached) std::fprintf(out, "  %-12s %12s\n", std::string(name(x.limit)).c_str(), "not reached");
+    else std::fprintf(out, "  %-12s %10.0f h   %.0f to %.0f h\n", std::string(name(x.limit)).c_str(), x.remaining, x.low, x.high);
+  }
+}
+
+void print_monte_carlo(std::FILE* out, const EngineCase& c, const std::vector<UncertainInput>& in, const MonteCarloResult& r,
+                       std::uint64_t seed) {
+  std::fprintf(out, "Monte Carlo of '%s': %d draws, seed %llu, inputs:", c.name.c_str(), r.draws,
+               static_cast<unsigned long long>(seed));
+  for (const UncertainInput& x : in) std::fprintf(out, " %s", x.key.c_str());
+  const auto h = [](double v) { return std::isfinite(v) ? std::to_string(static_cast<long>(v + 0.5)) + " h" : std::string("none"); };
+  std::fprintf(out, "\n  %-28s %10s %10s %10s\n", "", "P10", "P50", "P90");
+  std::fprintf(out, "  %-28s %10s %10s %10s\n", "drain interval", h(r.interval_p10).c_str(), h(r.interval_p50).c_str(),
+               h(r.interval_p90).c_str());
+  std::fprintf(out, "  %-28s %10s %10s %10s\n", "first free strong acid", h(r.san_p10).c_str(), h(r.san_p50).c_str(),
+               h(r.san_p90).c_str());
+  std::fprintf(out, "(the drain interval counts the hours cap, %.0f h, where no other limit is reached; 'none': no free\n"
+                    "acid within the cap in at least that share of the draws)\n", c.model.limits.max_hours);
 }
 
 void print_caution(std::FILE* out) {

@@ -5,6 +5,7 @@
 #include <vector>
 
 #include "acidload/io/case_file.hpp"
+#include "acidload/studies/calibration.hpp"
 #include "acidload/studies/whatif.hpp"
 
 namespace acidload_cli {
@@ -18,6 +19,13 @@ void print_comparison(std::FILE* out, const acidload::io::CaseFile& c,
 //! F or a halocarbon).
 void print_conversion(std::FILE* out, const acidload::EngineCase& c, const std::string& figure,
                       const std::string& species);
+//! A calibration: estimates, standard errors, correlations, residuals, goodness of fit, flags.
+void print_fit(std::FILE* out, const acidload::EngineCase& c, const acidload::FitResult& f);
+//! Remaining hours of the current charge to each limit.
+void print_forecast(std::FILE* out, const acidload::FitResult& f, const std::vector<acidload::LimitForecast>& fc);
+//! Monte Carlo percentiles.
+void print_monte_carlo(std::FILE* out, const acidload::EngineCase& c, const std::vector<acidload::UncertainInput>& in,
+                       const acidload::MonteCarloResult& r, std::uint64_t seed);
 //! The one-line caution every result carries, and the fuller one.
 void print_caution(std::FILE* out);
 

@@ -114,7 +114,7 @@ with tempfile.TemporaryDirectory() as tmp:
     checks += 2
 
 # --help of every command, usage errors
-for cmd in ("check", "run", "solve", "convert", "demo"):
+for cmd in ("check", "run", "solve", "convert", "demo", "fit", "forecast", "uncertainty"):
     r = run(cmd, "--help")
     checks += 1
     if r.returncode != 0 or f"usage: acidload {cmd}" not in r.stdout:
@@ -126,6 +126,38 @@ for args, code in ((["--help"], 0), (["--version"], 0), ([], 2), (["frobnicate"]
     checks += 1
     if r.returncode != code:
         fail(f"acidload {' '.join(args)}: exit {r.returncode}, expected {code}")
+# calibration, forecast and Monte Carlo on the invented demo history
+params = "model.liner-uptake,model.oxidation-rate,model.organic-acid-yield"
+with tempfile.TemporaryDirectory() as tmp:
+    ov = pathlib.Path(tmp) / "fitted.yaml"
+    r = run("fit", "cases/demo-site-history.yaml", "--lab", "cases/demo-site-lab.csv", "--parameters", params,
+            "--write-overlay", str(ov))
+    checks += 1
+    if r.returncode != 0 or "reduced chi-square" not in r.stdout or not ov.exists():
+        fail(f"fit: exit {r.returncode}: {r.stderr[:300]}")
+    else:
+        r = run("run", "cases/demo-site.yaml", "--overlay", str(ov))
+        checks += 1
+        if r.returncode != 0:
+            fail(f"run with the fitted overlay: exit {r.returncode}: {r.stderr[:300]}")
+    r = run("fit", "cases/demo-site-history.yaml", "--lab", "cases/demo-site-lab.csv", "--parameters", "model.nitration-yield,model.nitration-yield")
+    checks += 1
+    if r.returncode != 3:
+        fail(f"fit with a repeated parameter: exit {r.returncode}, expected 3")
+    r = run("fit", "cases/demo-site-history.yaml", "--lab", "cases/demo-site-lab.csv", "--parameters", "model.capture-hcl")
+    checks += 1
+    if r.returncode != 3:
+        fail(f"fit of a parameter that is not fittable: exit {r.returncode}, expected 3")
+    r = run("forecast", "cases/demo-site-history.yaml", "--lab", "cases/demo-site-lab.csv", "--parameters", params)
+    checks += 1
+    if r.returncode != 0 or "tbn-fall" not in r.stdout:
+        fail(f"forecast: exit {r.returncode}: {r.stderr[:300]}")
+    one = run("uncertainty", "cases/demo-site-history.yaml", "--draws", "300", "--threads", "1")
+    two = run("uncertainty", "cases/demo-site-history.yaml", "--draws", "300", "--threads", "2")
+    checks += 1
+    if one.returncode != 0 or one.stdout != two.stdout:
+        fail(f"uncertainty with 1 and 2 threads differ or failed: {one.stderr[:200]}")
+
 r = run("--version")
 cmake = (root / "CMakeLists.txt").read_text()
 import re

@@ -25,7 +25,9 @@ namespace {
 const std::map<std::string, std::vector<std::string>, std::less<>>& keys() {
   static const std::map<std::string, std::vector<std::string>, std::less<>> k = {
       {"", {"format-version", "case", "base-name", "reference-state", "combustion-reference", "fuel", "engine",
-            "oil", "model", "limits", "run", "record", "variants"}},
+            "oil", "model", "limits", "run", "record", "variants", "uncertainty"}},
+      {"uncertainty", {"draws", "seed", "inputs"}},
+      {"uncertain-input", {"parameter", "distribution", "mean", "sd", "median", "sigma-log", "low", "mode", "high"}},
       {"overlay", {"format-version", "case", "reference-state", "combustion-reference", "fuel", "engine", "oil",
                    "model", "limits", "run", "record"}},
       {"reference-state", {"temperature", "pressure"}},
@@ -608,6 +610,75 @@ EngineCase build(Reader& r, const Node& root, const std::string& name) {
   return c;
 }
 
+// The kind a parameter's values are written in, and the kind of a spread of it.
+std::pair<Kind, Kind> kinds_of(const std::string& key) {
+  static const std::map<std::string, std::pair<Kind, Kind>, std::less<>> k = {
+      {"model.liner-wall-rise", {Kind::temperature_change, Kind::temperature_change}},
+      {"model.wet-so2-factor", {Kind::number, Kind::number}},
+      {"model.oxidation-rate", {Kind::oxidation_rate, Kind::oxidation_rate}},
+      {"model.ring-zone-offset", {Kind::temperature_change, Kind::temperature_change}},
+      {"model.organic-acid-yield", {Kind::number, Kind::number}},
+      {"model.nitration-yield", {Kind::number, Kind::number}},
+      {"model.weak-base-d2896", {Kind::acid_number, Kind::acid_number}},
+      {"model.weak-base-d4739", {Kind::acid_number, Kind::acid_number}},
+      {"model.base-floor", {Kind::acid_number, Kind::acid_number}},
+      {"model.additive-depletion", {Kind::per_hour, Kind::per_hour}},
+      {"engine.jacket-water-out", {Kind::temperature, Kind::temperature_change}},
+      {"oil.fresh-tbn", {Kind::acid_number, Kind::acid_number}},
+      {"oil.volume", {Kind::volume, Kind::volume}},
+  };
+  const auto it = k.find(key);
+  if (it != k.end()) return it->second;
+  return {Kind::fraction, Kind::fraction};  // the shares
+}
+
+UncertaintySettings read_uncertainty(const Reader& r, const Node& u) {
+  r.require_map(u, "uncertainty");
+  UncertaintySettings out;
+  if (const Node* n = u.find("draws")) out.draws = static_cast<int>(r.q_in(*n, Kind::count, 1, 1e7, ""));
+  if (const Node* n = u.find("seed")) out.seed = static_cast<std::uint64_t>(r.q_in(*n, Kind::count, 0, 9e15, ""));
+  const Node* in = u.find("inputs");
+  if (!in || in->type != Node::Type::sequence || in->items.empty())
+    throw r.doc(u).error(u, "(no inputs)", "an 'inputs' list of uncertain parameters");
+  std::vector<std::string> names;
+  for (const auto& p : parameter_table())
+    if (p.key != "oil.consumption") names.push_back(p.key);
+  for (const Node& item : in->items) {
+    r.require_map(item, "uncertain-input");
+    const Node* pn = item.find("parameter");
+    if (!pn) throw r.doc(item).error(item, "(no parameter)", "a 'parameter', one of: " + Reader::join(names));
+    const std::string key = r.word(*pn, names);
+    const Node* dn = item.find("distribution");
+    if (!dn) throw r.doc(item).error(item, "(no distribution)", "a 'distribution': normal, lognormal, uniform or triangular");
+    const std::string dist = r.word(*dn, {"normal", "lognormal", "uniform", "triangular"});
+    const auto [kind, spread] = kinds_of(key);
+    const auto value = [&](const char* field, Kind k) -> double {
+      const Node* n = item.find(field);
+      if (!n) throw r.doc(item).error(item, "(no " + std::string(field) + ")", std::string("a '") + field + "' for a " + dist + " distribution");
+      if (key == "fuel.h2s" && k != Kind::number) {  // written as a contaminant figure in ppmv
+        const Concentration c = concentration(r.doc(*n), *n, Basis::dry);
+        if (c.unit != ConcentrationUnit::ppmv || c.basis != Basis::dry) r.fail(*n, n->scalar, "an H2S figure in ppmv (dry)");
+        return c.value;
+      }
+      return r.q(*n, k);
+    };
+    UncertainInput x;
+    x.key = key;
+    if (dist == "normal") x.distribution = {Distribution::Kind::normal, value("mean", kind), value("sd", spread), 0};
+    else if (dist == "lognormal") x.distribution = {Distribution::Kind::lognormal, value("median", kind), value("sigma-log", Kind::number), 0};
+    else if (dist == "uniform") x.distribution = {Distribution::Kind::uniform, value("low", kind), value("high", kind), 0};
+    else x.distribution = {Distribution::Kind::triangular, value("low", kind), value("mode", kind), value("high", kind)};
+    const Distribution& d = x.distribution;
+    const bool ok = d.kind == Distribution::Kind::normal      ? d.b >= 0
+                    : d.kind == Distribution::Kind::lognormal ? d.a > 0 && d.b >= 0
+                    : d.kind == Distribution::Kind::uniform   ? d.a < d.b
+                                                              : d.a <= d.b && d.b <= d.c && d.a < d.c;
+    if (!ok) r.fail(*dn, dist, "parameters in order (low < high, low <= mode <= high, sd >= 0, median > 0)");
+    out.inputs.push_back(x);
+  }
+  return out;
+}
+
 std::shared_ptr<Document> parse_into(Reader& r, std::string_view text, const std::string& file) {
   auto d = std::make_shared<Document>(parse_document(text, file));
   set_source(d->root, static_cast<int>(r.docs.size()));
@@ -653,6 +724,7 @@ CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::
     out.overlays.push_back(path);
   }
   if (const Node* t = root.find("case")) out.title = r.text(*t);
+  if (const Node* u = root.find("uncertainty")) out.uncertainty = read_uncertainty(r, *u);
   std::string base_name = "base";
   if (const Node* b = root.find("base-name")) base_name = r.text(*b);
   out.variants.push_back(build(r, root, base_name));

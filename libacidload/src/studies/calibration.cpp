@@ -388,7 +388,33 @@ double percentile(std::vector<double> v, double p) {
   return v[lo] + (h - static_cast<double>(lo)) * (v[hi] - v[lo]);
 }
 
-MonteCarloResult monte_carlo(const EngineCase& c, const std::vector<UncertainInput>& inputs, int draws,
+namespace {
+// The first charge as it ran, continued under its last conditions up to the hours cap: the drain
+// interval of a record with oil changes is that of its first charge, not cut short by the change.
+EngineCase first_charge_to_cap(const EngineCase& c) {
+  EngineCase x = c;
+  x.record.clear();
+  double hours = 0;
+  for (std::size_t i = 0; i < c.record.size(); ++i) {
+    bool change = false;
+    for (const OilEvent& e : c.record[i].events) change |= e.kind == OilEvent::Kind::oil_change;
+    if (change && i > 0) break;
+    x.record.push_back(c.record[i]);
+    hours += c.record[i].hours;
+  }
+  if (hours < c.model.limits.max_hours) {
+    Segment more = x.record.back();
+    more.events.clear();
+    more.starts = more.hours > 0 ? more.starts / more.hours * (c.model.limits.max_hours - hours) : 0;
+    more.hours = c.model.limits.max_hours - hours;
+    more.calendar_hours = -1;
+    x.record.push_back(more);
+  }
+  return x;
+}
+}  // namespace
+
+MonteCarloResult monte_carlo(const EngineCase& c0, const std::vector<UncertainInput>& inputs, int draws,
                              std::uint64_t seed, int threads) {
   check::in_range("draws", draws, 1, 1e7, "");
   for (const UncertainInput& in : inputs) {
@@ -400,6 +426,7 @@ MonteCarloResult monte_carlo(const EngineCase& c, const std::vector<UncertainInp
                                                             : d.a <= d.b && d.b <= d.c && d.a < d.c;
     if (!ok) throw InputError("uncertain " + in.key, "(distribution)", "a distribution with consistent parameters");
   }
+  const EngineCase c = first_charge_to_cap(c0);
   MonteCarloResult out;
   out.draws = draws;
   out.drain_interval.assign(static_cast<std::size_t>(draws), 0);

@@ -7,12 +7,20 @@
 #include <string_view>
 #include <vector>
 
+#include "acidload/studies/calibration.hpp"
 #include "acidload/studies/whatif.hpp"
 
 namespace acidload::io {
 
 //! The newest format version this reader knows. Files of every older version keep loading.
 inline constexpr int case_format_version = 1;
+
+//! The `uncertainty` section: inputs for Monte Carlo and its settings.
+struct UncertaintySettings {
+  std::vector<UncertainInput> inputs;  //!< empty when the case has no such section
+  int draws = 10000;                   //!< [-]
+  std::uint64_t seed = 1;              //!< the counter-based stream's seed
+};
 
 //! A loaded case: the base and its variants, each a complete EngineCase.
 struct CaseFile {
@@ -21,6 +29,7 @@ struct CaseFile {
   std::vector<EngineCase> variants;    //!< [0] is the base case (named "base" unless `base-name` says otherwise)
   std::vector<std::string> overlays;   //!< overlay files applied, in order
   int format_version = case_format_version;  //!< as written in the file
+  UncertaintySettings uncertainty;           //!< the `uncertainty` section, if any
 };
 
 //! Reads a case file. Overlays (files of the same format holding any subset of its sections,

@@ -126,7 +126,8 @@ struct MonteCarloResult {
   double san_p10 = 0, san_p50 = 0, san_p90 = 0;                 //!< [h], +∞ where more than that share has none
 };
 //! Monte Carlo over the inputs: each draw's values from the counter-based stream, so the result is
-//! identical for any number of threads (0 = every core).
+//! identical for any number of threads (0 = every core). The drain interval is that of the first
+//! charge of the record, continued under its last conditions up to the hours cap.
 MonteCarloResult monte_carlo(const EngineCase& c, const std::vector<UncertainInput>& inputs, int draws,
                              std::uint64_t seed, int threads = 0);
 

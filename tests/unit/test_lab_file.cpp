@@ -1,0 +1,110 @@
+// Lab results from CSV, the uncertainty section, and the overlay a fit writes.
+#include <doctest/doctest.h>
+
+#include <filesystem>
+#include <fstream>
+
+#include "acidload/core/error.hpp"
+#include "acidload/io/case_file.hpp"
+#include "acidload/io/lab_file.hpp"
+
+using namespace acidload;
+namespace fs = std::filesystem;
+
+namespace {
+fs::path write(const std::string& name, const std::string& text) {
+  const fs::path p = fs::temp_directory_path() / name;
+  std::ofstream(p) << text;
+  return p;
+}
+}  // namespace
+
+TEST_CASE("lab CSV: units from the header, censored SAN, FTIR per 0.1 mm") {
+  const fs::path p = write("acidload-lab-ok.csv",
+                           "# invented\ncharge,oil-hours,lab,tbn [mg KOH/g],tbn-method,tan,san,oxidation [A/0.1mm],i-ph\n"
+                           "1,250,Lab A,4.5,D2896,1.7 mg KOH/g,<0.1,1.2,5.4\n"
+                           "2,500 h,Lab A,3.1,,2.2,0,,\n"
+                           "2,700,Lab B,,,,0.4,,\n");
+  const auto s = io::read_lab_samples(p.string());
+  REQUIRE(s.size() == 3);
+  CHECK(s[0].charge == 0);
+  CHECK(s[0].oil_hours == 250);
+  CHECK(*s[0].tbn == 4.5);
+  CHECK(s[0].tbn_method == BaseNumberMethod::d2896);
+  CHECK(*s[0].tan == doctest::Approx(1.7));
+  CHECK(s[0].san_censored);
+  CHECK(*s[0].san == doctest::Approx(0.1));
+  CHECK(*s[0].oxidation == doctest::Approx(120.0));  // 1.2 A per 0.1 mm = 120 A per cm (0.1 mm = 0.01 cm)
+  CHECK(*s[0].initial_ph == doctest::Approx(5.4));
+  CHECK(s[1].tbn_method == BaseNumberMethod::d4739);
+  CHECK(s[1].san_censored);  // a reported 0 is below the reporting limit, not an exact zero
+  CHECK(!s[2].san_censored);
+  CHECK(*s[2].san == doctest::Approx(0.4));
+  CHECK(s[2].lab == "Lab B");
+  fs::remove(p);
+}
+
+TEST_CASE("lab CSV mistakes name the file, line, column and cell") {
+  const auto refuse = [](const std::string& text, const std::string& fragment) {
+    const fs::path p = write("acidload-lab-bad.csv", text);
+    try {
+      io::read_lab_samples(p.string());
+      FAIL("accepted: " << text);
+    } catch (const InputError& e) {
+      INFO(e.what());
+      CHECK(std::string(e.what()).find("acidload-lab-bad.csv:") != std::string::npos);
+      CHECK(std::string(e.what()).find(fragment) != std::string::npos);
+    }
+    fs::remove(p);
+  };
+  refuse("charge,oil-hours,oxidation\n1,250,3\n", "100 A/cm");
+  refuse("charge,oil-hours,tbm\n1,250,3\n", "closest: 'tbn'");
+  refuse("charge,tbn\n1,3\n", "'oil-hours' column");
+  refuse("charge,oil-hours,tbn\n0,250,3\n", "charge number");
+  refuse("charge,oil-hours,tbn\n1,250,lots\n", "lab[0].tbn");
+  refuse("charge,oil-hours,tbn,tbn-method\n1,250,3,D664\n", "D2896 or D4739");
+  refuse("charge,oil-hours,tbn\n1,250,\n", "at least one reading");
+  refuse("charge,oil-hours,tbn\n1,250,-2\n", "0 or more");
+}
+
+TEST_CASE("the uncertainty section and the overlay a fit writes load back") {
+  const char* text = R"(format-version: 1
+fuel: {composition: {CH4: 55 %, CO2: 45 %}, h2s: 300 ppmv}
+engine: {power: 1 MW, electrical-efficiency: 40 %}
+oil: {volume: 600 L}
+uncertainty:
+  draws: 500
+  seed: 3
+  inputs:
+    - {parameter: fuel.h2s, distribution: lognormal, median: 300 ppmv, sigma-log: 0.2}
+    - {parameter: engine.jacket-water-out, distribution: normal, mean: 90 degC, sd: 2 K}
+    - {parameter: model.so3-share, distribution: triangular, low: 1 %, mode: 2 %, high: 3 %}
+)";
+  const io::CaseFile c = io::load_case_text(text, "u.yaml", ".");
+  REQUIRE(c.uncertainty.inputs.size() == 3);
+  CHECK(c.uncertainty.draws == 500);
+  CHECK(c.uncertainty.seed == 3);
+  CHECK(c.uncertainty.inputs[0].distribution.a == 300);
+  CHECK(c.uncertainty.inputs[1].distribution.a == doctest::Approx(363.15));
+  CHECK(c.uncertainty.inputs[1].distribution.b == doctest::Approx(2.0));
+  CHECK(c.uncertainty.inputs[2].distribution.c == doctest::Approx(0.03));
+  CHECK_THROWS_AS(io::load_case_text(std::string(text) + "    - {parameter: model.so3-share, distribution: uniform, low: 3 %, high: 1 %}\n", "u.yaml", "."), InputError);
+  CHECK_THROWS_AS(io::load_case_text(std::string(text) + "    - {parameter: model.so3-shar, distribution: uniform, low: 1 %, high: 3 %}\n", "u.yaml", "."), InputError);
+
+  FitResult fit;
+  fit.s2 = 1.1;
+  fit.degrees_of_freedom = 20;
+  fit.parameters = {{"model.liner-uptake", 2.5e-4, 3.1e-4, 2e-5, 0, 0}, {"model.oxidation-rate", 0.008, 0.0102, 6e-4, 0, 0},
+                    {"model.organic-acid-yield", 0.08, 0.09, 0.01, 0, 0}, {"engine.blow-by", 0.01, 0.012, 0.001, 0, 0}};
+  const fs::path ov = fs::temp_directory_path() / "acidload-overlay.yaml";
+  const fs::path cs = write("acidload-overlay-case.yaml", text);
+  io::write_overlay(ov.string(), fit, cs.string(), "lab.csv");
+  const io::CaseFile with = io::load_case(cs.string(), {ov.string()});
+  const EngineCase& e = with.variants[0];
+  CHECK(e.model.transfer.liner_uptake == doctest::Approx(3.1e-4).epsilon(1e-8));
+  CHECK(e.model.oxidation.rate_at_reference == doctest::Approx(0.0102).epsilon(1e-8));
+  CHECK(e.model.oxidation.organic_acid_yield == doctest::Approx(0.09).epsilon(1e-8));
+  CHECK(e.record[0].operation.blowby_share == doctest::Approx(0.012).epsilon(1e-8));
+  fs::remove(ov);
+  fs::remove(cs);
+}
