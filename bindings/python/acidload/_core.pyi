@@ -1,0 +1,166 @@
+# Type stubs of acidload._core, the pybind11 module (bindings/python/src/module.cpp). Units follow the
+# core's table: hours, K, Pa, kg, m³, mol, mg KOH/g, g KOH/h.
+from typing import Dict, List, Sequence, Tuple
+
+import numpy as np
+import numpy.typing as npt
+
+ZERO_CELSIUS: float  # 273.15 K
+MOLAR_GAS_CONSTANT: float  # R [J/(mol·K)], CODATA 2018
+STANDARD_ATMOSPHERE: float  # [Pa]
+CASE_FORMAT_VERSION: int
+
+def version() -> str: ...
+def molar_mass(formula: str) -> float: ...  # [kg/mol]
+def koh_equivalents(acid: str) -> float: ...  # [mol KOH/mol]
+def molar_volume(temperature_k: float = 273.15, pressure_pa: float = 101325.0) -> float: ...  # [m³/mol]
+def convert(value: float, from_unit: str, from_basis: str, to_unit: str, to_basis: str, molar_mass_kg_per_mol: float,
+            reference_temperature_k: float, reference_pressure_pa: float, water_fraction: float,
+            methane_fraction: float, lhv_j_per_mol: float, flow_mol_per_h: float) -> float: ...
+
+class _WaterModule:
+    def saturation_pressure(self, temperature_k: float) -> float: ...  # [Pa]
+    def saturation_temperature(self, pressure_pa: float) -> float: ...  # [K]
+    def dew_point(self, water_fraction: float, total_pressure_pa: float) -> float: ...  # [K]
+
+class _So3Module:
+    T_MIN: float
+    T_MAX: float
+    STANDARD_PRESSURE: float
+    def kp(self, temperature_k: float) -> float: ...  # [bar^-1/2]
+    def standard_gibbs_reaction(self, temperature_k: float) -> float: ...  # [J/mol]
+    def equilibrium_so3_share(self, temperature_k: float, o2_fraction: float, total_pressure_pa: float) -> float: ...
+
+class _BaseNumberMethod:
+    D2896: "_BaseNumberMethod"
+    D4739: "_BaseNumberMethod"
+
+class _Regime:
+    above_floor: "_Regime"
+    floor_acid: "_Regime"
+    floor_weak: "_Regime"
+
+class _OilProperties:
+    fresh_tbn: float  # [mg KOH/g]
+    fresh_tbn_method: _BaseNumberMethod
+    weak_base_d2896: float  # [mg KOH/g]
+    weak_base_d4739: float  # [mg KOH/g]
+    base_floor: float  # [mg KOH/g]
+    fresh_tan: float  # [mg KOH/g]
+    additive_depletion: float  # [1/h]
+    salt_titration_share: float  # [-]
+    organic_neutralised_share: float  # [-]
+    density_15: float  # [kg/m³]
+    def __init__(self) -> None: ...
+    def fresh_reactive_base(self) -> float: ...  # [mg KOH/g]
+
+class _OilState:
+    mass: float  # [kg]
+    base: float  # [mg KOH/g]
+    strong_acid: float
+    weak_acid: float
+    salts: float
+    oxidation: float  # [A/cm]
+    nitration: float  # [A/cm]
+    additive_acidity: float
+    def __init__(self, *, mass: float = ..., base: float = ..., strong_acid: float = 0.0, weak_acid: float = 0.0,
+                 salts: float = 0.0, oxidation: float = 0.0, nitration: float = 0.0,
+                 additive_acidity: float = 0.0) -> None: ...
+
+class _OilRates:
+    strong_acid: float  # [g KOH/h]
+    sulfurous_fresh: float  # [g KOH/h]
+    nitration: float  # [A/cm · kg/h]
+    oxidation: float  # [A/cm per h]
+    organic_acid: float  # [mg KOH/g per h]
+    consumption: float  # [kg/h]
+    continuous_makeup: bool
+    def __init__(self) -> None: ...
+
+class _OilBalance:
+    fresh_base: float
+    base_floor: float
+    fresh_additive: float
+    additive_depletion: float
+    organic_neutralised_share: float
+    def __init__(self) -> None: ...
+
+class _OilLedger:
+    base_added: float  # [g KOH]
+    base_removed: float
+    base_consumed: float
+    acid_entered: float
+    acid_removed: float
+    def __init__(self) -> None: ...
+
+class _SegmentOutcome:
+    floor_reached_at: float  # [h], -1 if not
+    acid_cleared_at: float  # [h], -1 if not
+    end_regime: _Regime
+
+class _OilModule:
+    BaseNumberMethod: type[_BaseNumberMethod]
+    Regime: type[_Regime]
+    OilProperties: type[_OilProperties]
+    OilState: type[_OilState]
+    OilRates: type[_OilRates]
+    OilBalance: type[_OilBalance]
+    OilLedger: type[_OilLedger]
+    SegmentOutcome: type[_SegmentOutcome]
+    def balance_constants(self, oil: _OilProperties) -> _OilBalance: ...
+    def fresh_oil(self, oil: _OilProperties, mass_kg: float) -> _OilState: ...
+    def advance(self, state: _OilState, constants: _OilBalance, rates: _OilRates, hours: float,
+                ledger: _OilLedger) -> Tuple[_OilState, _SegmentOutcome]: ...
+    def steady_state(self, state: _OilState, constants: _OilBalance, rates: _OilRates) -> _OilState: ...
+    def top_up(self, state: _OilState, oil: _OilProperties, mass_kg: float, ledger: _OilLedger) -> _OilState: ...
+    def oil_change(self, state: _OilState, oil: _OilProperties, residual_share: float, full_mass_kg: float,
+                   ledger: _OilLedger) -> _OilState: ...
+    def tbn(self, state: _OilState, oil: _OilProperties, method: _BaseNumberMethod) -> float: ...
+    def tan(self, state: _OilState, oil: _OilProperties) -> float: ...
+    def san(self, state: _OilState) -> float: ...
+
+water: _WaterModule
+so3: _So3Module
+oil: _OilModule
+
+class EngineCase:
+    name: str
+    segments: int
+    max_hours: float  # [h]
+    def lever_value(self, lever: str) -> float: ...
+    def with_lever(self, lever: str, value: float) -> "EngineCase": ...
+
+class CaseFile:
+    file: str
+    title: str
+    variants: List[EngineCase]
+    overlays: List[str]
+    format_version: int
+
+def load_case(path: str, overlays: Sequence[str] = ...) -> CaseFile: ...
+def load_case_text(text: str, file_name: str, base_dir: str, overlays: Sequence[str] = ...) -> CaseFile: ...
+def section_keys(section: str) -> List[str]: ...
+
+class CaseRun:
+    names: List[str]
+    def summary_json(self) -> str: ...
+    def trajectories_csv(self) -> str: ...
+    def trajectory(self, index: int) -> Dict[str, npt.NDArray[np.float64]]: ...
+    def first_rates(self, index: int) -> Dict[str, float]: ...
+    def write_results(self, folder: str) -> None: ...
+
+def run_case(case: CaseFile) -> CaseRun: ...
+def drain_interval(case: EngineCase) -> float: ...  # [h]
+def sweep_drain_interval(case: EngineCase, lever: str, values: npt.ArrayLike) -> npt.NDArray[np.float64]: ...
+
+class InverseAnswer:
+    found: bool
+    value: float
+    interval_at_value: float  # [h]
+    interval_at_low: float  # [h]
+    interval_at_high: float  # [h]
+    reason: str
+    evaluations: int
+
+def solve_for_interval(case: EngineCase, lever: str, target_hours: float, low: float, high: float,
+                       tolerance: float) -> InverseAnswer: ...

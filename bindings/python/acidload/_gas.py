@@ -1,0 +1,38 @@
+"""Species and gas conversions from acidload's core."""
+from __future__ import annotations
+
+from . import _core
+
+__all__ = ["molar_mass", "molar_volume", "convert", "CONCENTRATION_UNITS"]
+
+#: The units of a contaminant figure acidload converts between.
+CONCENTRATION_UNITS = ("ppmv", "mg/m3", "mg/MJ", "mg/m3 CH4", "mol/h")
+
+
+def molar_mass(formula: str) -> float:
+    """Molar mass of a chemical formula such as ``"C2HCl3"`` or ``"CH3(CH2)2SH"`` [kg/mol], from IUPAC
+    standard atomic weights. A malformed formula raises :class:`acidload.InputError`."""
+    return _core.molar_mass(formula)
+
+
+def molar_volume(temperature_k: float = 273.15, pressure_pa: float = 101325.0) -> float:
+    """Ideal-gas molar volume R·T/p [m³/mol] (CODATA R) at a reference state: T [K], p [Pa]."""
+    return _core.molar_volume(float(temperature_k), float(pressure_pa))
+
+
+def convert(value: float, from_unit: str, to_unit: str, *, molar_mass_kg_per_mol: float,
+            from_basis: str = "dry", to_basis: str = "dry", reference_temperature_k: float = 273.15,
+            reference_pressure_pa: float = 101325.0, water_fraction: float = 0.0, methane_fraction: float = 0.0,
+            lhv_j_per_mol: float = 0.0, flow_mol_per_h: float = 0.0) -> float:
+    """A contaminant figure in another unit and basis (acidload::convert).
+
+    Units: ``"ppmv"``, ``"mg/m3"`` (at the reference state: 273.15 K, 101.325 kPa is "mg/Nm3"),
+    ``"mg/MJ"`` (of the gas's lower heating value), ``"mg/m3 CH4"`` (per m³ of methane), ``"mol/h"``
+    (carried by the flow); bases ``"dry"`` or ``"wet"`` (ppmv and mg/m3 only).
+    ``molar_mass_kg_per_mol`` is that of the species the figure is stated as (S for "as S").
+    ``water_fraction`` and ``methane_fraction`` are mole fractions of the wet gas [mol/mol];
+    ``lhv_j_per_mol`` its lower heating value [J/mol]; ``flow_mol_per_h`` the wet gas flow [mol/h].
+    """
+    return _core.convert(float(value), from_unit, from_basis, to_unit, to_basis, float(molar_mass_kg_per_mol),
+                         float(reference_temperature_k), float(reference_pressure_pa), float(water_fraction),
+                         float(methane_fraction), float(lhv_j_per_mol), float(flow_mol_per_h))

@@ -1,0 +1,190 @@
+"""Running a case: results as numpy arrays and plain dicts, pandas frames when pandas is installed."""
+from __future__ import annotations
+
+import json
+import os
+from typing import Any, Dict, Iterator, List, Optional, Union
+
+import numpy as np
+
+from . import _core
+from ._case import Case
+
+__all__ = ["run", "Result", "VariantResult", "TRAJECTORY_UNITS"]
+
+#: The columns of a trajectory and their units. ``tbn`` is read by the limits' method
+#: (``limits.tbn-method``), the method the TBN limit is judged by.
+TRAJECTORY_UNITS: Dict[str, str] = {
+    "engine_hours": "h",        # since the start of the record
+    "oil_hours": "h",           # since the last oil change
+    "calendar_hours": "h",      # since the start of the record
+    "starts": "-",              # engine starts since the start of the record
+    "charge": "-",              # which oil charge (0 = the one the record starts with)
+    "tbn": "mg KOH/g",          # by the limits' method
+    "tbn_d2896": "mg KOH/g",
+    "tbn_d4739": "mg KOH/g",
+    "tan": "mg KOH/g",          # D664
+    "san": "mg KOH/g",          # D664 strong acid number
+    "base": "mg KOH/g",         # reactive base b
+    "strong_acid": "mg KOH/g",  # free strong acid s (= SAN)
+    "weak_acid": "mg KOH/g",    # free organic acids a_w
+    "salts": "mg KOH/g",        # neutralised-acid salts c_n
+    "additive_acidity": "mg KOH/g",  # t_add
+    "oxidation": "A/cm",
+    "nitration": "A/cm",
+    "oil_mass": "kg",           # oil in circulation
+}
+
+
+def _pandas():
+    try:
+        import pandas
+    except ImportError as e:  # pandas is optional
+        raise ImportError("to_dataframe() needs pandas: pip install pandas") from e
+    return pandas
+
+
+class VariantResult:
+    """The run of one variant.
+
+    Attributes:
+        name: the variant's name.
+        summary: its entry of the JSON summary (a dict: units in the key names, as summary.json).
+        trajectory: dict of numpy arrays, one per column of :data:`TRAJECTORY_UNITS`, one element
+            per trajectory point (the start, every output point and every segment end).
+    """
+
+    __slots__ = ("_run", "_index", "name", "summary", "_trajectory")
+
+    def __init__(self, run: "_core.CaseRun", index: int, summary: Dict[str, Any]) -> None:
+        self._run = run
+        self._index = index
+        self.name: str = summary["name"]
+        self.summary: Dict[str, Any] = summary
+        self._trajectory: Optional[Dict[str, np.ndarray]] = None
+
+    @property
+    def trajectory(self) -> Dict[str, np.ndarray]:
+        if self._trajectory is None:
+            t = self._run.trajectory(self._index)
+            for a in t.values():
+                a.flags.writeable = False  # the results are read-only: a copy for changes
+            self._trajectory = t
+        return self._trajectory
+
+    @property
+    def drain_interval_h(self) -> Optional[float]:
+        """Oil hours at the first limit reached [h], or None when no limit is reached in the record."""
+        return self.summary["drain-interval-h"]
+
+    @property
+    def limit_reached(self) -> Optional[str]:
+        """The limit that ends the first charge ("tbn-fall", "crossover", …), or None."""
+        return self.summary["limit-reached"]
+
+    @property
+    def limits(self) -> Dict[str, Dict[str, Any]]:
+        """Each limit: reached-at-h, value, limit, margin (units as the reading: mg KOH/g, A/cm or h)."""
+        return self.summary["limits"]
+
+    @property
+    def rates(self) -> Dict[str, Any]:
+        """The first segment's oil-balance rates: strong_acid [g KOH/h], sulfurous_fresh [g KOH/h],
+        nitration [A/cm·kg/h], oxidation [A/cm per h], organic_acid [mg KOH/g per h],
+        consumption [kg/h], continuous_makeup."""
+        return self._run.first_rates(self._index)
+
+    def to_dataframe(self):
+        """The trajectory as a pandas DataFrame (needs pandas)."""
+        return _pandas().DataFrame({k: np.asarray(v) for k, v in self.trajectory.items()})
+
+    def __repr__(self) -> str:
+        d = self.drain_interval_h
+        return (f"<acidload.VariantResult {self.name!r}: "
+                + (f"drain interval {d:.0f} h ({self.limit_reached})>" if d is not None else "no limit reached>"))
+
+
+class Result:
+    """The run of every variant of a case.
+
+    Attributes:
+        summary: the JSON summary as a dict, exactly as ``acidload run CASE --out DIR`` writes
+            summary.json (units in the key names; ``summary["variants"]`` one entry per variant).
+        variants: one :class:`VariantResult` per variant, base first; also ``result["name"]``.
+        trajectory: every variant's trajectory, concatenated as in trajectories.csv: the columns of
+            :data:`TRAJECTORY_UNITS` plus ``variant`` (the variant's name per point).
+    """
+
+    def __init__(self, run: "_core.CaseRun") -> None:
+        self._run = run
+        self.summary: Dict[str, Any] = json.loads(run.summary_json())
+        self.variants: List[VariantResult] = [VariantResult(run, i, s) for i, s in enumerate(self.summary["variants"])]
+        self._trajectory: Optional[Dict[str, np.ndarray]] = None
+
+    @property
+    def names(self) -> List[str]:
+        return [v.name for v in self.variants]
+
+    def __getitem__(self, name: Union[str, int]) -> VariantResult:
+        if isinstance(name, int):
+            return self.variants[name]
+        for v in self.variants:
+            if v.name == name:
+                return v
+        raise KeyError(f"no variant named {name!r} (the result has: {', '.join(self.names)})")
+
+    def __iter__(self) -> Iterator[VariantResult]:
+        return iter(self.variants)
+
+    def __len__(self) -> int:
+        return len(self.variants)
+
+    @property
+    def trajectory(self) -> Dict[str, np.ndarray]:
+        if self._trajectory is None:
+            parts = [v.trajectory for v in self.variants]
+            out: Dict[str, np.ndarray] = {
+                "variant": np.concatenate([np.full(len(p["tan"]), v.name, dtype=object)
+                                           for p, v in zip(parts, self.variants)])}
+            for k in TRAJECTORY_UNITS:
+                out[k] = np.concatenate([p[k] for p in parts])
+            self._trajectory = out
+        return self._trajectory
+
+    def to_dataframe(self):
+        """Every trajectory as one long pandas DataFrame with a ``variant`` column (needs pandas)."""
+        return _pandas().DataFrame(self.trajectory)
+
+    def summary_table(self):
+        """One row per variant: drain interval, limit, TBN/TAN/SAN at the end, acid inflow — a pandas
+        DataFrame indexed by variant name (needs pandas)."""
+        rows = []
+        for v in self.summary["variants"]:
+            row = {"drain_interval_h": v["drain-interval-h"], "limit_reached": v["limit-reached"]}
+            for k, x in v["at-drain-or-end"].items():
+                row[k.replace("-", "_") + "_at_end"] = x
+            for k, x in v["acid-inflow-g-koh-per-h"].items():
+                row[k.replace("-", "_") + "_g_koh_per_h"] = x
+            row["sulfur_share_to_oil"] = v["sulfur-share-to-oil"]
+            row["initial_tbn_rate_mg_koh_per_g_per_h"] = v["initial-tbn-rate-mg-koh-per-g-per-h"]
+            rows.append(row)
+        return _pandas().DataFrame(rows, index=self.names)
+
+    def trajectories_csv(self) -> str:
+        """The trajectories as CSV text, as the program writes trajectories.csv."""
+        return self._run.trajectories_csv()
+
+    def write(self, folder: Union[str, "os.PathLike[str]"]) -> None:
+        """Writes summary.json and trajectories.csv into folder, atomically, as ``acidload run --out``."""
+        self._run.write_results(os.fspath(folder))
+
+    def __repr__(self) -> str:
+        return f"<acidload.Result of {self.summary['case'] or self.summary['case-file']!r}: {len(self)} variant(s)>"
+
+
+def run(case: Case) -> Result:
+    """Runs every variant of a case through the oil balance (the GIL released while the C++ library
+    runs) and returns a :class:`Result`: the summary as a dict, trajectories as numpy arrays."""
+    if not isinstance(case, Case):
+        raise TypeError(f"run() takes an acidload.Case, not {type(case).__name__}")
+    return Result(_core.run_case(case._file))

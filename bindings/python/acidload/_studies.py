@@ -1,0 +1,112 @@
+"""Sweeps and inverse questions over one lever: the loop runs in C++ with the GIL released."""
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import Any, Dict, Optional, Tuple, Union
+
+import numpy as np
+
+from . import _core
+from ._case import Case, Variant, _engine_case
+
+__all__ = ["drain_interval", "solve_for_interval", "InverseAnswer", "LEVERS"]
+
+
+@dataclass(frozen=True)
+class _Lever:
+    core_name: str   # acidload::Lever by name()
+    unit: str        # the Python keyword's unit
+    scale: float     # core value = keyword value · scale + offset
+    offset: float
+    tolerance: float  # default tolerance of an inverse answer, in the keyword's unit (as the program's solve)
+
+    def to_core(self, v):
+        return np.asarray(v, dtype=float) * self.scale + self.offset
+
+    def from_core(self, x: float) -> float:
+        return (x - self.offset) / self.scale
+
+
+#: The levers, by keyword: the keyword names the lever and its unit.
+LEVERS: Dict[str, _Lever] = {
+    "h2s_ppmv": _Lever("h2s", "ppmv (dry)", 1.0, 0.0, 0.01),
+    "fresh_tbn_mg_koh_per_g": _Lever("fresh-tbn", "mg KOH/g", 1.0, 0.0, 1e-4),
+    "jacket_water_out_c": _Lever("jacket-water-out", "degC", 1.0, _core.ZERO_CELSIUS, 1e-3),
+    "oil_volume_l": _Lever("oil-volume", "L", 1e-3, 0.0, 1e-3),
+}
+
+
+def _one_lever(levers: Dict[str, Any], what: str) -> Tuple[str, _Lever, Any]:
+    unknown = [k for k in levers if k not in LEVERS]
+    if unknown or len(levers) != 1:
+        raise TypeError(f"{what} takes one lever keyword of: {', '.join(LEVERS)}"
+                        + (f" (unknown: {', '.join(unknown)})" if unknown else f" (got {len(levers)})"))
+    (k, v), = levers.items()
+    return k, LEVERS[k], v
+
+
+def drain_interval(case: Union[Case, Variant], *, variant: Optional[str] = None, **lever: Any):
+    """The drain interval [h] of a variant (the base case unless ``variant`` names one or a Variant is
+    given); the hours cap when no limit other than the cap is reached.
+
+    With one lever keyword holding an array (any shape), the drain interval for each value, as a numpy
+    array of the same shape — the sweep runs in C++ with the GIL released::
+
+        acidload.drain_interval(case, h2s_ppmv=np.linspace(0, 600, 61))
+        acidload.drain_interval(case, oil_volume_l=[400, 600, 800])
+        acidload.drain_interval(case, jacket_water_out_c=np.arange(80, 100.5, 2.5))
+        acidload.drain_interval(case, fresh_tbn_mg_koh_per_g=[6, 9, 12])
+
+    H2S is set in every segment of the record (power and efficiency kept: the fuel flow follows the
+    heating value); so is the jacket-water temperature.
+    """
+    ec = _engine_case(case, variant)
+    if not lever:
+        return _core.drain_interval(ec)
+    _, lv, values = _one_lever(lever, "drain_interval()")
+    core = np.array(lv.to_core(values), dtype=np.float64, order="C")
+    out = _core.sweep_drain_interval(ec, lv.core_name, core.reshape(-1)).reshape(core.shape)
+    return out if core.ndim else float(out)
+
+
+@dataclass(frozen=True)
+class InverseAnswer:
+    """The answer of :func:`solve_for_interval`, in the lever keyword's unit."""
+    found: bool                  #: a value in the range meets the target
+    lever: str                   #: the lever keyword, e.g. "h2s_ppmv"
+    unit: str                    #: its unit
+    value: Optional[float]       #: the answer (None when not found)
+    target_h: float              #: the drain interval asked for [h]
+    interval_at_value_h: Optional[float]  #: the forward model's interval at the answer [h]
+    range: Tuple[float, float]   #: the range searched, in the lever's unit
+    interval_at_low_h: float     #: at the low end [h]
+    interval_at_high_h: float    #: at the high end [h]
+    reason: str                  #: why there is no answer, in plain words ("" when found)
+    evaluations: int             #: forward runs used
+
+
+def solve_for_interval(case: Union[Case, Variant], *, target_h: float, variant: Optional[str] = None,
+                       tolerance: Optional[float] = None, **lever: Tuple[float, float]) -> InverseAnswer:
+    """The value of one lever in a range at which the drain interval equals ``target_h`` [h]
+    (acidload::solve_for_interval: TOMS 748 bracketing on the exact forward model), e.g.::
+
+        acidload.solve_for_interval(case, target_h=4000, h2s_ppmv=(0, 800))
+        acidload.solve_for_interval(case, target_h=2000, oil_volume_l=(300, 3000))
+
+    ``tolerance`` is in the lever's unit (default as the program's ``solve``: 0.01 ppmv, 1e-4 mg KOH/g,
+    0.001 K, 0.001 L). "No answer in the range" is an answer: ``found`` is False and ``reason`` says
+    why; nothing is extrapolated.
+    """
+    ec = _engine_case(case, variant)
+    k, lv, rng = _one_lever(lever, "solve_for_interval()")
+    try:
+        low, high = (float(x) for x in rng)
+    except (TypeError, ValueError):
+        raise TypeError(f"{k}= takes a range (low, high) in {lv.unit}") from None
+    tol = lv.tolerance if tolerance is None else float(tolerance)
+    a = _core.solve_for_interval(ec, lv.core_name, float(target_h), float(lv.to_core(low)), float(lv.to_core(high)),
+                                 tol * lv.scale)
+    return InverseAnswer(found=a.found, lever=k, unit=lv.unit, value=lv.from_core(a.value) if a.found else None,
+                         target_h=float(target_h), interval_at_value_h=a.interval_at_value if a.found else None,
+                         range=(low, high), interval_at_low_h=a.interval_at_low, interval_at_high_h=a.interval_at_high,
+                         reason=a.reason, evaluations=a.evaluations)

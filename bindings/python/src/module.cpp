@@ -1,0 +1,410 @@
+// acidload._core: the pybind11 module behind the acidload Python package. Declarations only: every
+// function here forwards to the library (parse, call, convert containers to numpy/dicts) and no
+// physics lives in this file. Units follow the core's table (acidload/core.hpp): hours, K, Pa, kg,
+// m³, mol, mg KOH/g; the Python package around it puts units into keyword names.
+#include <pybind11/numpy.h>
+#include <pybind11/pybind11.h>
+#include <pybind11/stl.h>
+
+#include <array>
+#include <cstddef>
+#include <string>
+#include <vector>
+
+#include "acidload/acidload.hpp"
+#include "acidload/io/case_file.hpp"
+#include "acidload/io/results.hpp"
+#include "acidload/studies/inverse.hpp"
+
+namespace py = pybind11;
+using namespace acidload;
+
+namespace {
+
+// ---- exceptions ----------------------------------------------------------------------------
+// The exception classes are defined in Python (acidload/_errors.py, ValueError subclasses) so that
+// they carry documented attributes; the translator fills them from the C++ exception.
+py::object error_class(const char* name) { return py::module_::import("acidload._errors").attr(name); }
+
+py::object none_if_empty(const std::string& s) { return s.empty() ? py::none() : py::object(py::str(s)); }
+py::object none_if_zero(int v) { return v > 0 ? py::object(py::int_(v)) : py::none(); }
+
+void raise(const char* cls, const std::exception& e, py::dict attrs = {}) {
+  py::object type = error_class(cls);
+  py::object exc = type(py::str(e.what()), **attrs);
+  PyErr_SetObject(type.ptr(), exc.ptr());
+}
+
+void translate(std::exception_ptr p) {
+  try {
+    if (p) std::rethrow_exception(p);
+  } catch (const InputError& e) {
+    py::dict a;
+    a["key"] = e.key();
+    a["value"] = e.value();
+    a["expected"] = e.expected();
+    a["file"] = none_if_empty(e.where().file);
+    a["line"] = none_if_zero(e.where().line);
+    a["column"] = none_if_zero(e.where().column);
+    a["line_text"] = none_if_empty(e.where().line_text);
+    raise("InputError", e, a);
+  } catch (const NotModelledError& e) {
+    raise("NotModelledError", e);
+  } catch (const NoAnswerError& e) {
+    raise("NoAnswerError", e);
+  } catch (const Error& e) {
+    raise("Error", e);
+  }
+}
+
+// ---- levers and units ------------------------------------------------------------------------
+Lever lever_from(const std::string& text) {
+  for (Lever l : {Lever::h2s_ppmv_dry, Lever::fresh_tbn, Lever::jacket_water_out, Lever::oil_volume})
+    if (text == name(l)) return l;
+  throw InputError("lever", text, "one of h2s, fresh-tbn, jacket-water-out, oil-volume");
+}
+
+ConcentrationUnit unit_from(const std::string& text) {
+  for (ConcentrationUnit u : {ConcentrationUnit::ppmv, ConcentrationUnit::mg_per_m3, ConcentrationUnit::mg_per_MJ,
+                              ConcentrationUnit::mg_per_m3_methane, ConcentrationUnit::mol_per_h})
+    if (text == name(u)) return u;
+  std::string names;
+  for (ConcentrationUnit u : {ConcentrationUnit::ppmv, ConcentrationUnit::mg_per_m3, ConcentrationUnit::mg_per_MJ,
+                              ConcentrationUnit::mg_per_m3_methane, ConcentrationUnit::mol_per_h})
+    names += (names.empty() ? "" : ", ") + std::string(name(u));
+  throw InputError("unit", text, "one of: " + names);
+}
+
+Basis basis_from(const std::string& text) {
+  if (text == "dry") return Basis::dry;
+  if (text == "wet") return Basis::wet;
+  throw InputError("basis", text, "dry or wet");
+}
+
+// ---- a run of every variant of a case ---------------------------------------------------------
+struct CaseRun {
+  io::CaseFile file;
+  std::vector<VariantSummary> rows;
+};
+
+CaseRun run_case(const io::CaseFile& c) {
+  CaseRun r{c, {}};
+  py::gil_scoped_release release;
+  r.rows.reserve(c.variants.size());
+  for (const EngineCase& v : c.variants) r.rows.push_back(summarize(v));
+  return r;
+}
+
+// The trajectory of one variant as numpy arrays, one per field of TrajectoryPoint.
+py::dict trajectory_arrays(const CaseRun& run, std::size_t i) {
+  const VariantSummary& v = run.rows.at(i);
+  const std::vector<TrajectoryPoint>& t = v.run.trajectory;
+  const BaseNumberMethod limit_method = run.file.variants.at(i).model.limits.tbn_method;
+  const std::size_t n = t.size();
+  py::dict out;
+  const auto column = [&](const char* key, auto get) {
+    py::array_t<double> a(static_cast<py::ssize_t>(n));
+    double* d = a.mutable_data();
+    for (std::size_t k = 0; k < n; ++k) d[k] = get(t[k]);
+    out[key] = a;
+  };
+  column("engine_hours", [](const TrajectoryPoint& p) { return p.engine_hours; });
+  column("oil_hours", [](const TrajectoryPoint& p) { return p.oil_hours; });
+  column("calendar_hours", [](const TrajectoryPoint& p) { return p.calendar_hours; });
+  column("starts", [](const TrajectoryPoint& p) { return p.starts; });
+  {
+    py::array_t<int> a(static_cast<py::ssize_t>(n));
+    int* d = a.mutable_data();
+    for (std::size_t k = 0; k < n; ++k) d[k] = t[k].charge;
+    out["charge"] = a;
+  }
+  column("tbn", [&](const TrajectoryPoint& p) { return limit_method == BaseNumberMethod::d2896 ? p.tbn_d2896 : p.tbn_d4739; });
+  column("tbn_d2896", [](const TrajectoryPoint& p) { return p.tbn_d2896; });
+  column("tbn_d4739", [](const TrajectoryPoint& p) { return p.tbn_d4739; });
+  column("tan", [](const TrajectoryPoint& p) { return p.tan; });
+  column("san", [](const TrajectoryPoint& p) { return p.san; });
+  column("base", [](const TrajectoryPoint& p) { return p.state.base; });
+  column("strong_acid", [](const TrajectoryPoint& p) { return p.state.strong_acid; });
+  column("weak_acid", [](const TrajectoryPoint& p) { return p.state.weak_acid; });
+  column("salts", [](const TrajectoryPoint& p) { return p.state.salts; });
+  column("additive_acidity", [](const TrajectoryPoint& p) { return p.state.additive_acidity; });
+  column("oxidation", [](const TrajectoryPoint& p) { return p.state.oxidation; });
+  column("nitration", [](const TrajectoryPoint& p) { return p.state.nitration; });
+  column("oil_mass", [](const TrajectoryPoint& p) { return p.state.mass; });
+  return out;
+}
+
+py::dict rates_dict(const OilRates& r) {
+  py::dict d;
+  d["strong_acid"] = r.strong_acid;
+  d["sulfurous_fresh"] = r.sulfurous_fresh;
+  d["nitration"] = r.nitration;
+  d["oxidation"] = r.oxidation;
+  d["organic_acid"] = r.organic_acid;
+  d["consumption"] = r.consumption;
+  d["continuous_makeup"] = r.continuous_makeup;
+  return d;
+}
+
+// ---- sweeps: the loop in C++, the GIL released ------------------------------------------------
+using InArray = py::array_t<double, py::array::c_style | py::array::forcecast>;
+
+py::array_t<double> sweep_drain_interval(const EngineCase& c, const std::string& lever, const InArray& values) {
+  const Lever l = lever_from(lever);
+  const py::ssize_t n = values.size();
+  py::array_t<double> out(values.request().shape);
+  const double* in = values.data();
+  double* o = out.mutable_data();
+  {
+    py::gil_scoped_release release;
+    for (py::ssize_t i = 0; i < n; ++i) {
+      try {
+        o[i] = drain_interval(with_lever(c, l, in[i]));
+      } catch (const InputError& e) {  // name the element of the sweep that was refused
+        throw InputError(e.key(), e.value(), e.expected() + " (element " + std::to_string(i) + " of the sweep)",
+                         e.where());
+      }
+    }
+  }
+  return out;
+}
+
+}  // namespace
+
+PYBIND11_MODULE(_core, m) {
+  m.doc() = "acidload's C++ library, bound for Python (declarations only). Use the acidload package, "
+            "not this module, directly.";
+  py::register_exception_translator(&translate);
+
+  m.def("version", []() { return std::string(version()); },
+        "The library version 'MAJOR.MINOR.PATCH', as defined once in the top-level CMakeLists.txt.");
+
+  // ---- constants
+  m.attr("ZERO_CELSIUS") = constants::zero_celsius;
+  m.attr("MOLAR_GAS_CONSTANT") = constants::molar_gas_constant;
+  m.attr("STANDARD_ATMOSPHERE") = constants::standard_atmosphere;
+  m.attr("CASE_FORMAT_VERSION") = io::case_format_version;
+
+  // ---- species and gas conversions
+  m.def("molar_mass", py::overload_cast<std::string_view>(&molar_mass), py::arg("formula"),
+        "Molar mass of a chemical formula such as 'C2HCl3' or 'CH3(CH2)2SH' [kg/mol] (IUPAC standard atomic "
+        "weights). Raises InputError naming the position of a mistake.");
+  m.def("koh_equivalents", [](const std::string& acid) {
+        for (Acid a : {Acid::H2SO4, Acid::HCl, Acid::HF, Acid::HNO3})
+          if (acid == formula_text(a)) return koh_equivalents(a);
+        throw InputError("acid", acid, "one of H2SO4, HCl, HF, HNO3");
+      }, py::arg("acid"), "Base equivalents one mole of the acid neutralises [mol KOH/mol]: H2SO4 2, HCl 1, HF 1, HNO3 1.");
+  m.def("molar_volume", [](double t, double p) { return molar_volume(ReferenceState{t, p}); },
+        py::arg("temperature_k") = 273.15, py::arg("pressure_pa") = 101325.0,
+        "Ideal-gas molar volume R·T/p [m³/mol] at a reference state (temperature [K], pressure [Pa]).");
+  m.def("convert",
+        [](double value, const std::string& from_unit, const std::string& from_basis, const std::string& to_unit,
+           const std::string& to_basis, double molar_mass_kg, double ref_t, double ref_p, double water, double methane,
+           double lhv, double flow) {
+          GasContext g;
+          g.reference = ReferenceState{ref_t, ref_p};
+          g.water_fraction = water;
+          g.methane_fraction = methane;
+          g.lhv_molar = lhv;
+          g.molar_flow = flow;
+          const Concentration c{value, unit_from(from_unit), basis_from(from_basis)};
+          return convert(c, unit_from(to_unit), basis_from(to_basis), molar_mass_kg, g);
+        },
+        py::arg("value"), py::arg("from_unit"), py::arg("from_basis"), py::arg("to_unit"), py::arg("to_basis"),
+        py::arg("molar_mass_kg_per_mol"), py::arg("reference_temperature_k"), py::arg("reference_pressure_pa"),
+        py::arg("water_fraction"), py::arg("methane_fraction"), py::arg("lhv_j_per_mol"), py::arg("flow_mol_per_h"),
+        "acidload::convert: a contaminant figure from one unit and basis to another. Units: ppmv, mg/m3 (at the "
+        "reference state), mg/MJ (of LHV), mg/m3 CH4, mol/h; bases dry or wet. molar mass [kg/mol] of the species "
+        "the figure is stated as; reference state [K], [Pa]; water and methane mole fractions of the wet gas "
+        "[mol/mol]; LHV of the wet gas [J/mol]; gas flow [mol/h].");
+
+  // ---- water (IAPWS-IF97 region 4)
+  py::module_ water = m.def_submodule("water", "Water saturation by IAPWS-IF97 region 4 (IAPWS R7-97(2012)).");
+  water.def("saturation_pressure", &water::saturation_pressure, py::arg("temperature_k"),
+            "Saturation pressure p_s(T) [Pa], IF97 eq. 30; T in [273.15, 647.096] K else InputError.");
+  water.def("saturation_temperature", &water::saturation_temperature, py::arg("pressure_pa"),
+            "Saturation temperature T_s(p) [K], IF97 eq. 31; p in [611.213 Pa, 22.064 MPa] else InputError.");
+  water.def("dew_point", &water::dew_point, py::arg("water_fraction"), py::arg("total_pressure_pa"),
+            "Water dew point of a gas [K]: T_s(x_H2O · p_total); x [mol/mol], p [Pa].");
+
+  // ---- SO2 + ½ O2 ⇌ SO3
+  py::module_ so3 = m.def_submodule("so3", "Equilibrium of SO2 + 1/2 O2 = SO3 (NIST-JANAF data, p° = 1 bar).");
+  so3.attr("T_MIN") = so3::t_min;
+  so3.attr("T_MAX") = so3::t_max;
+  so3.attr("STANDARD_PRESSURE") = so3::standard_pressure;
+  so3.def("kp", &so3::kp, py::arg("temperature_k"),
+          "Kp = (p_SO3/p°)/((p_SO2/p°)·(p_O2/p°)^½) [bar^-½], p° = 1 bar; T in [298, 6000] K.");
+  so3.def("standard_gibbs_reaction", &so3::standard_gibbs_reaction, py::arg("temperature_k"),
+          "ΔG° of SO2 + ½ O2 ⇌ SO3 at 1 bar [J/mol].");
+  so3.def("equilibrium_so3_share", &so3::equilibrium_so3_share, py::arg("temperature_k"), py::arg("o2_fraction"),
+          py::arg("total_pressure_pa"),
+          "Equilibrium SO3/(SO2 + SO3) [mol/mol] at T [K], O2 mole fraction [mol/mol] and total pressure [Pa].");
+
+  // ---- the oil balance (MODEL §8), for direct use and for the reference tests
+  py::module_ oil = m.def_submodule("oil", "The oil balance of one segment of constant rates (MODEL §8).");
+  py::enum_<BaseNumberMethod>(oil, "BaseNumberMethod")
+      .value("D2896", BaseNumberMethod::d2896)
+      .value("D4739", BaseNumberMethod::d4739);
+  py::class_<OilProperties>(oil, "OilProperties", "The oil product; concentrations [mg KOH/g].")
+      .def(py::init<>())
+      .def_readwrite("fresh_tbn", &OilProperties::fresh_tbn, "fresh-oil base number by fresh_tbn_method [mg KOH/g]")
+      .def_readwrite("fresh_tbn_method", &OilProperties::fresh_tbn_method, "method of fresh_tbn")
+      .def_readwrite("weak_base_d2896", &OilProperties::weak_base_d2896, "weak base D2896 reads [mg KOH/g]")
+      .def_readwrite("weak_base_d4739", &OilProperties::weak_base_d4739, "weak base D4739 reads [mg KOH/g]")
+      .def_readwrite("base_floor", &OilProperties::base_floor, "b_min [mg KOH/g]")
+      .def_readwrite("fresh_tan", &OilProperties::fresh_tan, "fresh-oil acid number (D664) [mg KOH/g]")
+      .def_readwrite("additive_depletion", &OilProperties::additive_depletion, "k_d [1/h]")
+      .def_readwrite("salt_titration_share", &OilProperties::salt_titration_share, "β [-]")
+      .def_readwrite("organic_neutralised_share", &OilProperties::organic_neutralised_share, "φ_B [-]")
+      .def_readwrite("density_15", &OilProperties::density_15, "density at 15 °C [kg/m³]")
+      .def("fresh_reactive_base", &OilProperties::fresh_reactive_base, "b_fresh [mg KOH/g]");
+  py::class_<OilState>(oil, "OilState", "The oil's state; concentrations [mg KOH/g] unless stated.")
+      .def(py::init<>())
+      .def(py::init([](double mass, double base, double strong_acid, double weak_acid, double salts, double oxidation,
+                       double nitration, double additive_acidity) {
+             return OilState{mass, base, strong_acid, weak_acid, salts, oxidation, nitration, additive_acidity};
+           }),
+           py::kw_only(), py::arg("mass"), py::arg("base"), py::arg("strong_acid") = 0.0, py::arg("weak_acid") = 0.0,
+           py::arg("salts") = 0.0, py::arg("oxidation") = 0.0, py::arg("nitration") = 0.0,
+           py::arg("additive_acidity") = 0.0)
+      .def_readwrite("mass", &OilState::mass, "oil in circulation [kg]")
+      .def_readwrite("base", &OilState::base, "b, reactive base [mg KOH/g]")
+      .def_readwrite("strong_acid", &OilState::strong_acid, "s, free strong acid (= SAN) [mg KOH/g]")
+      .def_readwrite("weak_acid", &OilState::weak_acid, "a_w, free organic acids [mg KOH/g]")
+      .def_readwrite("salts", &OilState::salts, "c_n, neutralised-acid salts [mg KOH/g]")
+      .def_readwrite("oxidation", &OilState::oxidation, "o [A/cm]")
+      .def_readwrite("nitration", &OilState::nitration, "n [A/cm]")
+      .def_readwrite("additive_acidity", &OilState::additive_acidity, "t_add [mg KOH/g]")
+      .def("__repr__", [](const OilState& s) {
+        return "OilState(mass=" + format_value(s.mass) + ", base=" + format_value(s.base) + ", strong_acid=" +
+               format_value(s.strong_acid) + ", weak_acid=" + format_value(s.weak_acid) + ", salts=" +
+               format_value(s.salts) + ", oxidation=" + format_value(s.oxidation) + ", nitration=" +
+               format_value(s.nitration) + ", additive_acidity=" + format_value(s.additive_acidity) + ")";
+      });
+  py::class_<OilRates>(oil, "OilRates", "Rates constant over a segment.")
+      .def(py::init<>())
+      .def_readwrite("strong_acid", &OilRates::strong_acid, "R_strong [g KOH/h]")
+      .def_readwrite("sulfurous_fresh", &OilRates::sulfurous_fresh, "SO2 uptake of fresh oil [g KOH/h]")
+      .def_readwrite("nitration", &OilRates::nitration, "nitration inflow [A/cm · kg/h]")
+      .def_readwrite("oxidation", &OilRates::oxidation, "k_ox [A/cm per h]")
+      .def_readwrite("organic_acid", &OilRates::organic_acid, "α·k_ox [mg KOH/g per h]")
+      .def_readwrite("consumption", &OilRates::consumption, "oil burnt or lost [kg/h]")
+      .def_readwrite("continuous_makeup", &OilRates::continuous_makeup, "makeup equals consumption");
+  py::class_<OilBalance>(oil, "OilBalance", "Constants of the oil balance.")
+      .def(py::init<>())
+      .def_readwrite("fresh_base", &OilBalance::fresh_base, "b_fresh [mg KOH/g]")
+      .def_readwrite("base_floor", &OilBalance::base_floor, "b_min [mg KOH/g]")
+      .def_readwrite("fresh_additive", &OilBalance::fresh_additive, "t_add of fresh oil [mg KOH/g]")
+      .def_readwrite("additive_depletion", &OilBalance::additive_depletion, "k_d [1/h]")
+      .def_readwrite("organic_neutralised_share", &OilBalance::organic_neutralised_share, "φ_B [-]");
+  py::class_<OilLedger>(oil, "OilLedger", "Running totals of the conservation ledgers [g KOH].")
+      .def(py::init<>())
+      .def_readwrite("base_added", &OilLedger::base_added)
+      .def_readwrite("base_removed", &OilLedger::base_removed)
+      .def_readwrite("base_consumed", &OilLedger::base_consumed)
+      .def_readwrite("acid_entered", &OilLedger::acid_entered)
+      .def_readwrite("acid_removed", &OilLedger::acid_removed);
+  py::enum_<Regime>(oil, "Regime")
+      .value("above_floor", Regime::above_floor)
+      .value("floor_acid", Regime::floor_acid)
+      .value("floor_weak", Regime::floor_weak);
+  py::class_<SegmentOutcome>(oil, "SegmentOutcome")
+      .def_readonly("floor_reached_at", &SegmentOutcome::floor_reached_at, "[h] into the segment, -1 if not")
+      .def_readonly("acid_cleared_at", &SegmentOutcome::acid_cleared_at, "[h] into the segment, -1 if not")
+      .def_readonly("end_regime", &SegmentOutcome::end_regime);
+  oil.def("balance_constants", &balance_constants, py::arg("oil"), "The constants of the balance for an oil.");
+  oil.def("fresh_oil", &fresh_oil, py::arg("oil"), py::arg("mass_kg"), "A fresh charge of mass [kg].");
+  oil.def("advance",
+          [](OilState s, const OilBalance& k, const OilRates& r, double hours, OilLedger& ledger) {
+            const SegmentOutcome out = advance(s, k, r, hours, ledger);
+            return py::make_tuple(s, out);
+          },
+          py::arg("state"), py::arg("constants"), py::arg("rates"), py::arg("hours"), py::arg("ledger"),
+          "Advances a state over hours [h] of constant rates, exactly; returns (new state, SegmentOutcome) and "
+          "adds to the ledger.");
+  oil.def("steady_state", &steady_state, py::arg("state"), py::arg("constants"), py::arg("rates"),
+          "The state a segment of constant rates settles to (continuous makeup).");
+  oil.def("top_up", [](OilState s, const OilProperties& o, double mass, OilLedger& l) { top_up(s, o, mass, l); return s; },
+          py::arg("state"), py::arg("oil"), py::arg("mass_kg"), py::arg("ledger"), "Adds fresh oil [kg]; returns the new state.");
+  oil.def("oil_change",
+          [](OilState s, const OilProperties& o, double residual, double full, OilLedger& l) {
+            oil_change(s, o, residual, full, l);
+            return s;
+          },
+          py::arg("state"), py::arg("oil"), py::arg("residual_share"), py::arg("full_mass_kg"), py::arg("ledger"),
+          "Oil change leaving residual_share [-] of full_mass [kg]; returns the new state.");
+  oil.def("tbn", &tbn, py::arg("state"), py::arg("oil"), py::arg("method"), "TBN by a method [mg KOH/g].");
+  oil.def("tan", &acidload::tan, py::arg("state"), py::arg("oil"), "TAN (D664) [mg KOH/g].");
+  oil.def("san", &san, py::arg("state"), "SAN (D664) [mg KOH/g].");
+
+  // ---- cases
+  py::class_<EngineCase>(m, "EngineCase", "One variant of a case: everything one run needs.")
+      .def_readonly("name", &EngineCase::name, "the variant's name")
+      .def("lever_value", [](const EngineCase& c, const std::string& l) { return lever_value(c, lever_from(l)); },
+           py::arg("lever"), "The lever's value in its core unit (h2s ppmv dry, fresh-tbn mg KOH/g, "
+                             "jacket-water-out K, oil-volume m³).")
+      .def("with_lever", [](const EngineCase& c, const std::string& l, double v) { return with_lever(c, lever_from(l), v); },
+           py::arg("lever"), py::arg("value"), "The variant with one lever set (core unit).")
+      .def_property_readonly("segments", [](const EngineCase& c) { return c.record.size(); }, "segments in the record")
+      .def_property_readonly("max_hours", [](const EngineCase& c) { return c.model.limits.max_hours; },
+                             "the hours cap on a charge [h]");
+  py::class_<io::CaseFile>(m, "CaseFile", "A loaded case: the base and its variants.")
+      .def_readonly("file", &io::CaseFile::file, "path as given")
+      .def_readonly("title", &io::CaseFile::title, "the 'case' key")
+      .def_readonly("variants", &io::CaseFile::variants, "[0] is the base case")
+      .def_readonly("overlays", &io::CaseFile::overlays, "overlay files applied, in order")
+      .def_readonly("format_version", &io::CaseFile::format_version, "as written in the file");
+  m.def("load_case", &io::load_case, py::arg("path"), py::arg("overlays") = std::vector<std::string>{},
+        "Reads a case file (and overlays merged over it). Raises InputError with file, line and column.");
+  m.def("load_case_text", &io::load_case_text, py::arg("text"), py::arg("file_name"), py::arg("base_dir"),
+        py::arg("overlays") = std::vector<std::string>{},
+        "Reads a case from YAML text; relative file names (a record CSV) resolve against base_dir.");
+  m.def("section_keys", [](const std::string& s) { return io::section_keys(s); }, py::arg("section"),
+        "The keys of a case-file section ('' for the top level).");
+
+  // ---- runs
+  py::class_<CaseRun>(m, "CaseRun", "Every variant of a case, run.")
+      .def_property_readonly("names", [](const CaseRun& r) {
+        std::vector<std::string> n;
+        for (const auto& v : r.rows) n.push_back(v.name);
+        return n;
+      })
+      .def("summary_json", [](const CaseRun& r) { return io::summary_json(r.file, r.rows); },
+           "The summary as JSON text, exactly as 'acidload run --out' writes summary.json.")
+      .def("trajectories_csv", [](const CaseRun& r) { return io::trajectories_csv(r.rows); },
+           "The trajectories as CSV text, exactly as 'acidload run --out' writes trajectories.csv.")
+      .def("trajectory", &trajectory_arrays, py::arg("index"), "The trajectory of variant `index` as numpy arrays.")
+      .def("first_rates", [](const CaseRun& r, std::size_t i) { return rates_dict(r.rows.at(i).run.first_rates); },
+           py::arg("index"), "The first segment's oil-balance rates of variant `index`.")
+      .def("write_results", [](const CaseRun& r, const std::string& folder) { io::write_results(folder, r.file, r.rows); },
+           py::arg("folder"), "Writes summary.json and trajectories.csv into folder, as the program does.");
+  m.def("run_case", &run_case, py::arg("case"), "Runs every variant of a case (the GIL released).");
+
+  // ---- studies
+  m.def("drain_interval",
+        [](const EngineCase& c) {
+          py::gil_scoped_release release;
+          return drain_interval(c);
+        },
+        py::arg("case"), "The drain interval of a variant [h]; the hours cap when no other limit is reached.");
+  m.def("sweep_drain_interval", &sweep_drain_interval, py::arg("case"), py::arg("lever"), py::arg("values"),
+        "Drain interval [h] for each value of one lever (core unit), computed in C++ with the GIL released.");
+  py::class_<InverseAnswer>(m, "InverseAnswer")
+      .def_readonly("found", &InverseAnswer::found)
+      .def_readonly("value", &InverseAnswer::value, "in the lever's core unit")
+      .def_readonly("interval_at_value", &InverseAnswer::interval_at_value, "[h]")
+      .def_readonly("interval_at_low", &InverseAnswer::interval_at_low, "[h]")
+      .def_readonly("interval_at_high", &InverseAnswer::interval_at_high, "[h]")
+      .def_readonly("reason", &InverseAnswer::reason)
+      .def_readonly("evaluations", &InverseAnswer::evaluations);
+  m.def("solve_for_interval",
+        [](const EngineCase& c, const std::string& lever, double target, double low, double high, double tolerance) {
+          const Lever l = lever_from(lever);
+          py::gil_scoped_release release;
+          return solve_for_interval(c, l, target, low, high, tolerance);
+        },
+        py::arg("case"), py::arg("lever"), py::arg("target_hours"), py::arg("low"), py::arg("high"),
+        py::arg("tolerance"),
+        "The lever value in [low, high] (core unit) at which the drain interval equals target_hours [h] "
+        "(TOMS 748 bracketing); an answer with found=False and a reason when the range gives none.");
+}
