@@ -22,3 +22,34 @@ def need(module: str):
 @pytest.fixture
 def root():
     return ROOT
+
+
+def need_acidload():
+    """Imports the acidload Python package: as installed or on PYTHONPATH (scripts/test sets it to
+    build/python), else from a CMake build folder's python/ (build, then build-py). Skips without it,
+    or fails under CI=true, like need()."""
+    try:
+        return importlib.import_module("acidload")
+    except ImportError:
+        pass
+    import sys
+
+    for folder in ("build", "build-py"):
+        candidate = ROOT / folder / "python"
+        if (candidate / "acidload" / "__init__.py").exists() and list((candidate / "acidload").glob("_core*")):
+            sys.path.insert(0, str(candidate))
+            break
+    return need("acidload")
+
+
+def acidload_program():
+    """The acidload program to compare with: $ACIDLOAD_PROGRAM (scripts/test sets it), else the CMake
+    build's. Skips without it, or fails under CI=true."""
+    path = os.environ.get("ACIDLOAD_PROGRAM")
+    candidates = [pathlib.Path(path)] if path else [ROOT / f / "bindings" / "cli" / "acidload" for f in ("build", "build-py")]
+    for c in candidates:
+        if c.is_file() and os.access(c, os.X_OK):
+            return c
+    if os.environ.get("CI", "").lower() == "true":
+        pytest.fail(f"the acidload program is missing (looked for {', '.join(map(str, candidates))})")
+    pytest.skip("the acidload program is not built")
