@@ -168,3 +168,20 @@ TEST_CASE("bad segments are refused with the field named") {
   c.continuous_makeup = false;
   CHECK_THROWS_AS(simulate(c, {}, {hours(5000)}), InputError);  // burns the sump dry without a top-up
 }
+
+TEST_CASE("a record read segment by segment gives the same run; decimated trajectories keep few points") {
+  std::vector<Segment> rec;
+  for (int i = 0; i < 2000; ++i) rec.push_back(hours(1.0, 250 + 100 * std::sin(i / 50.0)));
+  const RunResult a = simulate(sanity_charge(), {}, rec);
+  std::size_t i = 0;
+  RunOptions o;
+  o.keep_segment_ends = false;
+  o.output_interval = 100;
+  const RunResult b = simulate(sanity_charge(), {}, [&]() -> const Segment* { return i < rec.size() ? &rec[i++] : nullptr; }, o);
+  CHECK(a.final_state.base == doctest::Approx(b.final_state.base).epsilon(1e-12));
+  CHECK(a.final_state.salts == doctest::Approx(b.final_state.salts).epsilon(1e-12));
+  CHECK(a.charges.front().drain_interval == doctest::Approx(b.charges.front().drain_interval).epsilon(1e-12));
+  CHECK(a.trajectory.size() == 2001);
+  CHECK(b.trajectory.size() == 21);  // the start and every 100 h
+  CHECK(b.trajectory.back().engine_hours == doctest::Approx(2000));
+}

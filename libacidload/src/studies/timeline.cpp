@@ -26,6 +26,8 @@ struct Runner {
   OilState state;
   double engine_h = 0, oil_h = 0, calendar_h = 0, starts = 0;
   int charge_index = 0;
+  std::optional<Segment> last_segment;  // kept for the steady state
+  double since_output = 0;              // hours since the last output point
 
   ChargeSummary& current() { return result.charges.back(); }
 
@@ -39,6 +41,7 @@ struct Runner {
   }
 
   void record_point() {
+    since_output = 0;
     TrajectoryPoint p;
     p.engine_hours = engine_h;
     p.oil_hours = oil_h;
@@ -124,15 +127,15 @@ struct Runner {
     Transfer t;
     const OilRates r = segment_rates(s, charge, model, &t);
     if (first) result.first_transfer = t, result.first_rates = r;
+    last_segment = s;
     const double cal = s.calendar_hours < 0 ? s.hours : s.calendar_hours;
     if (cal < s.hours) throw InputError("segment.calendar-hours", format_value(cal), "at least the running hours " + format_value(s.hours));
     double done = 0;
-    double next_output = opt.output_interval > 0 ? opt.output_interval : s.hours + 1;
-    double since_output = 0;
     while (done < s.hours) {
       double dt = s.hours - done;
       if (opt.detection_step > 0) dt = std::fmin(dt, opt.detection_step);
-      if (opt.output_interval > 0) dt = std::fmin(dt, next_output - since_output);
+      if (opt.output_interval > 0) dt = std::fmin(dt, std::fmax(opt.output_interval - since_output, 0.0));
+      if (dt <= 0) dt = std::fmin(s.hours - done, opt.output_interval);
       const OilState before = state;
       const SegmentOutcome out = advance(state, k, r, dt, result.ledger);
       if (out.floor_reached_at >= 0 && current().floor_reached_at < 0) current().floor_reached_at = oil_h + out.floor_reached_at;
@@ -143,19 +146,19 @@ struct Runner {
       starts += dt / s.hours * s.starts;
       check_limits(before, r, dt);
       since_output += dt;
-      if (opt.output_interval > 0 && since_output >= next_output - 1e-9) {
+      if (opt.output_interval > 0 && since_output >= opt.output_interval - 1e-9) {
         since_output = 0;
-        if (done < s.hours) record_point();
+        if (done < s.hours || !opt.keep_segment_ends) record_point();
       }
       if (opt.stop_at_first_limit && result.charges.front().first) return;
     }
-    record_point();
+    if (opt.keep_segment_ends) record_point();
   }
 };
 
 }  // namespace
 
-RunResult simulate(const OilCharge& charge, const ModelParameters& model, const std::vector<Segment>& record,
+RunResult simulate(const OilCharge& charge, const ModelParameters& model, const SegmentSource& next,
                    const RunOptions& options, const std::optional<OilState>& start, double start_oil_hours) {
   validate(charge.oil);
   check::positive("oil.mass", charge.mass);
@@ -165,21 +168,36 @@ RunResult simulate(const OilCharge& charge, const ModelParameters& model, const 
   run.result.initial = run.state;
   run.open_charge(start_oil_hours);
   run.record_point();
-  for (std::size_t i = 0; i < record.size(); ++i) {
-    run.run_segment(record[i], i == 0);
+  std::optional<Segment> last;
+  bool first = true;
+  while (const Segment* s = next()) {
+    run.run_segment(*s, first);
+    first = false;
+    if (!options.keep_segment_ends) last = *s;
     if (options.stop_at_first_limit && run.result.charges.front().first) break;
   }
+  if (!options.keep_segment_ends && last && (run.result.trajectory.empty() ||
+                                             run.result.trajectory.back().engine_hours != run.engine_h))
+    run.record_point();  // the end of the record is always kept
   run.close_charge();
   RunResult& r = run.result;
   r.final_state = run.state;
   r.engine_hours = run.engine_h;
   r.calendar_hours = run.calendar_h;
   r.starts = run.starts;
-  if (!record.empty() && !r.charges.back().first && charge.continuous_makeup && record.back().oil_consumption > 0) {
-    const OilRates last = segment_rates(record.back(), charge, model);
-    r.steady_state = steady_state(run.state, run.k, last);
+  const Segment* tail = run.last_segment ? &*run.last_segment : nullptr;
+  if (tail && !r.charges.back().first && charge.continuous_makeup && tail->oil_consumption > 0) {
+    const OilRates rates = segment_rates(*tail, charge, model);
+    r.steady_state = steady_state(run.state, run.k, rates);
   }
   return r;
+}
+
+RunResult simulate(const OilCharge& charge, const ModelParameters& model, const std::vector<Segment>& record,
+                   const RunOptions& options, const std::optional<OilState>& start, double start_oil_hours) {
+  std::size_t i = 0;
+  return simulate(charge, model, [&]() -> const Segment* { return i < record.size() ? &record[i++] : nullptr; },
+                  options, start, start_oil_hours);
 }
 
 }  // namespace acidload

@@ -2,6 +2,7 @@
 // An operating record run through the oil balance: segments of constant operation, events between
 // them, the limits watched throughout, and the trajectories a user plots.
 #include <array>
+#include <functional>
 #include <optional>
 #include <vector>
 
@@ -75,6 +76,8 @@ struct RunOptions {
   double output_interval = 0;   //!< trajectory points at least this often [h]; 0 = segment ends only
   double detection_step = 25;   //!< limits are checked at least this often inside long segments [h]
   bool stop_at_first_limit = false;  //!< end the run when the first charge reaches its first limit
+  bool keep_segment_ends = true;     //!< a trajectory point at every segment end (off: only every
+                                     //!< output_interval, at events and at the end — for long records)
 };
 
 //! The whole run.
@@ -91,6 +94,15 @@ struct RunResult {
 
 //! Runs the record from a fresh charge (or from `start`, if given, in its 0th charge at `start_oil_hours`).
 RunResult simulate(const OilCharge& charge, const ModelParameters& model, const std::vector<Segment>& record,
+                   const RunOptions& options = {}, const std::optional<OilState>& start = std::nullopt,
+                   double start_oil_hours = 0);
+
+//! Segments one at a time: returns the next segment, or nullptr at the end of the record. The
+//! pointer need only stay valid until the next call. Memory then does not grow with the record.
+using SegmentSource = std::function<const Segment*()>;
+
+//! Runs a record read segment by segment from `next` (see simulate above).
+RunResult simulate(const OilCharge& charge, const ModelParameters& model, const SegmentSource& next,
                    const RunOptions& options = {}, const std::optional<OilState>& start = std::nullopt,
                    double start_oil_hours = 0);
 
