@@ -19,7 +19,7 @@ not replace, the engine maker's and oil supplier's limits and lab analysis.
 from . import _core
 from ._case import KEYWORDS, Case, Variant, case, case_from_dict, load_case, load_case_text
 from ._errors import Error, InputError, NoAnswerError, NotModelledError
-from ._gas import CONCENTRATION_UNITS, convert, molar_mass, molar_volume
+from ._gas import CONCENTRATION_UNITS, accepted_units, convert, molar_mass, molar_volume, parse_quantity
 from ._results import TRAJECTORY_UNITS, Result, VariantResult, run
 from ._studies import LEVERS, InverseAnswer, drain_interval, solve_for_interval
 from . import oil, so3, water
@@ -37,5 +37,5 @@ __all__ = [
     # errors
     "Error", "InputError", "NotModelledError", "NoAnswerError",
     # physics from the core
-    "molar_mass", "molar_volume", "convert", "CONCENTRATION_UNITS", "water", "so3", "oil",
+    "molar_mass", "molar_volume", "convert", "parse_quantity", "accepted_units", "CONCENTRATION_UNITS", "water", "so3", "oil",
 ]

@@ -164,3 +164,6 @@ class InverseAnswer:
 
 def solve_for_interval(case: EngineCase, lever: str, target_hours: float, low: float, high: float,
                        tolerance: float) -> InverseAnswer: ...
+
+def parse_quantity(text: str, kind: str) -> float: ...  # in the core's unit of the kind
+def accepted_units(kind: str) -> List[str]: ...

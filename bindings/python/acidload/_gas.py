@@ -3,7 +3,7 @@ from __future__ import annotations
 
 from . import _core
 
-__all__ = ["molar_mass", "molar_volume", "convert", "CONCENTRATION_UNITS"]
+__all__ = ["molar_mass", "molar_volume", "convert", "parse_quantity", "accepted_units", "CONCENTRATION_UNITS"]
 
 #: The units of a contaminant figure acidload converts between.
 CONCENTRATION_UNITS = ("ppmv", "mg/m3", "mg/MJ", "mg/m3 CH4", "mol/h")
@@ -36,3 +36,19 @@ def convert(value: float, from_unit: str, to_unit: str, *, molar_mass_kg_per_mol
     return _core.convert(float(value), from_unit, from_basis, to_unit, to_basis, float(molar_mass_kg_per_mol),
                          float(reference_temperature_k), float(reference_pressure_pa), float(water_fraction),
                          float(methane_fraction), float(lhv_j_per_mol), float(flow_mol_per_h))
+
+
+def parse_quantity(text: str, kind: str) -> float:
+    """A value with its unit as a case file writes it — ``"1.2 MW"``, ``"90 degC"``, ``"600 L"``,
+    ``"0.25 g/kWh"`` — parsed for a kind of quantity into the core's unit: temperature → K,
+    temperature_change → K, power → W, volume → m³, mass → kg, molar_flow → mol/h (Nm³ at 0 °C,
+    101.325 kPa), fraction → -, acid_number → mg KOH/g, specific_consumption → kg/J, duration → h,
+    pressure → Pa, density → kg/m³, per_hour → 1/h, oxidation → A/cm, oxidation_rate → A/cm per h,
+    molar_energy → J/mol, count and number → -. A bad value raises :class:`acidload.InputError`
+    listing the accepted units (:func:`accepted_units`)."""
+    return _core.parse_quantity(text, kind)
+
+
+def accepted_units(kind: str) -> list:
+    """The units a kind of quantity accepts, as written in case files (e.g. ``["degC", "K"]``)."""
+    return list(_core.accepted_units(kind))

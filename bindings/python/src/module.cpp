@@ -13,6 +13,7 @@
 
 #include "acidload/acidload.hpp"
 #include "acidload/io/case_file.hpp"
+#include "acidload/io/quantity.hpp"
 #include "acidload/io/results.hpp"
 #include "acidload/studies/inverse.hpp"
 
@@ -79,6 +80,24 @@ Basis basis_from(const std::string& text) {
   if (text == "dry") return Basis::dry;
   if (text == "wet") return Basis::wet;
   throw InputError("basis", text, "dry or wet");
+}
+
+// The kinds of quantity of the case format, by the enumerator's name.
+io::Kind kind_from(const std::string& text) {
+  static const std::pair<const char*, io::Kind> kinds[] = {
+      {"temperature", io::Kind::temperature}, {"temperature_change", io::Kind::temperature_change},
+      {"power", io::Kind::power}, {"volume", io::Kind::volume}, {"mass", io::Kind::mass},
+      {"molar_flow", io::Kind::molar_flow}, {"fraction", io::Kind::fraction}, {"acid_number", io::Kind::acid_number},
+      {"specific_consumption", io::Kind::specific_consumption}, {"duration", io::Kind::duration},
+      {"pressure", io::Kind::pressure}, {"density", io::Kind::density}, {"per_hour", io::Kind::per_hour},
+      {"oxidation", io::Kind::oxidation}, {"oxidation_rate", io::Kind::oxidation_rate},
+      {"molar_energy", io::Kind::molar_energy}, {"count", io::Kind::count}, {"number", io::Kind::number}};
+  std::string names;
+  for (const auto& [n, k] : kinds) {
+    if (text == n) return k;
+    names += (names.empty() ? "" : ", ") + std::string(n);
+  }
+  throw InputError("kind", text, "one of: " + names);
 }
 
 // ---- a run of every variant of a case ---------------------------------------------------------
@@ -217,6 +236,22 @@ PYBIND11_MODULE(_core, m) {
         "reference state), mg/MJ (of LHV), mg/m3 CH4, mol/h; bases dry or wet. molar mass [kg/mol] of the species "
         "the figure is stated as; reference state [K], [Pa]; water and methane mole fractions of the wet gas "
         "[mol/mol]; LHV of the wet gas [J/mol]; gas flow [mol/h].");
+
+  m.def("parse_quantity",
+        [](const std::string& text, const std::string& kind) {
+          double v = 0;
+          std::string why;
+          if (!io::parse_quantity_text(text, kind_from(kind), v, why)) throw InputError("quantity", text, why);
+          return v;
+        },
+        py::arg("text"), py::arg("kind"),
+        "A value with its unit as a case file writes it ('1.2 MW', '90 degC', '600 L', '0.25 g/kWh') parsed for "
+        "a kind of quantity (temperature, temperature_change, power, volume, mass, molar_flow, fraction, "
+        "acid_number, specific_consumption, duration, pressure, density, per_hour, oxidation, oxidation_rate, "
+        "molar_energy, count, number) into the core's unit (K, W, m³, kg, mol/h, -, mg KOH/g, kg/J, h, Pa, "
+        "kg/m³, 1/h, A/cm, A/cm per h, J/mol).");
+  m.def("accepted_units", [](const std::string& kind) { return io::accepted_units(kind_from(kind)); },
+        py::arg("kind"), "The units a kind of quantity accepts, as written in case files.");
 
   // ---- water (IAPWS-IF97 region 4)
   py::module_ water = m.def_submodule("water", "Water saturation by IAPWS-IF97 region 4 (IAPWS R7-97(2012)).");
