@@ -22,12 +22,12 @@ struct Node {
   enum class Type { null, scalar, sequence, map };
   Type type = Type::null;
   std::string scalar;                            //!< the text of a scalar (as written, unquoted)
-  bool quoted = false;                           //!< the scalar was quoted in the file
+  bool quoted = false;                           //!< the scalar was quoted in the file (or a | or > block)
   std::vector<Node> items;                       //!< a sequence's items
   std::vector<std::pair<std::string, Node>> entries;  //!< a map's entries in file order (keys are scalars)
   std::vector<Mark> key_marks;                   //!< position of each map key, parallel to `entries`
   Mark mark;                                     //!< position of the node itself
-  std::string path;                              //!< key path from the root: "engine.blow-by", "variants[1].name"
+  std::string path;                              //!< key path from the root: "engine.blow-by", "variants[1].name" (list indices 0-based; "" is the root, shown as "(top level)")
   int source = 0;                                //!< which document of a merged tree it came from (set by the merger)
   const Node* find(std::string_view key) const;  //!< a map entry, or nullptr
 };
@@ -52,7 +52,10 @@ struct Document {
 };
 
 //! Parses YAML text. Syntax errors, duplicate keys (in any map), non-scalar map keys, anchors and
-//! aliases, too-deep nesting, too many nodes and oversized text throw InputError with the position.
+//! aliases, too-deep nesting, too many nodes and oversized text throw InputError with the position;
+//! so do explicit tags, a second document, text that is not UTF-8 or holds control characters, and
+//! key paths over 512 characters. Empty text (or comments only) gives a root of Type::null: the
+//! caller decides whether that is an error.
 Document parse_document(std::string_view text, std::string file_name, const ReadLimits& limits = {});
 //! Reads and parses a file; a missing or unreadable file is an InputError naming it.
 Document read_document(const std::string& path, const ReadLimits& limits = {});
