@@ -277,7 +277,7 @@ PYBIND11_MODULE(_core, m) {
 
   // ---- the oil balance (MODEL §8), for direct use and for the reference tests
   py::module_ oil = m.def_submodule("oil", "The oil balance of one segment of constant rates (MODEL §8).");
-  py::enum_<BaseNumberMethod>(oil, "BaseNumberMethod")
+  py::enum_<BaseNumberMethod>(oil, "BaseNumberMethod", "Base-number titration methods (ASTM D2896, D4739).")
       .value("D2896", BaseNumberMethod::d2896)
       .value("D4739", BaseNumberMethod::d4739);
   py::class_<OilProperties>(oil, "OilProperties", "The oil product; concentrations [mg KOH/g].")
@@ -332,18 +332,18 @@ PYBIND11_MODULE(_core, m) {
       .def_readwrite("fresh_additive", &OilBalance::fresh_additive, "t_add of fresh oil [mg KOH/g]")
       .def_readwrite("additive_depletion", &OilBalance::additive_depletion, "k_d [1/h]")
       .def_readwrite("organic_neutralised_share", &OilBalance::organic_neutralised_share, "φ_B [-]");
-  py::class_<OilLedger>(oil, "OilLedger", "Running totals of the conservation ledgers [g KOH].")
+  py::class_<OilLedger>(oil, "OilLedger", "Running totals of the two conservation ledgers [g KOH].")
       .def(py::init<>())
-      .def_readwrite("base_added", &OilLedger::base_added)
-      .def_readwrite("base_removed", &OilLedger::base_removed)
-      .def_readwrite("base_consumed", &OilLedger::base_consumed)
-      .def_readwrite("acid_entered", &OilLedger::acid_entered)
-      .def_readwrite("acid_removed", &OilLedger::acid_removed);
-  py::enum_<Regime>(oil, "Regime")
+      .def_readwrite("base_added", &OilLedger::base_added, "reactive base brought by fresh oil [g KOH]")
+      .def_readwrite("base_removed", &OilLedger::base_removed, "reactive base carried out with oil [g KOH]")
+      .def_readwrite("base_consumed", &OilLedger::base_consumed, "reactive base used up neutralising acid [g KOH]")
+      .def_readwrite("acid_entered", &OilLedger::acid_entered, "strong acid, SO2 and organic acid in [g KOH]")
+      .def_readwrite("acid_removed", &OilLedger::acid_removed, "free acid carried out with oil [g KOH]");
+  py::enum_<Regime>(oil, "Regime", "What the oil does in a segment: above the base floor, at the floor with free strong acid, at the floor with the organic acid limiting.")
       .value("above_floor", Regime::above_floor)
       .value("floor_acid", Regime::floor_acid)
       .value("floor_weak", Regime::floor_weak);
-  py::class_<SegmentOutcome>(oil, "SegmentOutcome")
+  py::class_<SegmentOutcome>(oil, "SegmentOutcome", "What the oil did during a segment: the floor crossing and acid clearing times [h].")
       .def_readonly("floor_reached_at", &SegmentOutcome::floor_reached_at, "[h] into the segment, -1 if not")
       .def_readonly("acid_cleared_at", &SegmentOutcome::acid_cleared_at, "[h] into the segment, -1 if not")
       .def_readonly("end_regime", &SegmentOutcome::end_regime);
@@ -424,7 +424,7 @@ PYBIND11_MODULE(_core, m) {
         py::arg("case"), "The drain interval of a variant [h]; the hours cap when no other limit is reached.");
   m.def("sweep_drain_interval", &sweep_drain_interval, py::arg("case"), py::arg("lever"), py::arg("values"),
         "Drain interval [h] for each value of one lever (core unit), computed in C++ with the GIL released.");
-  py::class_<InverseAnswer>(m, "InverseAnswer")
+  py::class_<InverseAnswer>(m, "InverseAnswer", "The answer of solve_for_interval, in the lever's core unit.")
       .def_readonly("found", &InverseAnswer::found)
       .def_readonly("value", &InverseAnswer::value, "in the lever's core unit")
       .def_readonly("interval_at_value", &InverseAnswer::interval_at_value, "[h]")
