@@ -1,0 +1,99 @@
+#!/usr/bin/env python3
+"""Compare H2S scrubbing levels for the demo site: TBN, TAN and SAN against oil hours, with the limits.
+
+The demo site (cases/demo-site.yaml, Harrowfield landfill, engine 2) is INVENTED DATA for illustration;
+none of its figures is a measurement. Run from the repository (after `pip install .`, or with
+PYTHONPATH=build/python after a CMake build with -DACIDLOAD_BUILD_PYTHON=ON):
+
+    python examples/compare_scrubbing.py                     # writes compare_scrubbing.png
+    python examples/compare_scrubbing.py --out plot.png --case cases/demo-site.yaml
+
+Results are estimates that support, not replace, the engine maker's and oil supplier's limits and lab
+analysis: never extend a drain interval without lab confirmation.
+"""
+import argparse
+import pathlib
+
+import numpy as np
+
+import acidload
+
+HERE = pathlib.Path(__file__).resolve().parent
+SCRUBBING = ["raw gas", "iron oxide to 50 ppmv", "iron oxide + carbon to 10 ppmv"]  # variants of the demo case
+
+
+def compare(case_path):
+    """Runs the case; returns the result and a sweep of the drain interval over inlet H2S [ppmv]."""
+    case = acidload.load_case(case_path)
+    result = acidload.run(case)
+    h2s = np.linspace(10, 600, 60)
+    sweep = acidload.drain_interval(case, h2s_ppmv=h2s)  # one C++ loop, the GIL released
+    return result, h2s, sweep
+
+
+def plot(result, h2s, sweep, variants=SCRUBBING):
+    """Four panels: TBN, TAN, SAN against oil hours (limits dashed, drain intervals marked) and the
+    drain interval against inlet H2S."""
+    import matplotlib.pyplot as plt
+
+    fig, axes = plt.subplots(2, 2, figsize=(11, 8), constrained_layout=True)
+    panels = [("tbn", "tbn-fall", "TBN (D4739) [mg KOH/g]"), ("tan", "tan-rise", "TAN (D664) [mg KOH/g]"),
+              ("san", "san", "SAN (D664) [mg KOH/g]")]
+    for ax, (key, limit, label) in zip(axes.flat, panels):
+        limit_values = set()
+        for i, name in enumerate(variants):
+            v = result[name]
+            colour = f"C{i}"
+            t = v.trajectory
+            ax.plot(t["oil_hours"], t[key], color=colour, label=name)
+            limit_values.add(v.limits[limit]["limit"])
+            if v.drain_interval_h is not None and v.limit_reached != "max-hours":
+                ax.axvline(v.drain_interval_h, color=colour, linestyle=":", linewidth=1)
+        for value in sorted(limit_values):  # the limit, once per value (the variants share it here)
+            ax.axhline(value, color="red", linestyle="--", linewidth=1)
+            ax.annotate(f"limit {value:g}", (0, value), xycoords=("axes fraction", "data"), color="red",
+                        fontsize=8, xytext=(3, 3), textcoords="offset points")
+        ax.set_xlabel("oil hours [h]")
+        ax.set_ylabel(label)
+        ax.grid(alpha=0.3)
+    axes[0, 0].legend(title="red dashed: limit; dotted: drain interval", fontsize=8, title_fontsize=8)
+    ax = axes[1, 1]
+    ax.plot(h2s, sweep, color="k")
+    ax.set_xlabel("H2S in the fuel gas [ppmv, dry]")
+    ax.set_ylabel("drain interval [h]")
+    ax.set_title("drain interval against inlet H2S (hours cap where no limit is reached)", fontsize=9)
+    ax.grid(alpha=0.3)
+    fig.suptitle(f"{result.summary['case']} — scrubbing levels (invented demo data)")
+    return fig
+
+
+def table(result, variants=SCRUBBING):
+    """The comparison as text: drain interval, the limit that ends it, TBN/TAN/SAN there."""
+    lines = [f"{'variant':34s} {'drain interval':>14s}  {'limit':10s} {'TBN':>5s} {'TAN':>5s} {'SAN':>5s}"]
+    for name in variants:
+        v = result[name]
+        d = v.drain_interval_h
+        end = v.summary["at-drain-or-end"]
+        lines.append(f"{name:34s} {(f'{d:.0f} h' if d is not None else 'not reached'):>14s}  "
+                     f"{v.limit_reached or '-':10s} {end['tbn-mg-koh-per-g']:5.2f} {end['tan-mg-koh-per-g']:5.2f} "
+                     f"{end['san-mg-koh-per-g']:5.2f}")
+    return "\n".join(lines)
+
+
+def main():
+    parser = argparse.ArgumentParser(description=__doc__.split("\n")[0])
+    parser.add_argument("--case", default=str(HERE.parent / "cases" / "demo-site.yaml"), help="case file")
+    parser.add_argument("--out", default="compare_scrubbing.png", help="PNG file to write")
+    args = parser.parse_args()
+    import matplotlib
+
+    matplotlib.use("Agg")  # a file, no window
+    result, h2s, sweep = compare(args.case)
+    print(table(result))
+    fig = plot(result, h2s, sweep)
+    fig.savefig(args.out, dpi=120)
+    print(f"\nwritten to {args.out} (invented demo data; never extend a drain interval without lab confirmation)")
+
+
+if __name__ == "__main__":
+    main()
