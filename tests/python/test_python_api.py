@@ -55,6 +55,19 @@ def test_case_file_text_and_dict_give_the_same_case():
     assert acidload.load_case(DEMO).names == [data["base-name"]] + [v["name"] for v in data["variants"]]
 
 
+def test_dicts_are_written_as_yaml_that_pyyaml_reads_back():
+    acidload = need_acidload()
+    yaml = need("yaml")
+    from acidload import _yaml
+
+    for path in sorted((ROOT / "cases").glob("*.yaml")) + sorted((ROOT / "tests" / "cases").rglob("*.yaml")):
+        data = yaml.safe_load(path.read_text(encoding="utf-8"))
+        assert yaml.safe_load(_yaml.dump(data)) == data, path.name  # PyYAML (an independent YAML parser)
+    odd = {"a": [], "b": {}, "c": [[1, 2], [3]], "d": [{"x": 1.5, "y": [True, None]}, "z"],
+           "quote": 'it"s: {x} # not a comment', "key with space": -0.25, "π": "ü"}
+    assert yaml.safe_load(_yaml.dump(odd)) == odd
+
+
 def test_dict_with_a_record_csv_resolves_it_against_base_dir():
     acidload = need_acidload()
     yaml = need("yaml")

@@ -1,13 +1,12 @@
 """Cases: from a case file, a YAML text, a dict or keyword arguments — all read by the one C++ reader."""
 from __future__ import annotations
 
-import json
 import math
 import os
 import tempfile
 from typing import Any, Dict, Iterable, List, Mapping, Optional, Sequence, Tuple, Union
 
-from . import _core
+from . import _core, _yaml
 from ._errors import InputError
 
 __all__ = ["Case", "Variant", "load_case", "load_case_text", "case_from_dict", "case", "KEYWORDS"]
@@ -130,15 +129,6 @@ def load_case_text(text: str, *, file_name: str = "<text>", base_dir: PathLike =
     return Case(_core.load_case_text(text, file_name, os.fspath(base_dir), [os.fspath(o) for o in overlays]))
 
 
-def _json_default(x: Any) -> Any:
-    # numpy scalars and arrays, paths
-    if hasattr(x, "tolist"):
-        return x.tolist()
-    if isinstance(x, os.PathLike):
-        return os.fspath(x)
-    raise TypeError(f"a case dict holds strings, numbers, booleans, lists and dicts, not {type(x).__name__}")
-
-
 def _from_dict_error(e: InputError, keywords: Optional[Dict[str, str]] = None) -> InputError:
     """The error of a dict or keyword case: the key path and the program's message, no text position."""
     message = f"'{e.key}' = '{e.value}': expected {e.expected}"
@@ -165,8 +155,8 @@ def case_from_dict(data: Mapping[str, Any], *, base_dir: PathLike = ".") -> Case
 
 def _load_dict(doc: Mapping[str, Any], base_dir: PathLike, keywords: Optional[Dict[str, str]],
                base: Optional[PathLike] = None, overlays: Sequence[PathLike] = ()) -> Case:
-    # JSON is a subset of YAML: the reader reads it as it reads a file.
-    text = json.dumps(doc, ensure_ascii=False, default=_json_default, allow_nan=True)
+    # written out as YAML text: the reader reads it as it reads a file
+    text = _yaml.dump(doc)
     try:
         if base is None:
             return Case(_core.load_case_text(text, DICT_SOURCE, os.fspath(base_dir), [os.fspath(o) for o in overlays]))
