@@ -97,21 +97,14 @@ double nox_per_mol_fuel(const Combustion& base, const NoxEmission& nox, double f
     check::positive("engine.electrical-power", power);
     return nox.value * 1e-3 * (power * 1e-3) / M / fuel_flow;  // kg/h / (kg/mol) / (mol fuel/h)
   }
-  // mg/Nm³ dry at O2_ref → at the actual O2 → mol per mol fuel; the NO2 formed takes O2 and changes
-  // the dry volume, so iterate (a contraction: converges to machine precision in a few passes).
+  // mg/Nm³ dry at O2_ref → at the actual O2 → mol per mol fuel. The NO2 formed takes O2 and changes
+  // the dry volume; with D0, O0 the dry and O2 moles before it, n = K(20.9 D0 − 100 O0 + 89.55 n),
+  // K = c_ref·1e-6·V_m / (M (20.9 − 100 O2_ref)): linear in n, so solved exactly.
+  check::in_range("nox.o2-reference", nox.o2_reference, 0.0, 0.2, "mol/mol");
   const double vm = molar_volume(ReferenceState::normal());
-  double n = 0;
-  for (int pass = 0; pass < 100; ++pass) {
-    Combustion c = base;
-    c.products[static_cast<std::size_t>(Gas::N2)] -= 0.5 * n;
-    c.products[static_cast<std::size_t>(Gas::O2)] -= n;
-    c.products[static_cast<std::size_t>(Gas::NO2)] += n;
-    const double conc = nox_at_actual_o2(nox.value, c.dry_o2_fraction(), nox.o2_reference);  // mg/Nm³ dry
-    const double next = conc * 1e-6 * c.dry_products_total() * vm / M;
-    if (std::fabs(next - n) <= 1e-16 * next) return next;
-    n = next;
-  }
-  return n;
+  const double K = nox.value * 1e-6 * vm / (M * (20.9 - 100 * nox.o2_reference));
+  const double D0 = base.dry_products_total(), O0 = base.products[static_cast<std::size_t>(Gas::O2)];
+  return K * (20.9 * D0 - 100 * O0) / (1 - (100 - 0.5 * 20.9) * K);
 }
 
 }  // namespace acidload

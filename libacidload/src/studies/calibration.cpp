@@ -440,6 +440,7 @@ MonteCarloResult monte_carlo(const EngineCase& c0, const std::vector<UncertainIn
     }
     RunOptions o = x.options;
     o.output_interval = 0;
+    o.keep_segment_ends = false;  // no trajectory is needed, only the limits
     const RunResult r = simulate(x.charge, x.model, x.record, o);
     const ChargeSummary& ch = r.charges.front();
     out.drain_interval[static_cast<std::size_t>(i)] = ch.first ? ch.drain_interval : x.model.limits.max_hours;
