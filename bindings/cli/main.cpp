@@ -11,6 +11,7 @@
 #include "acidload/io/quantity.hpp"
 #include "acidload/io/results.hpp"
 #include "acidload/studies/inverse.hpp"
+#include "demo_case.hpp"
 #include "report.hpp"
 
 #include <chrono>
@@ -77,7 +78,8 @@ const char* convert_help =
 
 const char* demo_help =
     "usage: acidload demo\n\n"
-    "Runs the bundled demo case (cases/demo-site.yaml: Harrowfield landfill, engine 2 — invented data).\n";
+    "Runs the bundled demo case (a copy of cases/demo-site.yaml built into the program: Harrowfield\n"
+    "landfill, engine 2 — invented data).\n";
 
 const char* fit_help =
     "usage: acidload fit CASE --lab FILE --parameters KEY[,KEY…] [--write-overlay FILE] [--overlay FILE]...\n\n"
@@ -369,7 +371,7 @@ int main(int argc, char** argv) {
       if (a.help) return std::printf("%s", demo_help), exit_ok;
       if (!a.case_file.empty() || !a.overlays.empty()) throw UsageError("demo takes no case file");
       std::printf("acidload %s — demo: Harrowfield landfill, engine 2 (invented data)\n\n", acidload::version());
-      return run_case(acidload::io::load_case(ACIDLOAD_DEMO_CASE), "");
+      return run_case(acidload::io::load_case_text(demo_case_text, "demo-site.yaml (bundled)", "."), "");
     }
     throw UsageError("unknown command '" + a.command + "'");
   } catch (const UsageError& e) {

@@ -1,6 +1,6 @@
 # Type stubs of acidload._core, the pybind11 module (bindings/python/src/module.cpp). Units follow the
 # core's table: hours, K, Pa, kg, m³, mol, mg KOH/g, g KOH/h.
-from typing import Dict, List, Sequence, Tuple
+from typing import Any, Dict, List, Optional, Sequence, Tuple
 
 import numpy as np
 import numpy.typing as npt
@@ -167,3 +167,51 @@ def solve_for_interval(case: EngineCase, lever: str, target_hours: float, low: f
 
 def parse_quantity(text: str, kind: str) -> float: ...  # in the core's unit of the kind
 def accepted_units(kind: str) -> List[str]: ...
+
+# ---- calibration, forecast, Monte Carlo
+class LabSample:
+    charge: int  # 0-based charge of the record
+    oil_hours: float  # [h]
+    tbn: Optional[float]  # [mg KOH/g]
+    tan: Optional[float]  # [mg KOH/g]
+    san: Optional[float]  # [mg KOH/g]; the reporting limit when censored
+    san_censored: bool
+    oxidation: Optional[float]  # [A/cm]
+    nitration: Optional[float]  # [A/cm]
+    initial_ph: Optional[float]
+    lab: str
+    where: str
+
+def read_lab_samples(path: str) -> List[LabSample]: ...
+def parameter_keys() -> List[str]: ...
+def parameter_bound(key: str) -> str: ...  # "positive", "share" or "free"
+def get_parameter(case: EngineCase, key: str) -> float: ...  # core unit
+def with_parameter(case: EngineCase, key: str, value: float) -> EngineCase: ...
+def predict(case: EngineCase, samples: Sequence[LabSample]) -> Dict[str, Any]: ...
+def fit_residuals(case: EngineCase, samples: Sequence[LabSample], parameters: Sequence[str],
+                  phi: Sequence[float]) -> npt.NDArray[np.float64]: ...
+
+class FitResult:
+    keys: List[str]
+    estimates: List[float]  # core units
+    standard_errors: List[float]  # core units (delta method)
+    initial: List[float]
+    fit_estimates: List[float]  # log / logit space
+    covariance: List[List[float]]  # fit space
+    correlation: List[List[float]]
+    residuals: Dict[str, Any]
+    sum_of_squares: float
+    observations: int
+    degrees_of_freedom: int
+    s2: float  # reduced chi-square
+    iterations: int
+    converged: bool
+    flags: List[str]
+    fitted: EngineCase
+    def overlay_text(self, case_file: str, lab_file: str) -> str: ...
+
+def calibrate(case: EngineCase, samples: Sequence[LabSample], parameters: Sequence[str]) -> FitResult: ...
+def forecast(fit: FitResult) -> List[Dict[str, Any]]: ...
+def monte_carlo(case: EngineCase, inputs: Sequence[Tuple[str, str, float, float, float]], draws: int, seed: int,
+                threads: int = ...) -> Dict[str, Any]: ...
+def case_uncertainty(case_file: CaseFile) -> Tuple[List[Tuple[str, str, float, float, float]], int, int]: ...

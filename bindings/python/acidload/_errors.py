@@ -3,7 +3,8 @@
     Error (ValueError)      anything acidload reports
     ├── InputError          a value given is wrong: where it came from, the key path, the value, what is expected
     ├── NotModelledError    a valid request outside what the model covers (e.g. rich combustion, λ < 1)
-    └── NoAnswerError       an inverse question with no answer in the range searched
+    ├── NoAnswerError       an inverse question with no answer in the range searched
+    └── FitRefusedError     a calibration the data cannot identify, with the reason
 
 The C++ library's exceptions are translated into these by acidload._core.
 """
@@ -11,7 +12,7 @@ from __future__ import annotations
 
 from typing import Optional
 
-__all__ = ["Error", "InputError", "NotModelledError", "NoAnswerError"]
+__all__ = ["Error", "InputError", "NotModelledError", "NoAnswerError", "FitRefusedError"]
 
 
 class Error(ValueError):
@@ -54,3 +55,8 @@ class NotModelledError(Error):
 
 class NoAnswerError(Error):
     """An inverse question whose answer does not lie in the range searched (acidload::NoAnswerError)."""
+
+
+class FitRefusedError(Error):
+    """A fit the data cannot identify: too few readings, a flat or rank-deficient direction, or no
+    contaminant signal (acidload::FitRefusedError); the message says which."""

@@ -13,8 +13,10 @@
 
 #include "acidload/acidload.hpp"
 #include "acidload/io/case_file.hpp"
+#include "acidload/io/lab_file.hpp"
 #include "acidload/io/quantity.hpp"
 #include "acidload/io/results.hpp"
+#include "acidload/studies/calibration.hpp"
 #include "acidload/studies/inverse.hpp"
 
 namespace py = pybind11;
@@ -53,6 +55,8 @@ void translate(std::exception_ptr p) {
     raise("NotModelledError", e);
   } catch (const NoAnswerError& e) {
     raise("NoAnswerError", e);
+  } catch (const FitRefusedError& e) {
+    raise("FitRefusedError", e);
   } catch (const Error& e) {
     raise("Error", e);
   }
@@ -189,6 +193,47 @@ py::array_t<double> sweep_drain_interval(const EngineCase& c, const std::string&
 }
 
 }  // namespace
+
+// ---- calibration ----------------------------------------------------------------------------
+py::dict residual_arrays(const std::vector<SampleResidual>& r) {
+  const auto n = static_cast<py::ssize_t>(r.size());
+  py::array_t<long> sample(n);
+  py::array_t<double> measured(n), predicted(n), sigma(n), standardized(n);
+  py::array_t<bool> censored(n), outlier(n);
+  py::list reading;
+  for (py::ssize_t i = 0; i < n; ++i) {
+    const SampleResidual& x = r[static_cast<std::size_t>(i)];
+    sample.mutable_at(i) = static_cast<long>(x.sample);
+    measured.mutable_at(i) = x.measured;
+    predicted.mutable_at(i) = x.predicted;
+    sigma.mutable_at(i) = x.sigma;
+    standardized.mutable_at(i) = x.standardized;
+    censored.mutable_at(i) = x.censored;
+    outlier.mutable_at(i) = x.outlier;
+    reading.append(x.reading);
+  }
+  py::dict d;
+  d["sample"] = sample, d["reading"] = reading, d["measured"] = measured, d["predicted"] = predicted;
+  d["sigma"] = sigma, d["standardized"] = standardized, d["censored"] = censored, d["outlier"] = outlier;
+  return d;
+}
+
+// Standardized residuals at fit-space values phi of the named parameters: the function a fit
+// minimises, for driving from SciPy.
+py::array_t<double> fit_residuals(const EngineCase& c, const std::vector<LabSample>& samples,
+                                  const std::vector<std::string>& keys, const std::vector<double>& phi) {
+  if (keys.size() != phi.size()) throw InputError("values", std::to_string(phi.size()), "one value per parameter");
+  std::vector<SampleResidual> r;
+  {
+    py::gil_scoped_release release;
+    EngineCase x = c;
+    for (std::size_t j = 0; j < keys.size(); ++j) set_parameter(x, keys[j], from_fit_space(parameter(keys[j]).bound, phi[j]));
+    r = predict(x, samples, Precision{});
+  }
+  py::array_t<double> out(static_cast<py::ssize_t>(r.size()));
+  for (std::size_t i = 0; i < r.size(); ++i) out.mutable_at(static_cast<py::ssize_t>(i)) = r[i].standardized;
+  return out;
+}
 
 PYBIND11_MODULE(_core, m) {
   m.doc() = "acidload's C++ library, bound for Python (declarations only). Use the acidload package, "
@@ -442,4 +487,148 @@ PYBIND11_MODULE(_core, m) {
         py::arg("tolerance"),
         "The lever value in [low, high] (core unit) at which the drain interval equals target_hours [h] "
         "(TOMS 748 bracketing); an answer with found=False and a reason when the range gives none.");
+
+  // ---- calibration, forecast, Monte Carlo
+  py::class_<LabSample>(m, "LabSample", "One lab report of a used-oil sample (readings [mg KOH/g], FTIR [A/cm]).")
+      .def_readonly("charge", &LabSample::charge, "0-based charge of the record")
+      .def_readonly("oil_hours", &LabSample::oil_hours, "[h]")
+      .def_readonly("tbn", &LabSample::tbn)
+      .def_readonly("tan", &LabSample::tan)
+      .def_readonly("san", &LabSample::san)
+      .def_readonly("san_censored", &LabSample::san_censored)
+      .def_readonly("oxidation", &LabSample::oxidation)
+      .def_readonly("nitration", &LabSample::nitration)
+      .def_readonly("initial_ph", &LabSample::initial_ph)
+      .def_readonly("lab", &LabSample::lab)
+      .def_readonly("where", &LabSample::where);
+  m.def("read_lab_samples", &io::read_lab_samples, py::arg("path"), "Reads lab results from a CSV file (docs/lab-results.md).");
+  m.def("parameter_keys", []() {
+    std::vector<std::string> k;
+    for (const auto& p : parameter_table()) k.push_back(p.key);
+    return k;
+  }, "Keys of the parameters that can be fitted or varied.");
+  m.def("parameter_bound", [](const std::string& k) {
+    switch (parameter(k).bound) {
+      case Bound::positive: return std::string("positive");
+      case Bound::share: return std::string("share");
+      case Bound::free: return std::string("free");
+    }
+    return std::string();
+  }, py::arg("key"), "How a parameter is bounded: 'positive' (fitted as log), 'share' (logit) or 'free'.");
+  m.def("get_parameter", &get_parameter, py::arg("case"), py::arg("key"), "A parameter's value in a case (core unit).");
+  m.def("with_parameter", [](const EngineCase& c, const std::string& k, double v) {
+    EngineCase x = c;
+    set_parameter(x, k, v);
+    return x;
+  }, py::arg("case"), py::arg("key"), py::arg("value"), "A copy of the case with one parameter set (core unit).");
+  m.def("predict", [](const EngineCase& c, const std::vector<LabSample>& s) {
+    std::vector<SampleResidual> r;
+    {
+      py::gil_scoped_release release;
+      r = predict(c, s, Precision{});
+    }
+    return residual_arrays(r);
+  }, py::arg("case"), py::arg("samples"), "Every reading of the samples with the model's prediction and the method's sigma.");
+  m.def("fit_residuals", &fit_residuals, py::arg("case"), py::arg("samples"), py::arg("parameters"), py::arg("phi"),
+        "Standardized residuals (measured − predicted)/sigma at fit-space values phi (log or logit of each "
+        "parameter): the function calibrate minimises, for driving from SciPy.");
+  py::class_<FitResult>(m, "FitResult", "A calibration's outcome.")
+      .def_property_readonly("keys", [](const FitResult& f) {
+        std::vector<std::string> k;
+        for (const auto& p : f.parameters) k.push_back(p.key);
+        return k;
+      })
+      .def_property_readonly("estimates", [](const FitResult& f) {
+        std::vector<double> v;
+        for (const auto& p : f.parameters) v.push_back(p.estimate);
+        return v;
+      }, "in each parameter's core unit")
+      .def_property_readonly("standard_errors", [](const FitResult& f) {
+        std::vector<double> v;
+        for (const auto& p : f.parameters) v.push_back(p.standard_error);
+        return v;
+      }, "delta method, core unit")
+      .def_property_readonly("initial", [](const FitResult& f) {
+        std::vector<double> v;
+        for (const auto& p : f.parameters) v.push_back(p.initial);
+        return v;
+      })
+      .def_property_readonly("fit_estimates", [](const FitResult& f) {
+        std::vector<double> v;
+        for (const auto& p : f.parameters) v.push_back(p.fit_estimate);
+        return v;
+      }, "in fit space (log or logit)")
+      .def_readonly("covariance", &FitResult::covariance, "in fit space")
+      .def_readonly("correlation", &FitResult::correlation)
+      .def_property_readonly("residuals", [](const FitResult& f) { return residual_arrays(f.residuals); })
+      .def_readonly("sum_of_squares", &FitResult::sum_of_squares)
+      .def_readonly("observations", &FitResult::observations)
+      .def_readonly("degrees_of_freedom", &FitResult::degrees_of_freedom)
+      .def_readonly("s2", &FitResult::s2, "reduced chi-square")
+      .def_readonly("iterations", &FitResult::iterations)
+      .def_readonly("converged", &FitResult::converged)
+      .def_readonly("flags", &FitResult::flags)
+      .def_readonly("fitted", &FitResult::fitted, "the case with the estimates put in")
+      .def("overlay_text", [](const FitResult& f, const std::string& c, const std::string& l) { return io::overlay_text(f, c, l); },
+           py::arg("case_file"), py::arg("lab_file"), "The estimates as overlay text for 'acidload run --overlay'.");
+  m.def("calibrate", [](const EngineCase& c, const std::vector<LabSample>& s, const std::vector<std::string>& keys) {
+    FitSettings fs;
+    fs.parameters = keys;
+    py::gil_scoped_release release;
+    return calibrate(c, s, fs);
+  }, py::arg("case"), py::arg("samples"), py::arg("parameters"),
+        "Weighted least squares (Levenberg-Marquardt) of the named parameters to the samples.");
+  m.def("forecast", [](const FitResult& f) {
+    std::vector<LimitForecast> fc;
+    {
+      py::gil_scoped_release release;
+      fc = forecast(f);
+    }
+    py::list out;
+    for (const auto& x : fc) {
+      py::dict d;
+      d["limit"] = std::string(name(x.limit));
+      d["reached"] = x.reached, d["already"] = x.already;
+      d["remaining_h"] = x.remaining, d["low_h"] = x.low, d["high_h"] = x.high;
+      out.append(d);
+    }
+    return out;
+  }, py::arg("fit"), "Remaining hours of the current charge to each limit with a 90 % band [h].");
+  m.def("monte_carlo", [](const EngineCase& c, const std::vector<std::tuple<std::string, std::string, double, double, double>>& inputs,
+                          int draws, std::uint64_t seed, int threads) {
+    std::vector<UncertainInput> in;
+    for (const auto& [key, kind, a, b, cc] : inputs) {
+      Distribution d;
+      if (kind == "normal") d.kind = Distribution::Kind::normal;
+      else if (kind == "lognormal") d.kind = Distribution::Kind::lognormal;
+      else if (kind == "uniform") d.kind = Distribution::Kind::uniform;
+      else if (kind == "triangular") d.kind = Distribution::Kind::triangular;
+      else throw InputError("distribution", kind, "normal, lognormal, uniform or triangular");
+      d.a = a, d.b = b, d.c = cc;
+      in.push_back({key, d});
+    }
+    MonteCarloResult r;
+    {
+      py::gil_scoped_release release;
+      r = monte_carlo(c, in, draws, seed, threads);
+    }
+    py::dict d;
+    d["drain_interval_h"] = py::array_t<double>(static_cast<py::ssize_t>(r.drain_interval.size()), r.drain_interval.data());
+    d["first_san_h"] = py::array_t<double>(static_cast<py::ssize_t>(r.first_san.size()), r.first_san.data());
+    d["interval_p10_h"] = r.interval_p10, d["interval_p50_h"] = r.interval_p50, d["interval_p90_h"] = r.interval_p90;
+    d["san_p10_h"] = r.san_p10, d["san_p50_h"] = r.san_p50, d["san_p90_h"] = r.san_p90;
+    d["draws"] = r.draws;
+    return d;
+  }, py::arg("case"), py::arg("inputs"), py::arg("draws"), py::arg("seed"), py::arg("threads") = 0,
+        "Monte Carlo: inputs as (key, distribution, a, b, c) in core units (normal: mean, sd; lognormal: median, "
+        "sigma of ln; uniform: low, high; triangular: low, mode, high); identical for any thread count.");
+  m.def("case_uncertainty", [](const io::CaseFile& f) {
+    py::list out;
+    for (const auto& x : f.uncertainty.inputs) {
+      const char* kinds[] = {"normal", "lognormal", "uniform", "triangular"};
+      out.append(py::make_tuple(x.key, kinds[static_cast<int>(x.distribution.kind)], x.distribution.a, x.distribution.b,
+                                x.distribution.c));
+    }
+    return py::make_tuple(out, f.uncertainty.draws, f.uncertainty.seed);
+  }, py::arg("case_file"), "The case file's uncertainty section: (inputs, draws, seed).");
 }

@@ -1,0 +1,82 @@
+"""Calibration and Monte Carlo through the Python package, checked against SciPy and numpy:
+- the estimates and standard errors of acidload's Levenberg–Marquardt equal scipy.optimize.least_squares
+  driving the same residual function through the binding (same weights, same s², an interior optimum);
+- Monte Carlo percentiles equal numpy.percentile of the per-draw values, and 1 and 2 threads agree;
+- a fit the data cannot identify raises FitRefusedError.
+The demo history and lab file are invented data."""
+import numpy as np
+import pytest
+
+from conftest import ROOT, need, need_acidload
+
+PARAMS = ["model.liner-uptake", "model.oxidation-rate", "model.organic-acid-yield"]
+
+
+def _setup():
+    acidload = need_acidload()
+    case = acidload.load_case(str(ROOT / "cases" / "demo-site-history.yaml"))
+    lab = acidload.read_lab(ROOT / "cases" / "demo-site-lab.csv")
+    return acidload, case, lab
+
+
+def test_estimates_and_standard_errors_equal_scipy_least_squares():
+    optimize = need("scipy.optimize")
+    acidload, case, lab = _setup()
+    fit = acidload.fit(case, lab, PARAMS)
+    assert fit.converged
+    bounds = [acidload._core.parameter_bound(k) for k in PARAMS]
+    variant = case.variants[0]
+    start = []
+    for k, b in zip(PARAMS, bounds):
+        x = acidload._core.get_parameter(variant._engine_case, k)
+        start.append(np.log(x) if b == "positive" else np.log(x / (1 - x)))
+
+    def residuals(phi):
+        return acidload.fit_residuals(case, lab, PARAMS, phi)
+
+    # scipy.optimize.least_squares (trust region reflective), tight tolerances, same residuals
+    res = optimize.least_squares(residuals, np.array(start), method="trf", xtol=1e-15, ftol=1e-15, gtol=1e-15,
+                                 diff_step=1e-7, max_nfev=2000)
+    assert res.success
+    n, p = res.fun.size, len(PARAMS)
+    s2 = float(res.fun @ res.fun) / (n - p)
+    cov = s2 * np.linalg.inv(res.jac.T @ res.jac)
+    phi = res.x
+    dx = np.array([np.exp(f) if b == "positive" else np.exp(-f) / (1 + np.exp(-f)) ** 2 for f, b in zip(phi, bounds)])
+    se = dx * np.sqrt(np.diag(cov))
+    est = np.array([np.exp(f) if b == "positive" else 1 / (1 + np.exp(-f)) for f, b in zip(phi, bounds)])
+    np.testing.assert_allclose([fit.estimates[k] for k in PARAMS], est, rtol=1e-5)
+    np.testing.assert_allclose([fit.standard_errors[k] for k in PARAMS], se, rtol=1e-5)
+    assert fit.s2 == pytest.approx(s2, rel=1e-6)
+    assert 0 < min(est)  # an interior optimum: every parameter well inside its bounds
+
+
+def test_monte_carlo_percentiles_equal_numpy_and_do_not_depend_on_threads():
+    acidload, case, _ = _setup()
+    one = acidload.monte_carlo(case, draws=300, threads=1)
+    two = acidload.monte_carlo(case, draws=300, threads=2)
+    np.testing.assert_array_equal(one["drain_interval_h"], two["drain_interval_h"])
+    d = one["drain_interval_h"]
+    # numpy.percentile, default linear method, is the definition acidload states
+    assert one["interval_p10_h"] == pytest.approx(np.percentile(d, 10), rel=1e-12)
+    assert one["interval_p50_h"] == pytest.approx(np.percentile(d, 50), rel=1e-12)
+    assert one["interval_p90_h"] == pytest.approx(np.percentile(d, 90), rel=1e-12)
+
+
+def test_ill_posed_fit_is_refused_with_its_reason():
+    acidload, case, lab = _setup()
+    six = PARAMS + ["model.capture-so2", "model.so3-share", "model.nitration-yield"]
+    with pytest.raises(acidload.FitRefusedError, match="more readings than parameters"):
+        acidload.fit(case, lab[:1], six)  # one sample: five readings for six parameters
+
+
+def test_forecast_and_overlay(tmp_path):
+    acidload, case, lab = _setup()
+    fit = acidload.fit(case, lab, PARAMS)
+    fc = {f["limit"]: f for f in acidload.forecast(fit)}
+    assert fc["tbn-fall"]["low_h"] < fc["tbn-fall"]["remaining_h"] < fc["tbn-fall"]["high_h"]
+    ov = tmp_path / "fitted.yaml"
+    fit.write_overlay(ov, "cases/demo-site-history.yaml", "cases/demo-site-lab.csv")
+    again = acidload.load_case(str(ROOT / "cases" / "demo-site.yaml"), overlays=[str(ov)])
+    assert acidload._core.get_parameter(again.variants[0]._engine_case, "model.liner-uptake") == pytest.approx(
+        fit.estimates["model.liner-uptake"], rel=1e-8)
