@@ -94,6 +94,10 @@ TEST_CASE("ill-posed fits are refused with their reasons") {
     fs.parameters = {"model.liner-uptake"};
     CHECK_THROWS_WITH_AS(calibrate(clean, samples, fs), doctest::Contains("no contaminant signal"), FitRefusedError);
   }
+  SUBCASE("a starting value on the bound of a log-fitted parameter") {
+    fs.parameters = {"model.weak-base-d4739"};  // its default is 0: log(0) is no start
+    CHECK_THROWS_WITH_AS(calibrate(c, samples, fs), doctest::Contains("starting value inside"), InputError);
+  }
   SUBCASE("a sample outside its charge") {
     auto s = samples;
     s[0].oil_hours = 5000;

@@ -402,6 +402,30 @@ PYBIND11_MODULE(_core, m) {
           py::arg("state"), py::arg("constants"), py::arg("rates"), py::arg("hours"), py::arg("ledger"),
           "Advances a state over hours [h] of constant rates, exactly; returns (new state, SegmentOutcome) and "
           "adds to the ledger.");
+  oil.def("advance_record",
+          [](OilState s, const OilBalance& k, const py::array_t<double, py::array::c_style | py::array::forcecast>& table,
+             bool continuous) {
+            // one row per segment: hours, strong acid, SO2 of fresh oil, nitration, oxidation, organic acid, consumption
+            if (table.ndim() != 2 || table.shape(1) != 7)
+              throw InputError("table", "(shape)", "an n × 7 array: hours, strong_acid, sulfurous_fresh, nitration, "
+                                                   "oxidation, organic_acid, consumption");
+            const auto t = table.unchecked<2>();
+            const py::ssize_t n = t.shape(0);
+            {
+              py::gil_scoped_release release;
+              OilLedger ledger;
+              for (py::ssize_t i = 0; i < n; ++i) {
+                OilRates r;
+                r.strong_acid = t(i, 1), r.sulfurous_fresh = t(i, 2), r.nitration = t(i, 3), r.oxidation = t(i, 4);
+                r.organic_acid = t(i, 5), r.consumption = t(i, 6), r.continuous_makeup = continuous;
+                advance(s, k, r, t(i, 0), ledger);
+              }
+            }
+            return s;
+          },
+          py::arg("state"), py::arg("constants"), py::arg("table"), py::arg("continuous_makeup") = true,
+          "Advances a state through a record of segments given as an n × 7 array of rates (core units), in C++ "
+          "with the GIL released; returns the end state.");
   oil.def("steady_state", &steady_state, py::arg("state"), py::arg("constants"), py::arg("rates"),
           "The state a segment of constant rates settles to (continuous makeup).");
   oil.def("top_up", [](OilState s, const OilProperties& o, double mass, OilLedger& l) { top_up(s, o, mass, l); return s; },

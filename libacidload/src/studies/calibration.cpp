@@ -198,7 +198,13 @@ FitResult calibrate(const EngineCase& c, const std::vector<LabSample>& samples, 
     if (is_sulfur_parameter(info.key) && sulfur == 0)
       throw FitRefusedError("cannot fit " + info.key + ": no contaminant signal (the record's gas carries no sulfur)");
     pr.bounds.push_back(info.bound);
-    phi[static_cast<Eigen::Index>(j)] = to_fit_space(info.bound, get_parameter(c, info.key));
+    const double x0 = get_parameter(c, info.key);
+    if ((info.bound == Bound::positive && !(x0 > 0)) || (info.bound == Bound::share && !(x0 > 0 && x0 < 1)))
+      throw InputError(info.key, format_value(x0),
+                       std::string("a starting value inside the parameter's bounds (") +
+                           (info.bound == Bound::share ? "between 0 and 1" : "above 0") +
+                           ") — set one in the case's model section before fitting");
+    phi[static_cast<Eigen::Index>(j)] = to_fit_space(info.bound, x0);
   }
   Eigen::VectorXd r = pr.residuals(phi);
   const Eigen::Index n = r.size(), p = phi.size();
