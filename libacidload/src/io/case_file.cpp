@@ -447,24 +447,7 @@ std::vector<Node> csv_segments(Reader& r, const Node& file_node) {
   d->lines = t.text;
   const int source = static_cast<int>(r.docs.size());
   r.docs.push_back(d);
-  std::vector<std::string> names, units;
-  const auto& allowed = keys().find("segment")->second;
-  for (std::size_t c = 0; c < t.header.size(); ++c) {
-    std::string h = t.header[c], unit;
-    const auto br = h.find('[');
-    if (br != std::string::npos && h.back() == ']') {
-      unit = h.substr(br + 1, h.size() - br - 2);
-      h = h.substr(0, br);
-      while (!h.empty() && h.back() == ' ') h.pop_back();
-    }
-    if (std::find(allowed.begin(), allowed.end(), h) == allowed.end()) {
-      const std::string cl = closest(h, allowed);
-      throw d->error(Mark{t.lines.empty() ? 1 : t.lines.front() - 1, 1}, "record column", t.header[c],
-                     "a column among: " + Reader::join(allowed) + (cl.empty() ? "" : " (closest: '" + cl + "')"));
-    }
-    names.push_back(h);
-    units.push_back(unit);
-  }
+  const NamedColumns cols = named_columns(t, keys().find("segment")->second, "record column");
   std::vector<Node> out;
   for (std::size_t i = 0; i < t.rows.size(); ++i) {
     Node row;
@@ -473,16 +456,10 @@ std::vector<Node> csv_segments(Reader& r, const Node& file_node) {
     row.path = "record[" + std::to_string(i) + "]";
     row.source = source;
     for (std::size_t c = 0; c < t.header.size(); ++c) {
-      const std::string& cell = t.rows[i][c];
-      if (cell.empty()) continue;
-      Node v;
-      v.type = Node::Type::scalar;
-      const bool bare = cell.find_first_not_of("+-.0123456789eE") == std::string::npos;
-      v.scalar = bare && !units[c].empty() ? cell + " " + units[c] : cell;
-      v.mark = {t.lines[i], t.columns[i][c]};
-      v.path = row.path + "." + names[c];
+      if (t.rows[i][c].empty()) continue;
+      Node v = cell_node(t, i, c, cols.names[c], cols.units[c], "record");
       v.source = source;
-      row.entries.emplace_back(names[c], v);
+      row.entries.emplace_back(cols.names[c], v);
       row.key_marks.push_back(v.mark);
     }
     out.push_back(std::move(row));

@@ -263,4 +263,42 @@ CsvTable read_csv(const std::string& path, std::size_t max_bytes) {
   return parse_csv(text, path, max_bytes);
 }
 
+NamedColumns named_columns(const CsvTable& t, const std::vector<std::string>& allowed, const std::string& what) {
+  Document d;
+  d.file = t.file;
+  d.lines = t.text;
+  NamedColumns out;
+  for (std::size_t c = 0; c < t.header.size(); ++c) {
+    std::string h = t.header[c], unit;
+    const auto br = h.find('[');
+    if (br != std::string::npos && h.back() == ']') {
+      unit = h.substr(br + 1, h.size() - br - 2);
+      h = h.substr(0, br);
+      while (!h.empty() && h.back() == ' ') h.pop_back();
+    }
+    if (std::find(allowed.begin(), allowed.end(), h) == allowed.end()) {
+      const std::string cl = closest(h, allowed);
+      std::string all;
+      for (const auto& x : allowed) all += (all.empty() ? "" : ", ") + x;
+      throw d.error(Mark{t.lines.empty() ? 1 : t.lines.front() - 1, 1}, what, t.header[c],
+                    "a column among: " + all + (cl.empty() ? "" : " (closest: '" + cl + "')"));
+    }
+    out.names.push_back(h);
+    out.units.push_back(unit);
+  }
+  return out;
+}
+
+Node cell_node(const CsvTable& t, std::size_t row, std::size_t col, const std::string& name, const std::string& unit,
+               const std::string& path_prefix) {
+  Node n;
+  n.type = Node::Type::scalar;
+  const std::string& cell = t.rows[row][col];
+  const bool bare = !cell.empty() && cell.find_first_not_of("+-.0123456789eE") == std::string::npos;
+  n.scalar = bare && !unit.empty() ? cell + " " + unit : cell;
+  n.mark = {t.lines[row], t.columns[row][col]};
+  n.path = path_prefix + "[" + std::to_string(row) + "]." + name;
+  return n;
+}
+
 }  // namespace acidload::io

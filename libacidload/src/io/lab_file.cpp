@@ -25,25 +25,9 @@ std::vector<LabSample> read_lab_samples(const std::string& path) {
   Document d;
   d.file = t.file;
   d.lines = t.text;
-  std::vector<std::string> names, units;
-  for (std::size_t c = 0; c < t.header.size(); ++c) {
-    std::string h = t.header[c], unit;
-    const auto br = h.find('[');
-    if (br != std::string::npos && h.back() == ']') {
-      unit = h.substr(br + 1, h.size() - br - 2);
-      h = h.substr(0, br);
-      while (!h.empty() && h.back() == ' ') h.pop_back();
-    }
-    if (std::find(lab_columns.begin(), lab_columns.end(), h) == lab_columns.end()) {
-      const std::string cl = closest(h, lab_columns);
-      std::string all;
-      for (const auto& x : lab_columns) all += (all.empty() ? "" : ", ") + x;
-      throw d.error(Mark{t.lines.empty() ? 1 : t.lines.front() - 1, 1}, "lab column", t.header[c],
-                    "a column among: " + all + (cl.empty() ? "" : " (closest: '" + cl + "')"));
-    }
-    names.push_back(h);
-    units.push_back(unit);
-  }
+  const NamedColumns cols = named_columns(t, lab_columns, "lab column");
+  const std::vector<std::string>& names = cols.names;
+  const std::vector<std::string>& units = cols.units;
   const auto col = [&](const char* n) -> int {
     for (std::size_t c = 0; c < names.size(); ++c)
       if (names[c] == n) return static_cast<int>(c);
@@ -61,17 +45,11 @@ std::vector<LabSample> read_lab_samples(const std::string& path) {
   std::vector<LabSample> out;
   for (std::size_t i = 0; i < t.rows.size(); ++i) {
     const auto node = [&](int c) {
-      Node n;
-      n.type = Node::Type::scalar;
-      const std::string& cell = t.rows[i][static_cast<std::size_t>(c)];
-      const bool bare = cell.find_first_not_of("+-.0123456789eE") == std::string::npos;
-      std::string unit = units[static_cast<std::size_t>(c)];
-      if ((names[static_cast<std::size_t>(c)] == "oxidation" || names[static_cast<std::size_t>(c)] == "nitration") && unit.empty())
+      const auto k = static_cast<std::size_t>(c);
+      std::string unit = units[k];
+      if ((names[k] == "oxidation" || names[k] == "nitration") && unit.empty())
         unit = t.rows[i][static_cast<std::size_t>(col("ftir-unit"))];
-      n.scalar = bare && !unit.empty() ? cell + " " + unit : cell;
-      n.mark = {t.lines[i], t.columns[i][static_cast<std::size_t>(c)]};
-      n.path = "lab[" + std::to_string(i) + "]." + names[static_cast<std::size_t>(c)];
-      return n;
+      return cell_node(t, i, k, names[k], unit, "lab");
     };
     const auto cell = [&](const char* name) -> const std::string* {
       const int c = col(name);

@@ -6,6 +6,7 @@
 #include <vector>
 
 #include "acidload/core/error.hpp"
+#include "acidload/io/document.hpp"
 
 namespace acidload::io {
 
@@ -21,6 +22,18 @@ struct CsvTable {
   //! An InputError at a cell: file:line:col, key = the column's header, the cell's text, the expectation.
   InputError error(std::size_t row, std::size_t col, std::string expected) const;
 };
+
+//! Column names and units of a table whose headers may carry a unit in brackets ("h2s [ppmv]").
+struct NamedColumns {
+  std::vector<std::string> names;  //!< the names, without the unit
+  std::vector<std::string> units;  //!< the units, "" where the header gives none
+};
+//! Splits every header; a name not in `allowed` throws at the header line, listing the names and
+//! the closest one. `what` names the table in the message ("record column", "lab column").
+NamedColumns named_columns(const CsvTable& t, const std::vector<std::string>& allowed, const std::string& what);
+//! A cell as a scalar node (position, key path `path_prefix[row].name`); a bare number gets `unit`.
+Node cell_node(const CsvTable& t, std::size_t row, std::size_t col, const std::string& name, const std::string& unit,
+               const std::string& path_prefix);
 
 //! Reads a CSV file. Missing file, empty file, no data rows, a row with the wrong number of cells,
 //! an unterminated quote, a duplicate column name or a file over `max_bytes` throw InputError with
