@@ -53,3 +53,23 @@ def acidload_program():
     if os.environ.get("CI", "").lower() == "true":
         pytest.fail(f"the acidload program is missing (looked for {', '.join(map(str, candidates))})")
     pytest.skip("the acidload program is not built")
+
+
+# ---- the validation table: tests marked reference(...) add a row when ACIDLOAD_VALIDATION_TSV is set
+def pytest_configure(config):
+    config.addinivalue_line("markers", "reference(quantity, tolerance, unit, source): a check against a library or "
+                                       "published value, listed in the validation table")
+
+
+@pytest.hookimpl(hookwrapper=True)
+def pytest_runtest_makereport(item, call):
+    outcome = yield
+    rep = outcome.get_result()
+    mark = item.get_closest_marker("reference")
+    path = os.environ.get("ACIDLOAD_VALIDATION_TSV")
+    if mark is None or rep.when != "call" or not path:
+        return
+    k = mark.kwargs
+    with open(path, "a", encoding="utf-8") as f:
+        f.write("\t".join(["Python", k["quantity"], "every point of the test", k.get("expected", "(library values)"),
+                           k["tolerance"], k.get("unit", ""), k["source"], "pass" if rep.passed else "FAIL"]) + "\n")

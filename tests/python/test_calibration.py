@@ -19,6 +19,7 @@ def _setup():
     return acidload, case, lab
 
 
+@pytest.mark.reference(quantity="fit estimates and standard errors", tolerance="rel 1e-5", unit="core units", source="scipy.optimize.least_squares")
 def test_estimates_and_standard_errors_equal_scipy_least_squares():
     optimize = need("scipy.optimize")
     acidload, case, lab = _setup()
@@ -51,6 +52,7 @@ def test_estimates_and_standard_errors_equal_scipy_least_squares():
     assert 0 < min(est)  # an interior optimum: every parameter well inside its bounds
 
 
+@pytest.mark.reference(quantity="Monte Carlo P10/P50/P90", tolerance="rel 1e-12", unit="h", source="numpy.percentile (linear)")
 def test_monte_carlo_percentiles_equal_numpy_and_do_not_depend_on_threads():
     acidload, case, _ = _setup()
     one = acidload.monte_carlo(case, draws=300, threads=1)

@@ -57,6 +57,7 @@ def rates_pair(acidload, ref, strong, so2, continuous=True, consumption=0.2):
     return lib, ref.Rates(**values)
 
 
+@pytest.mark.reference(quantity="oil balance: floor crossing, SAN build-up and recovery", tolerance="rel 1e-7", unit="mg KOH/g", source="SciPy solve_ivp reference (tests/reference/python)")
 def test_continuous_makeup_floor_crossing_san_build_up_and_recovery():
     acidload = need_acidload()
     ref = reference()
@@ -94,6 +95,7 @@ def test_continuous_makeup_floor_crossing_san_build_up_and_recovery():
     assert san_peak > 1.0, "the run must build up free strong acid (SAN) to test that regime"
 
 
+@pytest.mark.reference(quantity="oil balance: discrete top-ups, floor, SAN", tolerance="rel 1e-7", unit="mg KOH/g", source="SciPy solve_ivp reference")
 def test_discrete_top_ups_falling_level_floor_and_san():
     acidload = need_acidload()
     ref = reference()
@@ -124,6 +126,7 @@ def test_discrete_top_ups_falling_level_floor_and_san():
     assert lib.strong_acid > 0, "free strong acid must remain between top-ups"
 
 
+@pytest.mark.reference(quantity="oil balance: free acid cleared, organic-limited floor", tolerance="rel 1e-7", unit="mg KOH/g", source="SciPy solve_ivp reference")
 def test_free_acid_cleared_into_the_organic_acid_limited_floor():
     acidload = need_acidload()
     ref = reference()
@@ -145,6 +148,7 @@ def test_free_acid_cleared_into_the_organic_acid_limited_floor():
     assert_states_close(lib, res.state, "after 12000 h")
 
 
+@pytest.mark.reference(quantity="demo trajectory point by point", tolerance="rel 1e-7", unit="mg KOH/g", source="SciPy solve_ivp reference")
 def test_demo_case_trajectory_with_floor_crossing_and_san():
     """The demo case's 'raw gas' variant (invented data) from the Python run, point by point against the
     reference integrated with the variant's own rates (the rates are the input here: the check is of

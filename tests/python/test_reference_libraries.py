@@ -17,6 +17,7 @@ from conftest import need, need_acidload
 
 # ---- iapws: IAPWS-IF97 region 4 ------------------------------------------------------------------
 
+@pytest.mark.reference(quantity="p_sat and T_sat, 0-200 degC every 1 K", tolerance="rel 1e-12", unit="Pa, K", source="iapws (IAPWS-IF97)")
 def test_water_saturation_0_to_200_degc_against_iapws():
     acidload = need_acidload()
     iapws97 = need("iapws.iapws97")
@@ -50,6 +51,7 @@ FORMULAS = ["H2S", "SO2", "SO3", "H2SO4", "HCl", "HF", "HNO3", "KOH", "CH4", "CO
             "CH3SH", "C2H6", "C3H8", "C2Cl4", "C2HCl3", "C2H3Cl", "CH2Cl2", "C6H5Cl", "CCl2F2", "CCl3F", "CHClF2"]
 
 
+@pytest.mark.reference(quantity="molar masses of 26 formulas", tolerance="IUPAC 2011 interval widths", unit="g/mol", source="periodictable")
 def test_formula_masses_against_periodictable():
     acidload = need_acidload()
     periodictable = need("periodictable")
@@ -87,6 +89,7 @@ def _pint():
     return pint.UnitRegistry()
 
 
+@pytest.mark.reference(quantity="case-file units to core units", tolerance="rel 1e-10", unit="-", source="pint")
 def test_case_file_units_against_pint():
     acidload = need_acidload()
     u = _pint()
@@ -120,6 +123,7 @@ def test_case_file_units_against_pint():
         assert got == pytest.approx(want, rel=REL_R), f"{text!r} as {kind}: acidload {got}, pint {want} {unit}"
 
 
+@pytest.mark.reference(quantity="ppmv, mg/Nm3, mg/MJ, mg/Nm3 CH4, mol/h conversions", tolerance="rel 1e-10", unit="-", source="pint")
 def test_concentration_conversions_against_pint():
     acidload = need_acidload()
     u = _pint()
@@ -180,6 +184,7 @@ def _cantera_species():
     return ct, species
 
 
+@pytest.mark.reference(quantity="Kp of SO2 + 1/2 O2 = SO3, 500-2000 K", tolerance="rel 1.5e-2", unit="bar^-1/2", source="Cantera nasa_gas.yaml (JANAF 1965 SO3)")
 def test_so3_kp_against_cantera_nasa_polynomials():
     acidload = need_acidload()
     ct, sp = _cantera_species()
@@ -198,6 +203,7 @@ def test_so3_kp_against_cantera_nasa_polynomials():
     assert acidload.so3.kp(1000.0) == pytest.approx(1.8, rel=0.02)
 
 
+@pytest.mark.reference(quantity="equilibrium SO3 share", tolerance="rel 1.5e-2 (1 - share)", unit="-", source="Cantera equilibrate")
 def test_so3_equilibrium_share_against_cantera_equilibrate():
     acidload = need_acidload()
     ct, sp = _cantera_species()

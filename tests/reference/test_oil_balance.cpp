@@ -1,7 +1,7 @@
 // The oil balance against an independent integration of the same equations (Boost.Odeint,
 // Dormand–Prince 5(4) with dense output, tolerances 1e-13), written here in absolute amounts
 // (g KOH, A/cm·kg) rather than the library's concentrations, with its own event handling.
-#include <doctest/doctest.h>
+#include "../support/reference_check.hpp"
 
 #include <array>
 #include <boost/numeric/odeint.hpp>
@@ -120,6 +120,8 @@ Vec amounts(const OilState& s) {
           s.oxidation * s.mass, s.nitration * s.mass, s.additive_acidity * s.mass};
 }
 
+double worst_seen = 0;  // the largest scaled deviation of any check_close, for the validation table
+
 void check_close(const OilState& lib, const Vec& ref, double rel) {
   const Vec a = amounts(lib);
   const char* names[] = {"mass", "base", "strong acid", "weak acid", "salts", "oxidation", "nitration", "additive"};
@@ -129,6 +131,7 @@ void check_close(const OilState& lib, const Vec& ref, double rel) {
                              ", reference " + std::to_string(ref[i] / ref[0]) + " (per kg of oil)";
     INFO(what);
     CHECK(std::fabs(a[i] - ref[i]) <= rel * std::fmax(scale, 1e-300));
+    worst_seen = std::fmax(worst_seen, std::fabs(a[i] - ref[i]) / std::fmax(scale, 1e-300));
   }
 }
 
@@ -187,6 +190,7 @@ void check_ledgers(const OilState& start, const OilState& end, const OilLedger& 
 }  // namespace
 
 TEST_CASE("continuous makeup: floor crossing, SAN build-up, recovery, oil change — vs Odeint") {
+  worst_seen = 0;
   const OilProperties oil = test_oil();
   const OilBalance k = balance_constants(oil);
   OilState s = fresh_oil(oil, 528);
@@ -220,9 +224,12 @@ TEST_CASE("continuous makeup: floor crossing, SAN build-up, recovery, oil change
   integrate(Reference{k, rates(4.0, 0.5)}, x, 900);
   check_close(s, x, 1e-7);
   check_ledgers(before_change, s, l2);
+  REFERENCE_CHECK("oil balance, continuous makeup, floor, SAN, recovery, oil change (worst scaled deviation)", worst_seen,
+                  0.0, absolute, 1e-7, "rel", "Boost.Odeint Dormand-Prince, tol 1e-13, amounts form");
 }
 
 TEST_CASE("discrete top-ups: falling level, floor crossing and SAN between top-ups — vs Odeint") {
+  worst_seen = 0;
   const OilProperties oil = test_oil();
   const OilBalance k = balance_constants(oil);
   OilState s = fresh_oil(oil, 528);
@@ -247,6 +254,10 @@ TEST_CASE("discrete top-ups: falling level, floor crossing and SAN between top-u
   CHECK(s.strong_acid > 0);
   CHECK(std::fabs(lib_crossing - ref_crossing) <= 1e-7 * ref_crossing);
   check_ledgers(start, s, ledger);
+  REFERENCE_CHECK("oil balance, discrete top-ups, floor, SAN (worst scaled deviation)", worst_seen, 0.0, absolute, 1e-7,
+                  "rel", "Boost.Odeint Dormand-Prince, tol 1e-13, amounts form");
+  REFERENCE_CHECK("floor crossing time, top-ups", lib_crossing, ref_crossing, relative, 1e-7, "h",
+                  "bisection on the Odeint dense output");
 }
 
 TEST_CASE("one 1000 h segment equals 1000 one-hour segments to 1e-10") {
@@ -338,6 +349,7 @@ TEST_CASE("numerical helpers of the closed forms") {
 }
 
 TEST_CASE("free acid cleared into the organic-acid-limited floor — vs Odeint") {
+  worst_seen = 0;
   const OilProperties oil = test_oil();
   const OilBalance k = balance_constants(oil);
   OilState s = steady_state(fresh_oil(oil, 528), k, rates(4.0, 0.5));  // at the floor, SAN > 0
@@ -356,4 +368,6 @@ TEST_CASE("free acid cleared into the organic-acid-limited floor — vs Odeint")
   CHECK(s.strong_acid == 0);
   check_close(s, x, 1e-7);
   check_ledgers(start, s, ledger);
+  REFERENCE_CHECK("oil balance, free acid cleared to the organic-limited floor (worst scaled deviation)", worst_seen, 0.0,
+                  absolute, 1e-7, "rel", "Boost.Odeint Dormand-Prince, tol 1e-13, amounts form");
 }
