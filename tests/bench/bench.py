@@ -72,7 +72,7 @@ def part1(bench_program):
             s = ref.integrate(rates, kr, s, row[0], rtol=1e-9, method="LSODA").state
         return s
 
-    t_ref, ref_end = median_time(scipy_year, runs=3)
+    t_ref, ref_end = median_time(scipy_year)
     worst = 0.0
     for f in ("base", "strong_acid", "weak_acid", "salts", "oxidation", "nitration", "additive_acidity"):
         a, b = getattr(end, f), getattr(ref_end, f)
@@ -80,7 +80,7 @@ def part1(bench_program):
     n = len(table)
     print(f"1. one-year hourly record, {n} segments: the oil balance")
     print(f"   acidload exact segments    {t_acid / n * 1e6:10.3f} us/segment")
-    print(f"   SciPy reference (LSODA)    {t_ref / n * 1e6:10.1f} us/segment   (median of 3 runs)")
+    print(f"   SciPy reference (LSODA)    {t_ref / n * 1e6:10.1f} us/segment")
     print(f"   ratio SciPy / acidload     {t_ref / t_acid:10.0f}   (target >= 1000)   end states agree to {worst:.1e}"
           f"   (target 1e-7)")
     print()
@@ -161,12 +161,12 @@ def part3():
     forward = np.max(np.abs(model_readings(phi_truth) - truth_predicted) / sig)
     phi0 = [np.log(k_ox0), np.log(alpha0), np.log(0.2 / 0.8)]  # acidload's defaults, as its fit starts
     t_scipy, res = median_time(lambda: least_squares(lambda p: (measured - model_readings(p)) / sig, phi0,
-                                                     xtol=1e-10, ftol=1e-10), runs=3)
+                                                     xtol=1e-10, ftol=1e-10))
     est = [np.exp(res.x[0]), np.exp(res.x[1]), 1 / (1 + np.exp(-res.x[2]))]
     agree = max(abs(a - b) / abs(b) for a, b in zip([fit.estimates[p] for p in params], est))
     print("3. three-parameter calibration, 30 samples over 5 charges (invented data)")
     print(f"   acidload.fit               {t_acid * 1e3:10.2f} ms")
-    print(f"   SciPy least_squares + ref  {t_scipy * 1e3:10.0f} ms   (median of 3 runs)")
+    print(f"   SciPy least_squares + ref  {t_scipy * 1e3:10.0f} ms")
     print(f"   ratio SciPy / acidload     {t_scipy / t_acid:10.0f}   (target >= 100)   estimates agree to {agree:.1e}")
     print(f"   (the two forward models agree to {forward:.1e} sigma at the true parameters)")
     print()

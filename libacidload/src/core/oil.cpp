@@ -132,6 +132,22 @@ struct Solution {
   double y, integral;
 };
 
+// φ2(x) = (x − 1 + e^{−x})/x² = E[0, −x]: series where the direct form would cancel.
+double phi2(double x) {
+  if (std::fabs(x) < 0.1) {  // Σ (−x)^k / (k + 2)!, to x^10 (error < 1e-18 at |x| = 0.1)
+    double term = 0.5, sum = 0.5;
+    for (int k = 1; k <= 10; ++k) {
+      term *= -x / (k + 2);
+      sum += term;
+    }
+    return sum;
+  }
+  return (x - 1 + std::exp(-x)) / (x * x);
+}
+
+// y(t) alone, where the integral is not needed (the crossing search).
+double value(const Linear& e, double y0, const Mass& m, double t);
+
 Solution solve(const Linear& e, double y0, const Mass& m, double t) {
   if (t == 0) return {y0, 0};
   if (m.c == 0 || (e.a0 == 0 && e.a1 == 0 && e.l1 == 0)) {
@@ -139,7 +155,7 @@ Solution solve(const Linear& e, double y0, const Mass& m, double t) {
     const double A = m.c == 0 ? e.a0 + e.a1 / m.m0 : e.a0;
     const double L = m.c == 0 ? e.l0 + e.l1 / m.m0 : e.l0;
     const double slope = A - L * y0;
-    return {y0 + slope * t * expm1_over_x(-L * t), y0 * t + slope * t * t * divided_expm1_over_x(0, -L * t)};
+    return {y0 + slope * t * expm1_over_x(-L * t), y0 * t + slope * t * t * phi2(L * t)};
   }
   // falling mass, l0 = 0 (no makeup): with m = M/M0, L = ln m, g = l1/c, T_M = M0/c,
   // y = y0 m^g + a0 T_M (m^g − m)/(1 − g) + (a1/c)(1 − m^g)/g, in stable divided-difference form.
@@ -156,9 +172,17 @@ Solution solve(const Linear& e, double y0, const Mass& m, double t) {
   return {y, TM * (y0 * h - A1 * h_g1 - A2 * h_g0)};
 }
 
+double value(const Linear& e, double y0, const Mass& m, double t) {
+  if (m.c == 0) {
+    const double A = e.a0 + e.a1 / m.m0, L = e.l0 + e.l1 / m.m0;
+    return y0 + (A - L * y0) * t * expm1_over_x(-L * t);
+  }
+  return solve(e, y0, m, t).y;
+}
+
 // Time in (0, t_max] at which y reaches `target`, or −1. y is monotone within a regime.
 double crossing(const Linear& e, double y0, const Mass& m, double target, double t_max) {
-  const double y_end = solve(e, y0, m, t_max).y;
+  const double y_end = value(e, y0, m, t_max);
   if ((y0 - target) * (y_end - target) > 0 || y0 == target) return -1;
   if (m.c == 0) {
     // y∞ + (y0 − y∞) e^{−Λt} = target  ⇒  t = −log1p(−u)/Λ = (target − y0)/(A − Λ y0) · (−log1p(−u)/u),
@@ -175,7 +199,7 @@ double crossing(const Linear& e, double y0, const Mass& m, double target, double
   for (int it = 0; it < 200 && hi - lo > 1e-14 * t_max; ++it) {
     double t = (lo * fhi - hi * flo) / (fhi - flo);
     if (!(t > lo && t < hi)) t = 0.5 * (lo + hi);
-    const double f = solve(e, y0, m, t).y - target;
+    const double f = value(e, y0, m, t) - target;
     if (f == 0) return t;
     if ((f > 0) == (fhi > 0)) {
       hi = t, fhi = f;
@@ -254,7 +278,7 @@ void advance_piece(OilState& s, Regime g, const Context& c, const Equations& e, 
   const auto b = e.base_fixed ? Solution{s.base, s.base * t} : solve(e.base, s.base, c.mass, t);
   const auto sa = e.strong_fixed ? Solution{s.strong_acid, s.strong_acid * t} : solve(e.strong, s.strong_acid, c.mass, t);
   const auto w = solve(e.weak, s.weak_acid, c.mass, t);
-  const auto u = solve(e.base_plus_salts, s.base + s.salts, c.mass, t);
+  const double u = value(e.base_plus_salts, s.base + s.salts, c.mass, t);
   const double R = c.r.strong_acid, IM = c.mass.integral(t), cons = c.r.consumption;
   const double so2 = g == Regime::above_floor ? c.so2_coeff * (b.integral - c.k.base_floor * t) : 0;
   if (c.r.continuous_makeup) ledger.base_added += cons * c.k.fresh_base * t;
@@ -268,10 +292,10 @@ void advance_piece(OilState& s, Regime g, const Context& c, const Equations& e, 
   s.base = b.y;
   s.strong_acid = sa.y;
   s.weak_acid = w.y;
-  s.salts = u.y - b.y;
-  s.oxidation = solve(e.oxidation, s.oxidation, c.mass, t).y;
-  s.nitration = solve(e.nitration, s.nitration, c.mass, t).y;
-  s.additive_acidity = solve(e.additive, s.additive_acidity, c.mass, t).y;
+  s.salts = u - b.y;
+  s.oxidation = value(e.oxidation, s.oxidation, c.mass, t);
+  s.nitration = value(e.nitration, s.nitration, c.mass, t);
+  s.additive_acidity = value(e.additive, s.additive_acidity, c.mass, t);
 }
 }  // namespace
 

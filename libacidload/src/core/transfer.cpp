@@ -51,11 +51,17 @@ double AcidInflow::strong_koh() const {
   return eq * koh_molar_mass() * 1e3;                     // [g KOH/h]
 }
 
-AcidInflow::Koh AcidInflow::as_koh() const {
+AcidInflow::PerAcid AcidInflow::as_koh() const {
   const double g = koh_molar_mass() * 1e3;  // [g KOH/mol]
   return {koh_equivalents(Acid::H2SO4) * (sulfuric_liner + sulfuric_blowby) * g, sulfurous_fresh_koh(),
           koh_equivalents(Acid::HCl) * hydrochloric * g, koh_equivalents(Acid::HF) * hydrofluoric * g,
           koh_equivalents(Acid::HNO3) * nitric * g};
+}
+
+AcidInflow::PerAcid AcidInflow::as_mass() const {
+  return {(sulfuric_liner + sulfuric_blowby) * molar_mass(Acid::H2SO4) * 1e3, sulfurous_fresh * molar_mass(Gas::SO2) * 1e3,
+          hydrochloric * molar_mass(Acid::HCl) * 1e3, hydrofluoric * molar_mass(Acid::HF) * 1e3,
+          nitric * molar_mass(Acid::HNO3) * 1e3};  // mol/h × kg/mol × 1000 g/kg
 }
 
 double AcidInflow::sulfurous_fresh_koh() const {

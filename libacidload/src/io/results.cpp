@@ -55,6 +55,10 @@ std::string summary_json(const CaseFile& c, const std::vector<VariantSummary>& r
       << ", \"sulfurous-fresh-oil\": " << num(v.inflow_koh.sulfurous_fresh)
       << ", \"hydrochloric\": " << num(v.inflow_koh.hydrochloric) << ", \"hydrofluoric\": " << num(v.inflow_koh.hydrofluoric)
       << ", \"nitric\": " << num(v.inflow_koh.nitric) << "},\n";
+    const AcidInflow::PerAcid g = v.inflow.as_mass();
+    j << "      \"acid-inflow-g-per-h\": {\"sulfuric\": " << num(g.sulfuric) << ", \"sulfurous-fresh-oil\": "
+      << num(g.sulfurous_fresh) << ", \"hydrochloric\": " << num(g.hydrochloric) << ", \"hydrofluoric\": "
+      << num(g.hydrofluoric) << ", \"nitric\": " << num(g.nitric) << "},\n";
     j << "      \"acid-inflow-mol-per-h\": {\"sulfuric-liner\": " << num(v.inflow.sulfuric_liner)
       << ", \"sulfuric-blow-by\": " << num(v.inflow.sulfuric_blowby)
       << ", \"sulfurous-fresh-oil\": " << num(v.inflow.sulfurous_fresh) << ", \"hydrochloric\": " << num(v.inflow.hydrochloric)

@@ -58,11 +58,14 @@ struct AcidInflow {
   double hydrofluoric = 0;        //!< HF [mol/h]
   double nitric = 0;              //!< NO2 taken up, as HNO3 [mol/h]
   double strong_koh() const;      //!< everything but SO2, as KOH [g KOH/h]: R_strong of MODEL §8
-  //! Each acid as the KOH it neutralises [g KOH/h]: H2SO4 (liner + blow-by SO3), SO2 at fresh oil, HCl, HF, HNO3.
-  struct Koh {
+  //! A figure per acid: H2SO4 (liner + blow-by SO3), SO2 at fresh oil, HCl, HF, HNO3.
+  struct PerAcid {
     double sulfuric = 0, sulfurous_fresh = 0, hydrochloric = 0, hydrofluoric = 0, nitric = 0;
   };
-  Koh as_koh() const;
+  //! Each acid as the KOH it neutralises [g KOH/h].
+  PerAcid as_koh() const;
+  //! Each acid as its own mass reaching the oil [g/h]: H2SO4, SO2 at fresh oil, HCl, HF, HNO3.
+  PerAcid as_mass() const;
   double sulfurous_fresh_koh() const;  //!< SO2 uptake by fresh oil, 2 equivalents per S [g KOH/h]
 };
 

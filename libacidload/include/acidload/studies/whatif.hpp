@@ -24,7 +24,7 @@ struct EngineCase {
 struct VariantSummary {
   std::string name;
   AcidInflow inflow;             //!< first segment [mol/h]
-  AcidInflow::Koh inflow_koh;    //!< first segment, as KOH [g KOH/h]
+  AcidInflow::PerAcid inflow_koh;    //!< first segment, as KOH [g KOH/h]
   double sulfur_share_to_oil = 0;      //!< share of fuel S reaching fresh oil [-]
   double initial_tbn_rate = 0;         //!< d(TBN)/dt of the fresh charge [mg KOH/g per h]
   ChargeSummary charge;                //!< the first charge: limits and drain interval
