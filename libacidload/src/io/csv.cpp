@@ -11,6 +11,8 @@
 // Columns are 1-based and counted in characters (UTF-8 code points).
 #include "acidload/io/csv.hpp"
 
+#include "text.hpp"
+
 #include <algorithm>
 #include <fstream>
 #include <string_view>
@@ -32,27 +34,6 @@ std::string trim(std::string_view s) {
   while (!s.empty() && is_space(s.front())) s.remove_prefix(1);
   while (!s.empty() && is_space(s.back())) s.remove_suffix(1);
   return std::string(s);
-}
-
-std::vector<std::string> split_lines(std::string_view text) {
-  std::vector<std::string> lines;
-  std::size_t start = 0;
-  while (start < text.size()) {
-    std::size_t end = text.find('\n', start);
-    if (end == std::string_view::npos) end = text.size();
-    std::string_view line = text.substr(start, end - start);
-    if (!line.empty() && line.back() == '\r') line.remove_suffix(1);
-    lines.emplace_back(line);
-    start = end + 1;
-  }
-  return lines;
-}
-
-std::string display(const std::vector<std::string>& text, int line) {
-  if (line < 1 || static_cast<std::size_t>(line) > text.size()) return {};
-  std::string s = text[static_cast<std::size_t>(line - 1)];
-  std::replace(s.begin(), s.end(), '\t', ' ');
-  return s;
 }
 
 class Parser {
@@ -86,7 +67,7 @@ class Parser {
 
   InputError error(int line, int col, std::string key, std::string value, std::string expected) const {
     return InputError(std::move(key), std::move(value), std::move(expected),
-                      InputWhere{t_.file, line, col, display(t_.text, line)});
+                      InputWhere{t_.file, line, col, detail::display_line(t_.text, line)});
   }
   InputError error_here(std::size_t p, std::string key, std::string value, std::string expected) const {
     return error(line_, column(p), std::move(key), std::move(value), std::move(expected));
@@ -224,7 +205,7 @@ InputError CsvTable::error(std::size_t row, std::size_t col, std::string expecte
   const std::string value = col < rows[row].size() ? rows[row][col] : "";
   const int line = lines[row];
   const int c = row < columns.size() && col < columns[row].size() ? columns[row][col] : 0;
-  return InputError(key, value, std::move(expected), InputWhere{file, line, c, display(text, line)});
+  return InputError(key, value, std::move(expected), InputWhere{file, line, c, detail::display_line(text, line)});
 }
 
 CsvTable parse_csv(const std::string& text, const std::string& file_name, std::size_t max_bytes) {
@@ -235,7 +216,7 @@ CsvTable parse_csv(const std::string& text, const std::string& file_name, std::s
                      "a file of at most " + std::to_string(max_bytes) + " bytes", file_only(file_name));
   std::string_view s(text);
   if (s.size() >= 3 && s.substr(0, 3) == "\xEF\xBB\xBF") s.remove_prefix(3);  // UTF-8 byte-order mark
-  t.text = split_lines(s);
+  t.text = detail::split_lines(s);
   if (const std::size_t nul = s.find('\0'); nul != std::string_view::npos) {
     const int line = static_cast<int>(std::count(s.begin(), s.begin() + static_cast<long>(nul), '\n')) + 1;
     std::size_t start = nul;

@@ -16,6 +16,8 @@
 // whether that is an error.
 #include "acidload/io/document.hpp"
 
+#include "text.hpp"
+
 #include <yaml-cpp/eventhandler.h>
 #include <yaml-cpp/exceptions.h>
 #include <yaml-cpp/mark.h>
@@ -31,6 +33,9 @@
 namespace acidload::io {
 
 namespace {
+using detail::describe;
+using detail::display_line;
+using detail::split_lines;
 
 InputWhere file_only(const std::string& file) {
   InputWhere w;
@@ -48,29 +53,6 @@ int code_points(std::string_view s) {
   for (unsigned char c : s)
     if ((c & 0xC0) != 0x80) ++n;
   return n;
-}
-
-std::vector<std::string> split_lines(std::string_view text) {
-  std::vector<std::string> lines;
-  std::size_t start = 0;
-  while (start < text.size()) {
-    std::size_t end = text.find('\n', start);
-    if (end == std::string_view::npos) end = text.size();
-    std::string_view line = text.substr(start, end - start);
-    if (!line.empty() && line.back() == '\r') line.remove_suffix(1);
-    lines.emplace_back(line);
-    start = end + 1;
-  }
-  return lines;
-}
-
-// The line as shown above a caret: tabs become single spaces so that the caret, placed by
-// character column, stands under the right character.
-std::string display_line(const std::vector<std::string>& lines, int line) {
-  if (line < 1 || static_cast<std::size_t>(line) > lines.size()) return {};
-  std::string s = lines[static_cast<std::size_t>(line - 1)];
-  std::replace(s.begin(), s.end(), '\t', ' ');
-  return s;
 }
 
 // A 1-based line and byte column → 1-based character column.
@@ -420,15 +402,6 @@ class TreeBuilder : public YAML::EventHandler {
   static constexpr std::size_t max_path = 512;
 };
 
-std::string describe(const Node& n) {
-  switch (n.type) {
-    case Node::Type::null: return "";
-    case Node::Type::scalar: return n.scalar;
-    case Node::Type::sequence: return "(a list)";
-    case Node::Type::map: return "(a map)";
-  }
-  return "";
-}
 
 std::string to_lower(std::string_view s) {
   std::string r(s);

@@ -11,6 +11,8 @@
 // a negative concentration are refused here.
 #include "acidload/io/quantity.hpp"
 
+#include "text.hpp"
+
 #include <charconv>
 #include <cmath>
 #include <system_error>
@@ -198,15 +200,6 @@ bool split_value(std::string_view text, std::string_view& number_text, std::stri
   return true;
 }
 
-std::string node_text(const Node& n) {
-  switch (n.type) {
-    case Node::Type::null: return "";
-    case Node::Type::scalar: return n.scalar;
-    case Node::Type::sequence: return "(a list)";
-    case Node::Type::map: return "(a map)";
-  }
-  return "";
-}
 
 std::string not_scalar(const Node& n) {
   switch (n.type) {
@@ -271,7 +264,7 @@ bool parse_quantity_text(std::string_view text, Kind k, double& out, std::string
 }
 
 double quantity(const Document& doc, const Node& node, Kind k) {
-  if (node.type != Node::Type::scalar) throw doc.error(node, node_text(node), with_problem(k, not_scalar(node)));
+  if (node.type != Node::Type::scalar) throw doc.error(node, detail::describe(node), with_problem(k, not_scalar(node)));
   double v = 0;
   std::string why;
   if (!parse_quantity_text(node.scalar, k, v, why)) throw doc.error(node, node.scalar, why);
@@ -296,7 +289,7 @@ Concentration concentration(const Document& doc, const Node& node, Basis default
       "a concentration with one of the units: ppmv, ppm, mg/Nm3, mg/m3, mg/MJ, mg/Nm3 CH4, mol/h, "
       "then optionally dry or wet";
   const auto fail = [&](const std::string& problem) {
-    return doc.error(node, node_text(node), problem.empty() ? expected : expected + " (" + problem + ")");
+    return doc.error(node, detail::describe(node), problem.empty() ? expected : expected + " (" + problem + ")");
   };
   if (node.type != Node::Type::scalar) throw fail(not_scalar(node));
 

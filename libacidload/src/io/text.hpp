@@ -1,0 +1,47 @@
+#pragma once
+// Text helpers shared by the io readers (internal to acidload::io; not installed).
+#include <algorithm>
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "acidload/io/document.hpp"
+
+namespace acidload::io::detail {
+
+//! Splits text into lines without their line ends (LF or CR LF).
+inline std::vector<std::string> split_lines(std::string_view text) {
+  std::vector<std::string> lines;
+  std::size_t start = 0;
+  while (start < text.size()) {
+    std::size_t end = text.find('\n', start);
+    if (end == std::string_view::npos) end = text.size();
+    std::string_view line = text.substr(start, end - start);
+    if (!line.empty() && line.back() == '\r') line.remove_suffix(1);
+    lines.emplace_back(line);
+    start = end + 1;
+  }
+  return lines;
+}
+
+//! The 1-based line as shown above a caret: tabs become single spaces so that the caret, placed by
+//! character column, stands under the right character; "" outside the text.
+inline std::string display_line(const std::vector<std::string>& lines, int line) {
+  if (line < 1 || static_cast<std::size_t>(line) > lines.size()) return {};
+  std::string s = lines[static_cast<std::size_t>(line - 1)];
+  std::replace(s.begin(), s.end(), '\t', ' ');
+  return s;
+}
+
+//! A node as an error message shows its value: the scalar's text, or what kind of node it is.
+inline std::string describe(const Node& n) {
+  switch (n.type) {
+    case Node::Type::null: return "";
+    case Node::Type::scalar: return n.scalar;
+    case Node::Type::sequence: return "(a list)";
+    case Node::Type::map: return "(a map)";
+  }
+  return "";
+}
+
+}  // namespace acidload::io::detail
