@@ -82,20 +82,23 @@ const char* demo_help =
     "landfill, engine 2 — invented data).\n";
 
 const char* fit_help =
-    "usage: acidload fit CASE --lab FILE --parameters KEY[,KEY…] [--write-overlay FILE] [--overlay FILE]...\n\n"
+    "usage: acidload fit CASE --lab FILE [--parameters KEY[,KEY…]] [--write-overlay FILE] [--overlay FILE]...\n\n"
     "Fits the named parameters of CASE (keys as in the case file, e.g. model.liner-uptake,\n"
-    "model.capture-so2, model.oxidation-rate) to the lab results in FILE (CSV; columns in\n"
-    "docs/lab-results.md) by weighted least squares (Levenberg-Marquardt, weights from each method's\n"
-    "precision, bounded parameters in log/logit space). Prints estimates with standard errors, their\n"
-    "correlations, the residual of every reading, the reduced chi-square and flags for outliers and\n"
-    "lab changes. A fit the data cannot identify is refused with the reason (exit code 3).\n"
+    "model.capture-so2, model.oxidation-rate; without --parameters a set matched to what the lab\n"
+    "reports, explained in the output) to the lab results in FILE (CSV; columns in\n"
+    "docs/lab-results.md) by weighted least squares with a weak prior per parameter (Levenberg-Marquardt,\n"
+    "weights from each reading's precision, parameters kept inside their ranges). Prints estimates with\n"
+    "standard errors, their correlations, the residual of every reading, the reduced chi-square and\n"
+    "flags for outliers, lab changes and parameters held at their prior (the samples do not respond).\n"
     "  --write-overlay FILE  write the estimates as an overlay for 'acidload run CASE --overlay FILE'\n";
 
 const char* forecast_help =
-    "usage: acidload forecast CASE --lab FILE --parameters KEY[,KEY…] [--overlay FILE]...\n\n"
-    "Fits as 'acidload fit' does, then runs the current (last) charge of CASE's record on under its last\n"
-    "segment and prints the remaining hours to each limit, with a 90 %% band from the parameter\n"
-    "covariance. Confirm with a lab sample before acting on it.\n";
+    "usage: acidload forecast CASE --lab FILE [--parameters KEY[,KEY…]] [--overlay FILE]...\n\n"
+    "Fits as 'acidload fit' does, moves the model state toward the latest sample of the current charge\n"
+    "(a Kalman-type update with the readings' precision), flags every limit that sample has already\n"
+    "passed ('change the oil now'; SAN and i-pH included), then runs the charge on under the record's\n"
+    "last segment: the remaining hours to each limit with a 90 %% band from the parameter covariance,\n"
+    "and when the next sample is due. Confirm with a lab sample before acting on it.\n";
 
 const char* uncertainty_help =
     "usage: acidload uncertainty CASE [--draws N] [--seed N] [--threads N] [--variant NAME]\n\n"
@@ -249,7 +252,6 @@ acidload::FitResult fit_case(const Args& a, acidload::io::CaseFile& file, const 
   using namespace acidload;
   if (a.case_file.empty()) throw UsageError(a.command + " needs a case file");
   if (a.lab.empty()) throw UsageError(a.command + " needs --lab FILE with the lab results");
-  if (a.parameters.empty()) throw UsageError(a.command + " needs --parameters, e.g. model.liner-uptake,model.oxidation-rate");
   file = io::load_case(a.case_file, a.overlays);
   c = &pick_variant(file, a.variant);
   FitSettings fs;
@@ -282,7 +284,7 @@ int forecast(const Args& a) {
   acidload::io::CaseFile file;
   const acidload::EngineCase* c = nullptr;
   const acidload::FitResult f = fit_case(a, file, c);
-  acidload_cli::print_forecast(stdout, f, acidload::forecast(f));
+  acidload_cli::print_forecast(stdout, f, acidload::forecast_current(f));
   acidload_cli::print_caution(stdout);
   return exit_ok;
 }

@@ -133,10 +133,12 @@ void print_fit(std::FILE* out, const EngineCase& c, const FitResult& f) {
                f.parameters.size(), f.iterations, f.converged ? "converged" : "NOT converged (use the figures with care)");
   std::fprintf(out, "reduced chi-square %.3f on %d degrees of freedom (about 1 when the lab precisions are right)\n\n",
                f.s2, f.degrees_of_freedom);
+  for (const std::string& n : f.notes) std::fprintf(out, "%s%s\n", n.back() == ':' ? "" : "  - ", n.c_str());
+  if (!f.notes.empty()) std::fprintf(out, "\n");
   std::fprintf(out, "  %-34s %14s %14s %14s  %s\n", "parameter", "start", "estimate", "std. error", "unit");
   for (const FittedParameter& p : f.parameters)
-    std::fprintf(out, "  %-34s %14.6g %14.6g %14.6g  %s\n", p.key.c_str(), p.initial, p.estimate, p.standard_error,
-                 parameter(p.key).unit.c_str());
+    std::fprintf(out, "  %-34s %14.6g %14.6g %14.6g  %s%s\n", p.key.c_str(), p.initial, p.estimate, p.standard_error,
+                 parameter(p.key).unit.c_str(), p.held ? "  (held at its prior)" : "");
   if (f.parameters.size() > 1) {
     std::fprintf(out, "\ncorrelation of the estimates:\n");
     for (std::size_t i = 0; i < f.parameters.size(); ++i) {
@@ -154,17 +156,68 @@ void print_fit(std::FILE* out, const EngineCase& c, const FitResult& f) {
     std::fprintf(out, "\nflags:\n");
     for (const std::string& fl : f.flags) std::fprintf(out, "  - %s\n", fl.c_str());
   }
+  for (const std::string& w : f.warnings) std::fprintf(out, "\nWARNING: %s\n", w.c_str());
 }
 
-void print_forecast(std::FILE* out, const FitResult& f, const std::vector<LimitForecast>& fc) {
-  std::fprintf(out, "Current charge after the fit (%zu parameters, reduced chi-square %.3f): hours left to each limit\n",
-               f.parameters.size(), f.s2);
-  std::fprintf(out, "  %-12s %12s   %s\n", "limit", "remaining", "90 % band");
-  for (const LimitForecast& x : fc) {
-    if (x.already) std::fprintf(out, "  %-12s %12s   reached before the last record hour\n", std::string(name(x.limit)).c_str(), "0 h");
-    else if (!x.reached) std::fprintf(out, "  %-12s %12s\n", std::string(name(x.limit)).c_str(), "not reached");
-    else std::fprintf(out, "  %-12s %10.0f h   %.0f to %.0f h\n", std::string(name(x.limit)).c_str(), x.remaining, x.low, x.high);
+void print_forecast(std::FILE* out, const FitResult& f, const Forecast& fc) {
+  std::fprintf(out, "Current charge after the fit (%zu parameters, reduced chi-square %.3f)\n", f.parameters.size(), f.s2);
+  if (fc.lab_first) {
+    std::fprintf(out, "Started from sample %zu (%s, %.0f oil hours), the model state moved toward its readings:\n",
+                 fc.latest_sample + 1, f.samples[fc.latest_sample].where.c_str(), fc.start_oil_hours);
+    std::fprintf(out, "  %-10s %10s %10s %10s %6s\n", "reading", "model", "measured", "updated", "gain");
+    for (const StateUpdate& u : fc.update)
+      std::fprintf(out, "  %-10s %10.3f %10.3f %10.3f %6.2f\n", u.reading.c_str(), u.model, u.measured, u.updated, u.gain);
   }
+  if (fc.change_now) {
+    std::fprintf(out, "\nCHANGE THE OIL NOW: the latest sample has already passed ");
+    int n = 0;
+    for (const LimitForecast& x : fc.limits) n += x.already;
+    std::fprintf(out, "%d limit%s:\n", n, n == 1 ? "" : "s");
+    for (const LimitForecast& x : fc.limits)
+      if (x.already) std::fprintf(out, "  - %s: %s\n", x.key.c_str(), x.why.c_str());
+  }
+  std::fprintf(out, "\nhours left from the end of the record (%.0f oil hours) to each limit:\n", fc.end_oil_hours);
+  std::fprintf(out, "  %-12s %12s   %s\n", "limit", "remaining", "90 % band (parameters only)");
+  for (const LimitForecast& x : fc.limits) {
+    if (x.already) std::fprintf(out, "  %-12s %12s   reached now\n", x.key.c_str(), "0 h");
+    else if (x.key == "i-ph") std::fprintf(out, "  %-12s %12s\n", x.key.c_str(), "lab only");
+    else if (!x.reached) std::fprintf(out, "  %-12s %12s\n", x.key.c_str(), "not reached");
+    else std::fprintf(out, "  %-12s %10.0f h   %.0f to %.0f h\n", x.key.c_str(), x.remaining, x.low, x.high);
+  }
+  if (!fc.change_now) std::fprintf(out, "\nnext sample due in %.0f h\n", fc.next_sample_in);
+  for (const std::string& w : fc.warnings) std::fprintf(out, "\nWARNING: %s\n", w.c_str());
+}
+
+void print_prediction(std::FILE* out, const FitResult& f, const Prediction& p) {
+  const double cap = f.fitted.model.limits.max_hours;
+  const auto h = [&](double v) { return v >= cap ? std::string("cap ") + std::to_string(static_cast<long>(cap)) + " h"
+                                                 : std::to_string(static_cast<long>(v + 0.5)) + " h"; };
+  if (p.current.change_now) {
+    std::fprintf(out, "CHANGE THE OIL NOW: the latest sample has already passed:\n");
+    for (const LimitForecast& x : p.current.limits)
+      if (x.already) std::fprintf(out, "  - %s: %s\n", x.key.c_str(), x.why.c_str());
+    std::fprintf(out, "\n");
+  }
+  std::fprintf(out, "%s: drain interval %s, ended by %s\n", p.next_charge ? "Next charge" : "Current charge",
+               h(p.interval).c_str(), p.limit ? std::string(description(*p.limit)).c_str() : "no limit within the hours cap");
+  std::fprintf(out, "  band of the interval:  P5 %s (pessimistic)   P50 %s   P95 %s (optimistic)\n", h(p.p5).c_str(),
+               h(p.p50).c_str(), h(p.p95).c_str());
+  if (!p.next_charge)
+    std::fprintf(out, "  hours left from the end of the record:  P5 %.0f h   P50 %.0f h   P95 %.0f h\n", p.remaining_p5,
+                 p.remaining_p50, p.remaining_p95);
+  std::fprintf(out, "  spread of ln(interval): parameters %.3f, model form %.3f (from %zu past charges predicted from the others)\n",
+               p.parameter_spread, p.model_form_spread, p.held_out.size());
+  std::fprintf(out, "  draws ending by each limit (of %d):", p.draws);
+  for (std::size_t k = 0; k < limit_count; ++k)
+    if (p.ending[k]) std::fprintf(out, " %s %d", std::string(name(all_limits[k])).c_str(), p.ending[k]);
+  std::fprintf(out, "\n");
+  if (!p.held_out.empty()) {
+    std::fprintf(out, "\n  %-8s %16s %18s\n", "charge", "on its own [h]", "from others [h]");
+    for (const HeldOutCharge& x : p.held_out) std::fprintf(out, "  %-8d %16.0f %18.0f\n", x.charge + 1, x.own, x.from_others);
+  }
+  if (!p.current.change_now) std::fprintf(out, "\nnext sample due in %.0f h\n", p.current.next_sample_in);
+  for (const std::string& n : p.notes) std::fprintf(out, "note: %s\n", n.c_str());
+  for (const std::string& w : p.warnings) std::fprintf(out, "\nWARNING: %s\n", w.c_str());
 }
 
 void print_monte_carlo(std::FILE* out, const EngineCase& c, const std::vector<UncertainInput>& in, const MonteCarloResult& r,

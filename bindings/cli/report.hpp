@@ -23,8 +23,10 @@ void print_conversion(std::FILE* out, const acidload::EngineCase& c, const std::
                       const std::string& species);
 //! A calibration: estimates, standard errors, correlations, residuals, goodness of fit, flags.
 void print_fit(std::FILE* out, const acidload::EngineCase& c, const acidload::FitResult& f);
-//! Remaining hours of the current charge to each limit.
-void print_forecast(std::FILE* out, const acidload::FitResult& f, const std::vector<acidload::LimitForecast>& fc);
+//! The lab-first forecast of the current charge: limits passed ("change the oil now"), hours left, next sample.
+void print_forecast(std::FILE* out, const acidload::FitResult& f, const acidload::Forecast& fc);
+//! The predicted drain interval with its band.
+void print_prediction(std::FILE* out, const acidload::FitResult& f, const acidload::Prediction& p);
 //! Monte Carlo percentiles.
 void print_monte_carlo(std::FILE* out, const acidload::EngineCase& c, const std::vector<acidload::UncertainInput>& in,
                        const acidload::MonteCarloResult& r, std::uint64_t seed);

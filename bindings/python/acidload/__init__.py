@@ -18,7 +18,7 @@ not replace, the engine maker's and oil supplier's limits and lab analysis.
 """
 from . import _core
 from ._case import KEYWORDS, Case, Variant, case, case_from_dict, load_case, load_case_text
-from ._calibration import PARAMETERS, Fit, fit, fit_residuals, forecast, monte_carlo, read_lab
+from ._calibration import PARAMETERS, Fit, fit, fit_residuals, forecast, monte_carlo, predict, read_lab, read_lab_samples
 from ._errors import Error, FitRefusedError, InputError, NoAnswerError, NotModelledError
 from ._gas import CONCENTRATION_UNITS, accepted_units, convert, molar_mass, molar_volume, parse_quantity
 from ._results import TRAJECTORY_UNITS, Result, VariantResult, run
@@ -36,7 +36,7 @@ __all__ = [
     "run", "Result", "VariantResult", "TRAJECTORY_UNITS", "drain_interval", "solve_for_interval",
     "InverseAnswer", "LEVERS",
     # calibration and uncertainty
-    "read_lab", "fit", "Fit", "fit_residuals", "forecast", "monte_carlo", "PARAMETERS",
+    "read_lab", "read_lab_samples", "fit", "Fit", "fit_residuals", "forecast", "predict", "monte_carlo", "PARAMETERS",
     # errors
     "Error", "InputError", "NotModelledError", "NoAnswerError", "FitRefusedError",
     # physics from the core

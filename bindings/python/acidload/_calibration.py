@@ -1,15 +1,18 @@
 """Calibration to the plant's lab history, the forecast of the current charge, and Monte Carlo.
 
-    lab = acidload.read_lab("cases/demo-site-lab.csv")
-    fit = acidload.fit(case, lab, ["model.liner-uptake", "model.oxidation-rate"])
-    fit.estimates, fit.standard_errors, fit.correlation, fit.residuals, fit.s2, fit.flags
+    table = acidload.read_lab("cases/demo-site-lab.csv")   # pandas DataFrame, or a dict of numpy arrays
+    fit = acidload.fit(case, "cases/demo-site-lab.csv")      # parameters chosen for what the lab reports
+    fit = acidload.fit(case, table, ["model.liner-uptake", "model.oxidation-rate"], precision={"tan": 0.1})
+    fit.estimates, fit.standard_errors, fit.correlation, fit.residuals, fit.s2, fit.flags, fit.held
     fit.write_overlay("fitted.yaml", case_file=..., lab_file=...)   # for acidload run --overlay
-    acidload.forecast(fit)                                            # hours left to each limit
-    acidload.monte_carlo(case)                                        # the case's uncertainty section
+    acidload.forecast(fit)                  # lab-first: hours left to each limit, `already`, next sample due
+    acidload.predict(fit)                   # the next charge's drain interval, P5/P50/P95
+    acidload.monte_carlo(case)              # the case's uncertainty section
 
 Parameters are named by their case-file keys (``model.so3-share``, ``engine.blow-by``, …; see
 :data:`PARAMETERS`) and carried in the core's units (shares as fractions, K, A/cm per h, …).
-A fit the data cannot identify raises :class:`FitRefusedError` with the reason.
+Each has a range a fit never leaves and a weak prior (docs/lab-results.md); one the samples do not
+respond to is held at its prior and flagged. Fewer readings than parameters raise FitRefusedError.
 """
 from __future__ import annotations
 
@@ -22,16 +25,70 @@ import numpy as np
 from . import _core
 from ._case import Case, Variant, _engine_case
 
-__all__ = ["read_lab", "fit", "Fit", "forecast", "monte_carlo", "fit_residuals", "PARAMETERS"]
+__all__ = ["read_lab", "read_lab_samples", "fit", "Fit", "forecast", "predict", "monte_carlo", "fit_residuals", "PARAMETERS"]
 
 #: Keys of the parameters that can be fitted or varied.
 PARAMETERS: List[str] = list(_core.parameter_keys())
 
 
-def read_lab(path: Union[str, os.PathLike]) -> list:
-    """Lab results from a CSV file (columns in docs/lab-results.md); a mistake raises InputError with
-    the file, line and column."""
+def read_lab_samples(path: Union[str, os.PathLike]) -> list:
+    """Lab results from a CSV file as a list of samples (columns in docs/lab-results.md); a mistake
+    raises InputError with the file, line and column."""
     return list(_core.read_lab_samples(os.fspath(path)))
+
+
+class LabColumns(dict):
+    """The lab table as a dict of numpy arrays (pandas not installed); ``.samples`` the samples."""
+    samples: list = []
+
+
+_LAB_COLUMNS = [("tbn", "tbn"), ("tan", "tan"), ("san", "san"), ("i_ph", "initial_ph"),
+                ("oxidation", "oxidation"), ("nitration", "nitration")]
+
+
+def read_lab(path: Union[str, os.PathLike]) -> Any:
+    """Lab results from a CSV file as a table, one row per sample: a pandas DataFrame when pandas is
+    installed, else a dict of numpy arrays. Columns: charge (1 = the first), oil_hours [h], lab, date,
+    tbn, tbn_method, tan, san [mg KOH/g] (san_censored: reported "<x"), i_ph, oxidation, nitration
+    [A/cm] (NaN where not reported), every trended reading (fe, cu, … [ppm], viscosity_100 [cSt],
+    water [%]) and the columns acidload does not know, as text. The samples themselves (for
+    :func:`fit`) are in ``.attrs["samples"]`` of the DataFrame, or ``.samples`` of the dict."""
+    samples = read_lab_samples(path)
+    cols: Dict[str, Any] = {
+        "charge": np.array([s.charge + 1 for s in samples], dtype=int),
+        "oil_hours": np.array([s.oil_hours for s in samples], dtype=float),
+        "lab": np.array([s.lab for s in samples], dtype=object),
+        "date": np.array([s.date for s in samples], dtype=object),
+        "tbn_method": np.array(["D2896" if s.tbn_method == _core.oil.BaseNumberMethod.D2896 else "D4739"
+                                for s in samples], dtype=object),
+    }
+    for name, attr in _LAB_COLUMNS:
+        cols[name] = np.array([np.nan if getattr(s, attr) is None else getattr(s, attr) for s in samples], dtype=float)
+    cols["san_censored"] = np.array([s.san_censored for s in samples], dtype=bool)
+    for key in sorted({k for s in samples for k in s.trended}):
+        cols[key.replace("-", "_")] = np.array([s.trended.get(key, np.nan) for s in samples], dtype=float)
+    for key in sorted({k for s in samples for k in s.other}):
+        cols[key.replace("-", "_")] = np.array([s.other.get(key, "") for s in samples], dtype=object)
+    try:
+        import pandas as pd  # optional
+    except ImportError:
+        out = LabColumns(cols)
+        out.samples = samples
+        return out
+    df = pd.DataFrame(cols)
+    df.attrs["samples"] = samples
+    return df
+
+
+def _samples(lab: Any) -> list:
+    if isinstance(lab, (str, os.PathLike)):
+        return read_lab_samples(lab)
+    if isinstance(lab, LabColumns):
+        return list(lab.samples)
+    attrs = getattr(lab, "attrs", None)
+    if isinstance(attrs, dict) and "samples" in attrs:
+        return list(attrs["samples"])
+    return list(lab)
 
 
 class Fit:
@@ -78,7 +135,15 @@ class Fit:
     observations = property(lambda self: self._r.observations)
     iterations = property(lambda self: self._r.iterations)
     converged = property(lambda self: self._r.converged)
-    flags = property(lambda self: list(self._r.flags), doc="outliers and lab changes, in plain words")
+    flags = property(lambda self: list(self._r.flags), doc="outliers, lab changes, held and confounded parameters, in plain words")
+    notes = property(lambda self: list(self._r.notes), doc="why these parameters, when chosen for what the lab reports")
+    warnings = property(lambda self: list(self._r.warnings), doc="a poor fit (chi-square), a weak-base offset across methods …")
+    chi2_p = property(lambda self: self._r.chi2_p, doc="P(chi-square >= the sum of squares): small means the model misfits")
+
+    @property
+    def held(self) -> Dict[str, bool]:
+        """Per parameter: held at its prior because the samples do not respond to it."""
+        return dict(zip(self._r.keys, self._r.held))
 
     def overlay_text(self, case_file: str = "CASE", lab_file: str = "LAB") -> str:
         """The estimates as an overlay (format version 1) for ``acidload run CASE --overlay FILE``."""
@@ -103,25 +168,70 @@ class Fit:
         return f"<acidload.Fit {est}; reduced chi-square {self.s2:.3g}>"
 
 
-def fit(case: Union[Case, Variant], lab: Union[str, os.PathLike, Sequence[Any]], parameters: Sequence[str], *,
+def fit(case: Union[Case, Variant], lab: Any, parameters: Optional[Sequence[str]] = None, *,
+        precision: Optional[Dict[str, float]] = None, lab_precision: Optional[Dict[str, Dict[str, float]]] = None,
         variant: Optional[str] = None) -> Fit:
-    """Weighted least squares (Levenberg–Marquardt, log/logit space, delta-method errors) of the named
-    parameters of a variant to lab samples (a CSV path or the list from :func:`read_lab`)."""
-    samples = read_lab(lab) if isinstance(lab, (str, os.PathLike)) else list(lab)
-    return Fit(_core.calibrate(_engine_case(case, variant), samples, list(parameters)))
+    """Weighted least squares (Levenberg–Marquardt, weak priors, ranges kept, delta-method errors) of the
+    named parameters of a variant to lab samples (a CSV path, the table from :func:`read_lab` or the list
+    from :func:`read_lab_samples`). Without ``parameters`` a set matched to what the lab reports
+    (``Fit.notes`` says why). ``precision``: one standard deviation per reading (keys tbn_d2896,
+    tbn_d4739, tan, san [mg KOH/g], oxidation, nitration [A/cm]); ``lab_precision``: the same per lab name."""
+    return Fit(_core.calibrate(_engine_case(case, variant), _samples(lab), list(parameters or []),
+                               dict(precision or {}), {k: dict(v) for k, v in (lab_precision or {}).items()}))
 
 
-def fit_residuals(case: Union[Case, Variant], lab: Sequence[Any], parameters: Sequence[str], phi: Sequence[float], *,
+def fit_residuals(case: Union[Case, Variant], lab: Any, parameters: Sequence[str], phi: Sequence[float], *,
                   variant: Optional[str] = None) -> np.ndarray:
-    """The standardized residuals a fit minimises, at fit-space values ``phi`` (log or logit of each
-    parameter): for driving the model from another optimiser (e.g. scipy.optimize.least_squares)."""
-    return _core.fit_residuals(_engine_case(case, variant), list(lab), list(parameters), [float(x) for x in phi])
+    """The residuals a fit minimises at fit-space values ``phi`` (log or logit of each parameter): the
+    standardized readings, then one prior row per parameter, (phi − phi0)/sd0: for driving the model from
+    another optimiser (e.g. scipy.optimize.least_squares)."""
+    return _core.fit_residuals(_engine_case(case, variant), _samples(lab), list(parameters), [float(x) for x in phi])
 
 
-def forecast(result: Fit) -> List[Dict[str, Any]]:
-    """Remaining hours of the current (last) charge to each limit, with a 90 % band from the
-    covariance: dicts with limit, reached, already, remaining_h, low_h, high_h."""
-    return list(_core.forecast(result._r))
+class ForecastResult(list):
+    """The limits of :func:`forecast` (a list of dicts: limit, reached, already, remaining_h, low_h,
+    high_h, why) with the rest as attributes: change_now, lab_first, update, next_sample_in_h, warnings."""
+
+    def __init__(self, d: Dict[str, Any]) -> None:
+        super().__init__(d["limits"])
+        self.change_now: bool = d["change_now"]
+        self.lab_first: bool = d["lab_first"]
+        self.update: List[Dict[str, Any]] = list(d["update"])
+        self.next_sample_in_h: float = d["next_sample_in_h"]
+        self.start_oil_hours: float = d["start_oil_hours"]
+        self.end_oil_hours: float = d["end_oil_hours"]
+        self.warnings: List[str] = list(d["warnings"])
+
+
+def forecast(result: Fit, *, initial_ph_limit: float = 4.0, sample_interval_h: float = 250.0) -> ForecastResult:
+    """The lab-first forecast of the current (last) charge: the model state moved toward the latest
+    sample (a Kalman-type update), every limit that sample has already passed flagged (``already``
+    True; SAN and i-pH included), the hours left to the others with a 90 % band, and when the next
+    sample is due. The i-pH limit (4.0) and the sampling interval (250 h) are common practice, no source."""
+    return ForecastResult(_core.forecast(result._r, float(initial_ph_limit), float(sample_interval_h)))
+
+
+def predict(fit_or_case: Union[Fit, Case, Variant], lab: Any = None, *, parameters: Optional[Sequence[str]] = None,
+            conditions: Optional[Union[Case, Variant, Sequence[Union[Case, Variant]]]] = None, next_charge: bool = True,
+            draws: int = 400, seed: int = 1, model_form: bool = True, initial_ph_limit: float = 4.0,
+            variant: Optional[str] = None) -> Dict[str, Any]:
+    """The drain interval of the next charge (after an oil change at the end of the record; oil carried
+    over as the change leaves it) or, with ``next_charge=False``, of the current one continued, under
+    ``conditions`` (cases whose records are the planned operation, the last segment run on to the hours
+    cap; default the record's last segment). Returns interval_h and the limit that ends it, one band
+    p5_h / p50_h / p95_h (P5 the pessimistic end) from draws of the fit's joint covariance widened by
+    the model-form spread of predicting each past charge from the others (held_out: (charge, own,
+    from_others)), the draws per limit, and ``current``: the lab-first forecast. Give a Fit, or a case
+    and ``lab`` (fitted here)."""
+    f = fit_or_case if isinstance(fit_or_case, Fit) else fit(fit_or_case, lab, parameters, variant=variant)
+    plan: List[Any] = []
+    if conditions is not None:
+        for c in (conditions if isinstance(conditions, (list, tuple)) else [conditions]):
+            plan.append(_engine_case(c, None))
+    out = dict(_core.predict_charge(f._r, bool(next_charge), plan, int(draws), int(seed), bool(model_form), True,
+                                    float(initial_ph_limit)))
+    out["current"] = ForecastResult(out["current"])
+    return out
 
 
 def monte_carlo(case: Union[Case, Variant], *, inputs: Optional[Sequence[Tuple[str, str, float, float, float]]] = None,

@@ -8,6 +8,7 @@
 
 #include <array>
 #include <cstddef>
+#include <map>
 #include <string>
 #include <vector>
 
@@ -229,11 +230,17 @@ py::array_t<double> fit_residuals(const EngineCase& c, const std::vector<LabSamp
   {
     py::gil_scoped_release release;
     EngineCase x = c;
-    for (std::size_t j = 0; j < keys.size(); ++j) set_parameter(x, keys[j], from_fit_space(parameter(keys[j]).bound, phi[j]));
+    for (std::size_t j = 0; j < keys.size(); ++j) set_parameter(x, keys[j], from_fit_space(parameter(keys[j]), phi[j]));
     r = predict(x, samples, Precision{});
   }
-  py::array_t<double> out(static_cast<py::ssize_t>(r.size()));
+  // then one prior row per parameter, (φ − φ₀)/σ₀ around the case's value, as calibrate has them
+  py::array_t<double> out(static_cast<py::ssize_t>(r.size() + keys.size()));
   for (std::size_t i = 0; i < r.size(); ++i) out.mutable_at(static_cast<py::ssize_t>(i)) = r[i].standardized;
+  for (std::size_t j = 0; j < keys.size(); ++j) {
+    const ParameterInfo& info = parameter(keys[j]);
+    const double phi0 = to_fit_space(info, inside_range(info, get_parameter(c, keys[j])));
+    out.mutable_at(static_cast<py::ssize_t>(r.size() + j)) = (phi[j] - phi0) / info.prior_sd;
+  }
   return out;
 }
 
@@ -526,8 +533,20 @@ PYBIND11_MODULE(_core, m) {
       .def_readonly("nitration", &LabSample::nitration)
       .def_readonly("initial_ph", &LabSample::initial_ph)
       .def_readonly("lab", &LabSample::lab)
-      .def_readonly("where", &LabSample::where);
-  m.def("read_lab_samples", &io::read_lab_samples, py::arg("path"), "Reads lab results from a CSV file (docs/lab-results.md).");
+      .def_readonly("where", &LabSample::where)
+      .def_readonly("tbn_method", &LabSample::tbn_method)
+      .def_readonly("date", &LabSample::date, "as written")
+      .def_readonly("trended", &LabSample::trended, "readings trended, not modelled (wear metals, viscosity, water …), by column")
+      .def_readonly("other", &LabSample::other, "columns acidload does not know, as written")
+      .def_readonly("oxidation_baseline", &LabSample::oxidation_baseline, "[A/cm]")
+      .def_readonly("nitration_baseline", &LabSample::nitration_baseline, "[A/cm]");
+  m.def("read_lab_samples", [](const std::string& path) { return io::read_lab_samples(path); }, py::arg("path"),
+        "Reads lab results from a CSV file (docs/lab-results.md).");
+  m.def("read_lab_notes", [](const std::string& path) {
+    std::vector<std::string> notes;
+    io::read_lab_samples(path, &notes);
+    return notes;
+  }, py::arg("path"), "The notes reading a lab file gives (columns carried through unread).");
   m.def("parameter_keys", []() {
     std::vector<std::string> k;
     for (const auto& p : parameter_table()) k.push_back(p.key);
@@ -537,10 +556,19 @@ PYBIND11_MODULE(_core, m) {
     switch (parameter(k).bound) {
       case Bound::positive: return std::string("positive");
       case Bound::share: return std::string("share");
+      case Bound::interval: return std::string("interval");
       case Bound::free: return std::string("free");
     }
     return std::string();
-  }, py::arg("key"), "How a parameter is bounded: 'positive' (fitted as log), 'share' (logit) or 'free'.");
+  }, py::arg("key"), "How a parameter is bounded: 'positive' (fitted as log), 'share' (logit), 'interval' "
+                     "(logit of the place in its range) or 'free'.");
+  m.def("parameter_range", [](const std::string& k) {
+    const ParameterInfo& p = parameter(k);
+    return py::make_tuple(p.low, p.high, p.prior_sd, p.unit);
+  }, py::arg("key"), "(low, high, prior_sd, unit): the range (interval bounds), the weak prior's sd in fit space, the core unit.");
+  m.def("to_fit_space", [](const std::string& k, double x) { return to_fit_space(parameter(k), x); }, py::arg("key"), py::arg("x"));
+  m.def("from_fit_space", [](const std::string& k, double phi) { return from_fit_space(parameter(k), phi); }, py::arg("key"), py::arg("phi"));
+  m.def("dx_dphi", [](const std::string& k, double phi) { return dx_dphi(parameter(k), phi); }, py::arg("key"), py::arg("phi"));
   m.def("get_parameter", &get_parameter, py::arg("case"), py::arg("key"), "A parameter's value in a case (core unit).");
   m.def("with_parameter", [](const EngineCase& c, const std::string& k, double v) {
     EngineCase x = c;
@@ -594,32 +622,120 @@ PYBIND11_MODULE(_core, m) {
       .def_readonly("iterations", &FitResult::iterations)
       .def_readonly("converged", &FitResult::converged)
       .def_readonly("flags", &FitResult::flags)
+      .def_readonly("notes", &FitResult::notes, "why these parameters, when chosen for what the lab reports")
+      .def_readonly("warnings", &FitResult::warnings)
+      .def_readonly("chi2_p", &FitResult::chi2_p, "P(chi-square >= the sum of squares)")
+      .def_property_readonly("held", [](const FitResult& f) {
+        std::vector<bool> v;
+        for (const auto& p : f.parameters) v.push_back(p.held);
+        return v;
+      }, "per parameter: held at its prior (the samples do not respond to it)")
       .def_readonly("fitted", &FitResult::fitted, "the case with the estimates put in")
       .def("overlay_text", [](const FitResult& f, const std::string& c, const std::string& l) { return io::overlay_text(f, c, l); },
            py::arg("case_file"), py::arg("lab_file"), "The estimates as overlay text for 'acidload run --overlay'.");
-  m.def("calibrate", [](const EngineCase& c, const std::vector<LabSample>& s, const std::vector<std::string>& keys) {
+  m.def("calibrate", [](const EngineCase& c, const std::vector<LabSample>& s, const std::vector<std::string>& keys,
+                        const std::map<std::string, double>& precision,
+                        const std::map<std::string, std::map<std::string, double>>& lab_precision) {
     FitSettings fs;
     fs.parameters = keys;
+    const auto apply = [](Precision& p, const std::map<std::string, double>& m) {
+      for (const auto& [k, v] : m) {
+        if (!(v > 0 && v < 1e3)) throw InputError("precision " + k, format_value(v), "a standard deviation above 0");
+        if (k == "tbn_d2896") p.tbn_d2896 = v;
+        else if (k == "tbn_d4739") p.tbn_d4739 = v;
+        else if (k == "tan") p.tan = v;
+        else if (k == "san") p.san = v;
+        else if (k == "oxidation") p.oxidation = v;
+        else if (k == "nitration") p.nitration = v;
+        else throw InputError("precision", k, "one of tbn_d2896, tbn_d4739, tan, san, oxidation, nitration");
+      }
+    };
+    apply(fs.precision, precision);
+    for (const auto& [lab, m] : lab_precision) {
+      Precision p = fs.precision;
+      apply(p, m);
+      fs.lab_precision[lab] = p;
+    }
     py::gil_scoped_release release;
     return calibrate(c, s, fs);
-  }, py::arg("case"), py::arg("samples"), py::arg("parameters"),
-        "Weighted least squares (Levenberg-Marquardt) of the named parameters to the samples.");
-  m.def("forecast", [](const FitResult& f) {
-    std::vector<LimitForecast> fc;
+  }, py::arg("case"), py::arg("samples"), py::arg("parameters"), py::arg("precision") = std::map<std::string, double>{},
+        py::arg("lab_precision") = std::map<std::string, std::map<std::string, double>>{},
+        "Weighted least squares (Levenberg-Marquardt, weak priors) of the named parameters (none: chosen for what "
+        "the lab reports) to the samples; precision [mg KOH/g, A/cm] by reading, and by lab.");
+  const auto limit_dict = [](const LimitForecast& x) {
+    py::dict d;
+    d["limit"] = x.key;
+    d["reached"] = x.reached, d["already"] = x.already;
+    d["remaining_h"] = x.remaining, d["low_h"] = x.low, d["high_h"] = x.high;
+    d["why"] = x.why;
+    return d;
+  };
+  const auto forecast_dict = [limit_dict](const Forecast& fc) {
+    py::dict d;
+    py::list limits;
+    for (const auto& x : fc.limits) limits.append(limit_dict(x));
+    d["limits"] = limits;
+    d["change_now"] = fc.change_now;
+    d["lab_first"] = fc.lab_first;
+    d["latest_sample"] = fc.latest_sample;
+    d["start_oil_hours"] = fc.start_oil_hours;
+    d["end_oil_hours"] = fc.end_oil_hours;
+    py::list up;
+    for (const auto& u : fc.update) {
+      py::dict x;
+      x["reading"] = u.reading, x["model"] = u.model, x["measured"] = u.measured, x["updated"] = u.updated, x["gain"] = u.gain;
+      up.append(x);
+    }
+    d["update"] = up;
+    d["next_sample_in_h"] = fc.next_sample_in;
+    d["warnings"] = fc.warnings;
+    return d;
+  };
+  m.def("forecast", [forecast_dict](const FitResult& f, double initial_ph, double sample_interval) {
+    Forecast fc;
     {
       py::gil_scoped_release release;
-      fc = forecast(f);
+      fc = forecast_current(f, LabLimits{initial_ph, sample_interval});
     }
-    py::list out;
-    for (const auto& x : fc) {
-      py::dict d;
-      d["limit"] = std::string(name(x.limit));
-      d["reached"] = x.reached, d["already"] = x.already;
-      d["remaining_h"] = x.remaining, d["low_h"] = x.low, d["high_h"] = x.high;
-      out.append(d);
+    return forecast_dict(fc);
+  }, py::arg("fit"), py::arg("initial_ph") = LabLimits{}.initial_ph, py::arg("sample_interval") = LabLimits{}.sample_interval,
+        "The lab-first forecast of the current charge: limits (remaining hours [h], 90 % band, already), the state "
+        "update, the next sample due [h].");
+  m.def("predict_charge", [forecast_dict](const FitResult& f, bool next_charge, const std::vector<EngineCase>& plan, int draws,
+                                          std::uint64_t seed, bool model_form, bool lab_first, double initial_ph) {
+    PredictSettings ps;
+    ps.next_charge = next_charge;
+    for (const EngineCase& c : plan) ps.conditions.insert(ps.conditions.end(), c.record.begin(), c.record.end());
+    ps.draws = draws, ps.seed = seed, ps.model_form = model_form, ps.lab_first = lab_first;
+    ps.lab.initial_ph = initial_ph;
+    Prediction p;
+    {
+      py::gil_scoped_release release;
+      p = predict_charge(f, ps);
     }
-    return out;
-  }, py::arg("fit"), "Remaining hours of the current charge to each limit with a 90 % band [h].");
+    py::dict d;
+    d["next_charge"] = p.next_charge;
+    d["interval_h"] = p.interval;
+    d["limit"] = p.limit ? std::string(name(*p.limit)) : std::string("none");
+    d["p5_h"] = p.p5, d["p50_h"] = p.p50, d["p95_h"] = p.p95;
+    d["remaining_p5_h"] = p.remaining_p5, d["remaining_p50_h"] = p.remaining_p50, d["remaining_p95_h"] = p.remaining_p95;
+    py::dict ending;
+    for (std::size_t k = 0; k < limit_count; ++k)
+      if (p.ending[k]) ending[py::str(std::string(name(all_limits[k])))] = p.ending[k];
+    d["ending"] = ending;
+    d["parameter_spread"] = p.parameter_spread, d["model_form_spread"] = p.model_form_spread;
+    py::list held;
+    for (const auto& h : p.held_out) held.append(py::make_tuple(h.charge, h.own, h.from_others));
+    d["held_out"] = held;
+    d["draws"] = p.draws;
+    d["intervals_h"] = py::array_t<double>(static_cast<py::ssize_t>(p.intervals.size()), p.intervals.data());
+    d["current"] = forecast_dict(p.current);
+    d["notes"] = p.notes, d["warnings"] = p.warnings;
+    return d;
+  }, py::arg("fit"), py::arg("next_charge") = true, py::arg("plan") = std::vector<EngineCase>{}, py::arg("draws") = 400,
+        py::arg("seed") = 1, py::arg("model_form") = true, py::arg("lab_first") = true, py::arg("initial_ph") = LabLimits{}.initial_ph,
+        "The drain interval of the next charge (or the current one continued) with its P5/P50/P95 band [h]; plan: cases "
+        "whose records are the planned operation (empty: the record's last segment).");
   m.def("monte_carlo", [](const EngineCase& c, const std::vector<std::tuple<std::string, std::string, double, double, double>>& inputs,
                           int draws, std::uint64_t seed, int threads) {
     std::vector<UncertainInput> in;

@@ -1,6 +1,9 @@
 #include "acidload/studies/calibration.hpp"
 
 #include <Eigen/Dense>
+#include <boost/math/special_functions/gamma.hpp>
+#include <cstdio>
+#include <optional>
 #include <algorithm>
 #include <cmath>
 #include <limits>
@@ -64,7 +67,7 @@ std::vector<Segment> split_at(const std::vector<Segment>& record, std::vector<do
   return out;
 }
 
-double sigma_of(const Precision& p, const std::string& reading, BaseNumberMethod m) {
+double precision_of(const Precision& p, const std::string& reading, BaseNumberMethod m) {
   if (reading == "tbn") return m == BaseNumberMethod::d2896 ? p.tbn_d2896 : p.tbn_d4739;
   if (reading == "tan") return p.tan;
   if (reading == "san") return p.san;
@@ -74,7 +77,17 @@ double sigma_of(const Precision& p, const std::string& reading, BaseNumberMethod
 
 }  // namespace
 
-std::vector<SampleResidual> predict(const EngineCase& c, const std::vector<LabSample>& samples, const Precision& prec) {
+double reading_sigma(const LabSample& s, const std::string& reading, const Precision& fallback,
+                     const std::map<std::string, Precision>& by_lab) {
+  const std::optional<double>& own = reading == "tbn" ? s.sd_tbn : reading == "tan" ? s.sd_tan : reading == "san" ? s.sd_san
+                                     : reading == "oxidation" ? s.sd_oxidation : s.sd_nitration;
+  if (own) return *own;
+  const auto it = by_lab.find(s.lab);
+  return precision_of(it != by_lab.end() ? it->second : fallback, reading, s.tbn_method);
+}
+
+std::vector<SampleResidual> predict(const EngineCase& c, const std::vector<LabSample>& samples, const Precision& prec,
+                                    const std::map<std::string, Precision>& lab_prec) {
   const std::vector<double> starts = charge_starts(c.record);
   const double end = record_hours(c.record);
   std::vector<double> times;
@@ -102,13 +115,13 @@ std::vector<SampleResidual> predict(const EngineCase& c, const std::vector<LabSa
     for (const TrajectoryPoint& q : r.trajectory)
       if (q.charge == s.charge && std::fabs(q.engine_hours - times[i]) < 1e-6 * (1 + times[i])) p = &q;
     if (!p) throw Error("internal: no trajectory point at the sample " + s.where);
-    const auto add = [&](const char* reading, double measured, double predicted, bool censored, BaseNumberMethod mth) {
+    const auto add = [&](const char* reading, double measured, double predicted, bool censored, BaseNumberMethod) {
       SampleResidual x;
       x.sample = i;
       x.reading = reading;
       x.measured = measured;
       x.predicted = predicted;
-      x.sigma = sigma_of(prec, reading, mth);
+      x.sigma = reading_sigma(s, reading, prec, lab_prec);
       x.censored = censored;
       x.standardized = censored ? -std::fmax(0.0, predicted - measured) / x.sigma : (measured - predicted) / x.sigma;
       out.push_back(x);
@@ -116,8 +129,8 @@ std::vector<SampleResidual> predict(const EngineCase& c, const std::vector<LabSa
     if (s.tbn) add("tbn", *s.tbn, tbn(p->state, c.charge.oil, s.tbn_method), false, s.tbn_method);
     if (s.tan) add("tan", *s.tan, p->tan, false, s.tbn_method);
     if (s.san) add("san", *s.san, p->san, s.san_censored, s.tbn_method);
-    if (s.oxidation) add("oxidation", *s.oxidation, p->state.oxidation, false, s.tbn_method);
-    if (s.nitration) add("nitration", *s.nitration, p->state.nitration, false, s.tbn_method);
+    if (s.oxidation) add("oxidation", *s.oxidation, s.oxidation_baseline + p->state.oxidation, false, s.tbn_method);
+    if (s.nitration) add("nitration", *s.nitration, s.nitration_baseline + p->state.nitration, false, s.tbn_method);
   }
   return out;
 }
@@ -129,94 +142,187 @@ bool is_sulfur_parameter(const std::string& k) {
          k == "model.wet-so2-factor" || k == "model.liner-wall-rise" || k == "fuel.h2s";
 }
 
+double record_sulfur(const EngineCase& c) {
+  double sulfur = 0;
+  for (const Segment& seg : c.record) sulfur += seg.fuel.sulfur();
+  return sulfur;
+}
+
+std::string method_name(BaseNumberMethod m) { return m == BaseNumberMethod::d2896 ? "D2896" : "D4739"; }
+
+// The fit's problem: the listed parameters, of which `active` are fitted and the rest held at
+// their priors; residuals are the standardized readings followed by one prior row per active one.
 struct Problem {
   const EngineCase& base;
   const std::vector<LabSample>& samples;
   const FitSettings& s;
-  std::vector<Bound> bounds;
+  std::vector<const ParameterInfo*> info;
+  std::vector<double> prior, prior_sd;  // fit space
+  std::vector<std::size_t> active;
 
-  EngineCase at(const Eigen::VectorXd& phi) const {
+  std::vector<double> full(const Eigen::VectorXd& a) const {
+    std::vector<double> phi = prior;
+    for (std::size_t j = 0; j < active.size(); ++j) phi[active[j]] = a[static_cast<Eigen::Index>(j)];
+    return phi;
+  }
+  EngineCase at(const Eigen::VectorXd& a) const {
     EngineCase c = base;
-    for (std::size_t j = 0; j < s.parameters.size(); ++j)
-      set_parameter(c, s.parameters[j], from_fit_space(bounds[j], phi[static_cast<Eigen::Index>(j)]));
+    const std::vector<double> phi = full(a);
+    for (std::size_t j = 0; j < info.size(); ++j) set_parameter(c, info[j]->key, from_fit_space(*info[j], phi[j]));
     return c;
   }
-  Eigen::VectorXd residuals(const Eigen::VectorXd& phi) const {
-    const auto r = predict(at(phi), samples, s.precision);
+  Eigen::VectorXd data_residuals(const Eigen::VectorXd& a) const {
+    const auto r = predict(at(a), samples, s.precision, s.lab_precision);
     Eigen::VectorXd v(static_cast<Eigen::Index>(r.size()));
     for (std::size_t i = 0; i < r.size(); ++i) v[static_cast<Eigen::Index>(i)] = r[i].standardized;
     return v;
   }
-  // central differences in fit space
-  Eigen::MatrixXd jacobian(const Eigen::VectorXd& phi, Eigen::Index n) const {
-    Eigen::MatrixXd J(n, phi.size());
-    for (Eigen::Index j = 0; j < phi.size(); ++j) {
-      const double h = 1e-5 * std::max(1.0, std::fabs(phi[j]));
-      Eigen::VectorXd a = phi, b = phi;
-      a[j] += h;
-      b[j] -= h;
-      J.col(j) = (residuals(a) - residuals(b)) / (2 * h);
+  Eigen::VectorXd residuals(const Eigen::VectorXd& a) const {
+    const Eigen::VectorXd d = data_residuals(a);
+    if (!s.priors) return d;
+    Eigen::VectorXd v(d.size() + a.size());
+    v << d, Eigen::VectorXd::Zero(a.size());
+    for (std::size_t j = 0; j < active.size(); ++j)
+      v[d.size() + static_cast<Eigen::Index>(j)] = (a[static_cast<Eigen::Index>(j)] - prior[active[j]]) / prior_sd[active[j]];
+    return v;
+  }
+  // Central differences in fit space; one-sided where the model refuses one side.
+  Eigen::MatrixXd jacobian(const Eigen::VectorXd& a, const Eigen::VectorXd& r0, bool data_only) const {
+    const auto f = [&](const Eigen::VectorXd& x) { return data_only ? data_residuals(x) : residuals(x); };
+    const Eigen::Index n = data_only ? r0.size() : r0.size();
+    Eigen::MatrixXd J = Eigen::MatrixXd::Zero(n, a.size());
+    for (Eigen::Index j = 0; j < a.size(); ++j) {
+      const double h = 1e-5 * std::max(1.0, std::fabs(a[j]));
+      Eigen::VectorXd up = a, down = a;
+      up[j] += h;
+      down[j] -= h;
+      std::optional<Eigen::VectorXd> ru, rd;
+      try { ru = f(up); } catch (const InputError&) {}
+      try { rd = f(down); } catch (const InputError&) {}
+      if (ru && rd) J.col(j) = (*ru - *rd) / (2 * h);
+      else if (ru) J.col(j) = (*ru - r0) / h;
+      else if (rd) J.col(j) = (r0 - *rd) / h;
     }
     return J;
   }
 };
 
-void check_identifiable(const Eigen::MatrixXd& J, const std::vector<std::string>& names, const char* when) {
-  const Eigen::VectorXd norms = J.colwise().norm();
-  for (Eigen::Index j = 0; j < J.cols(); ++j)
-    if (!(norms[j] > 1e-9 * std::max(1.0, norms.maxCoeff())) || norms[j] < 1e-12)
-      throw FitRefusedError("cannot fit " + names[static_cast<std::size_t>(j)] + ": the samples do not depend on it " + when +
-                            " (a flat direction; fix it or add samples that respond to it)");
-  Eigen::JacobiSVD<Eigen::MatrixXd> svd(J * norms.cwiseInverse().asDiagonal(), Eigen::ComputeThinV);
-  const Eigen::VectorXd sv = svd.singularValues();
-  if (sv.size() > 1 && sv[sv.size() - 1] < 1e-7 * sv[0]) {
-    const Eigen::VectorXd v = svd.matrixV().col(sv.size() - 1).cwiseAbs();
-    Eigen::Index a = 0, b = 0;
-    v.maxCoeff(&a);
-    double best = -1;
-    for (Eigen::Index j = 0; j < v.size(); ++j)
-      if (j != a && v[j] > best) best = v[j], b = j;
-    throw FitRefusedError("cannot fit " + names[static_cast<std::size_t>(a)] + " and " + names[static_cast<std::size_t>(b)] +
-                          " together: the samples cannot tell them apart " + when +
-                          " (rank-deficient; fix one, or add readings that separate them)");
-  }
+std::string rounded(double v, int digits = 2) {
+  char b[32];
+  std::snprintf(b, sizeof b, "%.*g", digits, v);
+  return b;
 }
 
 }  // namespace
 
-FitResult calibrate(const EngineCase& c, const std::vector<LabSample>& samples, const FitSettings& s) {
-  if (s.parameters.empty()) throw InputError("fit parameters", "(none)", "at least one parameter to fit");
-  Problem pr{c, samples, s, {}};
-  Eigen::VectorXd phi(static_cast<Eigen::Index>(s.parameters.size()));
-  double sulfur = 0;
-  for (const Segment& seg : c.record) sulfur += seg.fuel.sulfur();
+double chi2_upper_tail(double x, int k) {
+  if (k <= 0) return 1;
+  if (!(x > 0)) return 1;
+  return boost::math::gamma_q(0.5 * k, 0.5 * x);
+}
+
+std::vector<std::string> default_parameters(const EngineCase& c, const std::vector<LabSample>& samples,
+                                            std::vector<std::string>& why, std::vector<std::string>& warnings) {
+  bool tbn = false, tan = false, ox = false, nitr = false, method_differs = false;
+  BaseNumberMethod lab_method = c.model.limits.tbn_method;
+  for (const LabSample& s : samples) {
+    tbn |= s.tbn.has_value(), tan |= s.tan.has_value(), ox |= s.oxidation.has_value(), nitr |= s.nitration.has_value();
+    if (s.tbn && s.tbn_method != c.model.limits.tbn_method) method_differs = true, lab_method = s.tbn_method;
+  }
+  std::vector<std::string> keys;
+  if ((tbn || tan) && record_sulfur(c) > 0) {
+    keys.push_back("model.liner-uptake");
+    why.push_back("model.liner-uptake: the acid load from the gas's sulfur, which sets how fast TBN falls");
+  }
+  if (ox) {
+    keys.push_back("model.oxidation-rate");
+    why.push_back("model.oxidation-rate: the lab reports oxidation");
+  }
+  if (ox && tan) {
+    keys.push_back("model.organic-acid-yield");
+    why.push_back("model.organic-acid-yield: the lab reports TAN and oxidation, whose ratio it is");
+  }
+  if (nitr) {
+    keys.push_back("model.nitration-yield");
+    why.push_back("model.nitration-yield: the lab reports nitration (a charge can end by it)");
+  }
+  if (method_differs) {
+    const std::string m = method_name(lab_method), l = method_name(c.model.limits.tbn_method);
+    keys.push_back(lab_method == BaseNumberMethod::d2896 ? "model.weak-base-d2896" : "model.weak-base-d4739");
+    why.push_back(keys.back() + ": the lab titrates TBN by " + m + ", the limit is set by " + l);
+    warnings.push_back("the lab's TBN method (" + m + ") differs from the limit's (" + l +
+                       "): the weak-base offset between them is fitted and can take up part of the TBN fall; "
+                       "a fresh-oil sample titrated by both methods pins it down");
+  }
+  if (keys.empty()) throw FitRefusedError("cannot choose parameters to fit: the samples report no TBN, TAN, oxidation or nitration");
+  return keys;
+}
+
+FitResult calibrate(const EngineCase& c, const std::vector<LabSample>& samples, const FitSettings& s0) {
+  FitSettings s = s0;
+  FitResult out;
+  if (s.parameters.empty()) {
+    s.parameters = default_parameters(c, samples, out.notes, out.warnings);
+    out.notes.insert(out.notes.begin(), "parameters chosen for what the lab reports (name them to choose yourself):");
+  }
+  Problem pr{c, samples, s, {}, {}, {}, {}};
+  const double sulfur = record_sulfur(c);
   for (std::size_t j = 0; j < s.parameters.size(); ++j) {
     const ParameterInfo& info = parameter(s.parameters[j]);
     for (std::size_t k = 0; k < j; ++k)
       if (s.parameters[k] == s.parameters[j]) throw InputError("fit parameters", s.parameters[j], "each parameter once");
+    pr.info.push_back(&info);
+    pr.prior.push_back(to_fit_space(info, inside_range(info, get_parameter(c, info.key))));
+    pr.prior_sd.push_back(info.prior_sd);
     if (is_sulfur_parameter(info.key) && sulfur == 0)
-      throw FitRefusedError("cannot fit " + info.key + ": no contaminant signal (the record's gas carries no sulfur)");
-    pr.bounds.push_back(info.bound);
-    const double x0 = get_parameter(c, info.key);
-    if ((info.bound == Bound::positive && !(x0 > 0)) || (info.bound == Bound::share && !(x0 > 0 && x0 < 1)))
-      throw InputError(info.key, format_value(x0),
-                       std::string("a starting value inside the parameter's bounds (") +
-                           (info.bound == Bound::share ? "between 0 and 1" : "above 0") +
-                           ") — set one in the case's model section before fitting");
-    phi[static_cast<Eigen::Index>(j)] = to_fit_space(info.bound, x0);
+      out.flags.push_back(info.key + " held at its prior: no contaminant signal (the record's gas carries no sulfur)");
+    else
+      pr.active.push_back(j);
+    if ((info.key == "model.weak-base-d2896" || info.key == "model.weak-base-d4739") && s0.parameters.size()) {
+      const BaseNumberMethod m = info.key == "model.weak-base-d2896" ? BaseNumberMethod::d2896 : BaseNumberMethod::d4739;
+      bool differs = false;
+      for (const LabSample& x : samples) differs |= x.tbn && x.tbn_method == m && m != c.model.limits.tbn_method;
+      if (differs)
+        out.warnings.push_back(info.key + " is fitted while the limit's TBN method differs from the lab's: the offset can "
+                               "take up part of the TBN fall; a fresh-oil sample titrated by both methods pins it down");
+    }
   }
-  Eigen::VectorXd r = pr.residuals(phi);
-  const Eigen::Index n = r.size(), p = phi.size();
-  if (n <= p)
-    throw FitRefusedError("cannot fit " + std::to_string(p) + " parameter(s) to " + std::to_string(n) +
-                          " reading(s): a fit needs more readings than parameters");
-  Eigen::MatrixXd J = pr.jacobian(phi, n);
-  check_identifiable(J, s.parameters, "at the starting values");
+  const std::size_t p_listed = s.parameters.size();
+  Eigen::VectorXd a(static_cast<Eigen::Index>(pr.active.size()));
+  for (std::size_t j = 0; j < pr.active.size(); ++j) a[static_cast<Eigen::Index>(j)] = pr.prior[pr.active[j]];
+  {
+    const Eigen::VectorXd r = pr.data_residuals(a);
+    if (static_cast<std::size_t>(r.size()) <= p_listed)
+      throw FitRefusedError("cannot fit " + std::to_string(p_listed) + " parameter(s) to " + std::to_string(r.size()) +
+                            " reading(s): a fit needs more readings than parameters");
+  }
+  // Hold what the samples do not respond to: its data alone would leave it 20 prior widths wide.
+  const auto hold_flat = [&](const Eigen::VectorXd& a, const char* when) {
+    const Eigen::VectorXd r = pr.data_residuals(a);
+    const Eigen::MatrixXd J = pr.jacobian(a, r, true);
+    std::vector<std::size_t> keep;
+    Eigen::VectorXd kept_a(a.size());
+    Eigen::Index m = 0;
+    for (std::size_t j = 0; j < pr.active.size(); ++j) {
+      const std::size_t k = pr.active[j];
+      if (J.col(static_cast<Eigen::Index>(j)).norm() * pr.prior_sd[k] < 0.05) {
+        out.flags.push_back(s.parameters[k] + " held at its prior value (" + format_value(from_fit_space(*pr.info[k], pr.prior[k])) +
+                            "): the samples do not respond to it " + when + "; add readings that do, or fix it");
+      } else {
+        keep.push_back(k);
+        kept_a[m++] = a[static_cast<Eigen::Index>(j)];
+      }
+    }
+    pr.active = keep;
+    return Eigen::VectorXd(kept_a.head(m));
+  };
+  a = hold_flat(a, "at the starting values");
 
-  // Levenberg–Marquardt with Marquardt's diagonal scaling
-  FitResult out;
+  // Levenberg–Marquardt with Marquardt's diagonal scaling, on the readings and the prior rows
+  Eigen::VectorXd r = pr.residuals(a);
+  Eigen::MatrixXd J = pr.jacobian(a, r, false);
   double cost = r.squaredNorm(), mu = 1e-3;
-  for (out.iterations = 0; out.iterations < s.max_iterations; ++out.iterations) {
+  for (out.iterations = 0; a.size() > 0 && out.iterations < s.max_iterations; ++out.iterations) {
     const Eigen::MatrixXd A = J.transpose() * J;
     const Eigen::VectorXd g = J.transpose() * r;
     bool improved = false;
@@ -224,22 +330,22 @@ FitResult calibrate(const EngineCase& c, const std::vector<LabSample>& samples, 
       Eigen::MatrixXd M = A;
       M.diagonal() += mu * A.diagonal().cwiseMax(1e-12);
       const Eigen::VectorXd step = M.ldlt().solve(-g);
-      const Eigen::VectorXd trial = phi + step;
+      const Eigen::VectorXd trial = a + step;
       Eigen::VectorXd rt;
       try {
         rt = pr.residuals(trial);
-      } catch (const InputError&) {  // a step outside what the model accepts: shorten it
+      } catch (const InputError&) {  // a combination the model refuses: shorten the step
         mu *= 10;
         continue;
       }
       const double ct = rt.squaredNorm();
       if (ct < cost) {
         const double drop = cost - ct;
-        phi = trial, r = rt;
+        a = trial, r = rt;
         cost = ct;
         mu = std::max(mu / 10, 1e-12);
         improved = true;
-        if (step.norm() < 1e-11 * (1 + phi.norm()) || drop < 1e-15 * (1 + cost)) out.converged = true;
+        if (step.norm() < 1e-11 * (1 + a.norm()) || drop < 1e-15 * (1 + cost)) out.converged = true;
       } else {
         mu *= 10;
       }
@@ -248,49 +354,93 @@ FitResult calibrate(const EngineCase& c, const std::vector<LabSample>& samples, 
       out.converged = g.norm() < 1e-6 * (1 + cost) || mu > 1e10;
       break;
     }
-    J = pr.jacobian(phi, n);
+    J = pr.jacobian(a, r, false);
     if (out.converged) break;
   }
-  check_identifiable(J, s.parameters, "at the optimum");
+  if (a.size() == 0) out.converged = true;
 
+  const Eigen::VectorXd rd = pr.data_residuals(a);
+  const Eigen::Index n = rd.size(), p = a.size();
   out.observations = static_cast<int>(n);
   out.degrees_of_freedom = static_cast<int>(n - p);
-  out.sum_of_squares = cost;
-  out.s2 = cost / static_cast<double>(n - p);
-  const Eigen::MatrixXd cov = out.s2 * (J.transpose() * J).inverse();
-  out.covariance.assign(static_cast<std::size_t>(p), std::vector<double>(static_cast<std::size_t>(p)));
-  out.correlation = out.covariance;
-  for (Eigen::Index i = 0; i < p; ++i)
-    for (Eigen::Index k = 0; k < p; ++k) {
-      out.covariance[static_cast<std::size_t>(i)][static_cast<std::size_t>(k)] = cov(i, k);
-      out.correlation[static_cast<std::size_t>(i)][static_cast<std::size_t>(k)] = cov(i, k) / std::sqrt(cov(i, i) * cov(k, k));
+  out.sum_of_squares = rd.squaredNorm();
+  out.s2 = out.sum_of_squares / static_cast<double>(n - p);
+  out.chi2_p = chi2_upper_tail(out.sum_of_squares, out.degrees_of_freedom);
+  // posterior covariance of the active ones, widened by the reduced χ² when the fit is worse than
+  // the lab precisions say (never narrowed below them)
+  Eigen::MatrixXd H = J.transpose() * J;
+  if (!s.priors) H = pr.jacobian(a, rd, true).transpose() * pr.jacobian(a, rd, true);
+  const Eigen::MatrixXd cov = p > 0 ? Eigen::MatrixXd(std::max(1.0, out.s2) * H.inverse()) : Eigen::MatrixXd(0, 0);
+  const std::vector<double> phi = pr.full(a);
+  out.covariance.assign(p_listed, std::vector<double>(p_listed, 0.0));
+  out.correlation.assign(p_listed, std::vector<double>(p_listed, 0.0));
+  std::vector<int> slot(p_listed, -1);
+  for (std::size_t j = 0; j < pr.active.size(); ++j) slot[pr.active[j]] = static_cast<int>(j);
+  for (std::size_t i = 0; i < p_listed; ++i)
+    for (std::size_t k = 0; k < p_listed; ++k) {
+      double v = 0;
+      if (slot[i] >= 0 && slot[k] >= 0) v = cov(slot[i], slot[k]);
+      else if (i == k) v = pr.prior_sd[i] * pr.prior_sd[i];  // held: its prior's spread
+      out.covariance[i][k] = v;
     }
-  for (Eigen::Index j = 0; j < p; ++j) {
+  for (std::size_t i = 0; i < p_listed; ++i)
+    for (std::size_t k = 0; k < p_listed; ++k)
+      out.correlation[i][k] = out.covariance[i][k] / std::sqrt(out.covariance[i][i] * out.covariance[k][k]);
+  for (std::size_t j = 0; j < p_listed; ++j) {
     FittedParameter f;
-    f.key = s.parameters[static_cast<std::size_t>(j)];
+    f.key = s.parameters[j];
     f.initial = get_parameter(c, f.key);
     f.fit_estimate = phi[j];
-    f.fit_standard_error = std::sqrt(cov(j, j));
-    f.estimate = from_fit_space(pr.bounds[static_cast<std::size_t>(j)], phi[j]);
-    f.standard_error = dx_dphi(pr.bounds[static_cast<std::size_t>(j)], phi[j]) * f.fit_standard_error;  // delta method
+    f.fit_standard_error = std::sqrt(out.covariance[j][j]);
+    f.estimate = from_fit_space(*pr.info[j], phi[j]);
+    f.standard_error = dx_dphi(*pr.info[j], phi[j]) * f.fit_standard_error;  // delta method
+    f.prior = pr.prior[j];
+    f.prior_sd = pr.prior_sd[j];
+    f.held = slot[j] < 0;
     out.parameters.push_back(f);
   }
-  out.fitted = pr.at(phi);
-  out.residuals = predict(out.fitted, samples, s.precision);
+  for (std::size_t i = 0; i < pr.active.size(); ++i)
+    for (std::size_t k = i + 1; k < pr.active.size(); ++k) {
+      const double rho = out.correlation[pr.active[i]][pr.active[k]];
+      if (std::fabs(rho) > 0.95)
+        out.flags.push_back(s.parameters[pr.active[i]] + " and " + s.parameters[pr.active[k]] +
+                            ": the samples can hardly tell them apart (correlation " + rounded(rho, 3) +
+                            "); their split rests on the priors — fix one, or add readings that separate them");
+    }
+  // a fitted parameter the data barely constrain: its estimate is mostly its prior's
+  for (std::size_t j = 0; j < pr.active.size(); ++j) {
+    const std::size_t k = pr.active[j];
+    if (out.parameters[k].fit_standard_error > 0.7 * pr.prior_sd[k])
+      out.flags.push_back(s.parameters[k] + ": the samples say little about it (its error is " +
+                          rounded(out.parameters[k].fit_standard_error / pr.prior_sd[k]) +
+                          " of the prior's width); its estimate is mostly the prior's");
+  }
+  out.fitted = pr.at(a);
+  out.samples = samples;
+  out.precision = s.precision;
+  out.lab_precision = s.lab_precision;
+  out.residuals = predict(out.fitted, samples, s.precision, s.lab_precision);
   const double s_fit = std::sqrt(out.s2);
   for (SampleResidual& x : out.residuals) {
     x.outlier = std::fabs(x.standardized) > s.outlier_threshold * std::max(1.0, s_fit);
     if (x.outlier)
-      out.flags.push_back("outlier: " + x.reading + " of the sample " + samples[x.sample].where + " is " +
-                          format_value(std::round(x.standardized * 10) / 10) + " sigma from the fit");
+      out.flags.push_back("outlier: " + x.reading + " of sample " + std::to_string(x.sample + 1) + " (" + samples[x.sample].where +
+                          ") is " + format_value(std::round(x.standardized * 10) / 10) + " sigma from the fit");
   }
   for (std::size_t i = 1; i < samples.size(); ++i) {
     if (!samples[i].lab.empty() && !samples[i - 1].lab.empty() && samples[i].lab != samples[i - 1].lab)
-      out.flags.push_back("lab change between " + samples[i - 1].where + " (" + samples[i - 1].lab + ") and " +
-                          samples[i].where + " (" + samples[i].lab + "): compare their fresh-oil references");
+      out.flags.push_back("lab change between sample " + std::to_string(i) + " (" + samples[i - 1].where + ", " + samples[i - 1].lab +
+                          ") and sample " + std::to_string(i + 1) + " (" + samples[i].where + ", " + samples[i].lab +
+                          "): compare their fresh-oil references (an FTIR baseline per lab can be set)");
     if (samples[i].tbn && samples[i - 1].tbn && samples[i].tbn_method != samples[i - 1].tbn_method)
-      out.flags.push_back("TBN method change between " + samples[i - 1].where + " and " + samples[i].where);
+      out.flags.push_back("TBN method change between sample " + std::to_string(i) + " (" + samples[i - 1].where + ") and sample " +
+                          std::to_string(i + 1) + " (" + samples[i].where + ")");
   }
+  if (out.degrees_of_freedom > 0 && out.chi2_p < 0.001 && out.s2 > 1.5)
+    out.warnings.push_back("the model does not describe this plant's samples within the lab precisions (reduced chi-square " +
+                           rounded(out.s2, 3) + " on " + std::to_string(out.degrees_of_freedom) +
+                           " degrees of freedom, p < 0.001): the errors and bands are widened by it, but check the "
+                           "precisions, outliers and lab changes, and treat forecasts with care");
   return out;
 }
 

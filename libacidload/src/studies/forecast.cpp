@@ -1,59 +1,328 @@
 #include "acidload/studies/forecast.hpp"
 
-#include <array>
+#include <Eigen/Dense>
+#include <algorithm>
 #include <cmath>
+#include <cstdio>
 #include <limits>
 
+#include "acidload/core/error.hpp"
+#include "acidload/studies/monte_carlo.hpp"
 #include "acidload/studies/parameters.hpp"
 
 namespace acidload {
 
-// ---- forecast -------------------------------------------------------------------------------
-
 namespace {
-std::array<double, limit_count> remaining_hours(const EngineCase& c) {
-  EngineCase x = c;
-  Segment future = x.record.back();
-  future.events.clear();
-  future.hours = x.model.limits.max_hours;
-  future.starts = x.record.back().hours > 0 ? x.record.back().starts / x.record.back().hours * future.hours : 0;
-  future.calendar_hours = -1;
-  x.record.push_back(future);
+
+constexpr double inf = std::numeric_limits<double>::infinity();
+
+std::string g3(double v) {
+  char b[32];
+  std::snprintf(b, sizeof b, "%.3g", v);
+  return b;
+}
+
+double hours_of(const std::vector<Segment>& r) {
+  double t = 0;
+  for (const Segment& s : r) t += s.hours;
+  return t;
+}
+
+std::vector<double> charge_starts(const std::vector<Segment>& record) {
+  std::vector<double> starts{0};
+  double t = 0;
+  for (const Segment& s : record) {
+    for (const OilEvent& e : s.events)
+      if (e.kind == OilEvent::Kind::oil_change) starts.push_back(t);
+    t += s.hours;
+  }
+  return starts;
+}
+
+// A piece of a segment: `hours` of it, its starts and calendar time in proportion.
+Segment piece(const Segment& s, double hours, bool keep_events) {
+  Segment p = s;
+  p.starts = s.hours > 0 ? s.starts * hours / s.hours : 0;
+  p.calendar_hours = s.calendar_hours < 0 ? -1 : s.calendar_hours * hours / s.hours;
+  p.hours = hours;
+  if (!keep_events) p.events.clear();
+  return p;
+}
+
+// The record cut at engine hours t: what runs before and what runs after.
+std::pair<std::vector<Segment>, std::vector<Segment>> cut(const std::vector<Segment>& record, double t) {
+  std::vector<Segment> before, after;
+  double t0 = 0;
+  for (const Segment& s : record) {
+    const double t1 = t0 + s.hours;
+    if (t1 <= t + 1e-9) before.push_back(s);
+    else if (t0 >= t - 1e-9) after.push_back(s);
+    else {
+      before.push_back(piece(s, t - t0, true));
+      after.push_back(piece(s, t1 - t, false));
+    }
+    t0 = t1;
+  }
+  return {before, after};
+}
+
+// The conditions to run on: the planned segments, the last continued to the hours cap.
+std::vector<Segment> future_of(const EngineCase& c, const std::vector<Segment>& planned) {
+  std::vector<Segment> f = planned.empty() ? std::vector<Segment>{piece(c.record.back(), c.record.back().hours, false)} : planned;
+  f.push_back(piece(f.back(), c.model.limits.max_hours, false));
+  f.back().hours = c.model.limits.max_hours;
+  f.back().starts = planned.empty() && c.record.back().hours > 0 ? c.record.back().starts / c.record.back().hours * f.back().hours
+                                                                  : (f[f.size() - 2].hours > 0 ? f[f.size() - 2].starts / f[f.size() - 2].hours * f.back().hours : 0);
+  f.back().calendar_hours = -1;
+  return f;
+}
+
+RunOptions quiet() {
   RunOptions o;
   o.output_interval = 0;
-  const RunResult r = simulate(x.charge, x.model, x.record, o);
-  const ChargeSummary& ch = r.charges.back();
-  const double at_end = ch.oil_hours - future.hours;  // oil hours at the end of the record
-  std::array<double, limit_count> out{};
-  for (std::size_t k = 0; k < limit_count; ++k)
-    out[k] = ch.reached_at[k] >= 0 ? ch.reached_at[k] - at_end : std::numeric_limits<double>::infinity();
+  o.keep_segment_ends = false;
+  return o;
+}
+
+// The readings of a state (the FTIR ones without the lab's baseline).
+double reading_of(const std::string& r, const OilState& x, const OilProperties& oil, BaseNumberMethod m) {
+  if (r == "tbn") return tbn(x, oil, m);
+  if (r == "tan") return tan(x, oil);
+  if (r == "san") return san(x);
+  if (r == "oxidation") return x.oxidation;
+  return x.nitration;
+}
+
+// The latest sample of the current (last) charge, or none.
+std::optional<std::size_t> latest_in_current(const FitResult& fit) {
+  const int last = static_cast<int>(charge_starts(fit.fitted.record).size()) - 1;
+  std::optional<std::size_t> k;
+  for (std::size_t i = 0; i < fit.samples.size(); ++i)
+    if (fit.samples[i].charge == last && (!k || fit.samples[i].oil_hours >= fit.samples[*k].oil_hours)) k = i;
+  return k;
+}
+
+struct Reading {
+  std::string name;
+  double measured = 0, sigma = 0, gain = 0;
+};
+
+// The measured readings of a sample that update the state (a censored SAN does not).
+std::vector<Reading> readings_of(const FitResult& fit, const LabSample& s) {
+  std::vector<Reading> r;
+  const auto add = [&](const char* n, const std::optional<double>& v, double baseline) {
+    if (v) r.push_back({n, *v - baseline, reading_sigma(s, n, fit.precision, fit.lab_precision), 0});
+  };
+  add("tbn", s.tbn, 0);
+  add("tan", s.tan, 0);
+  if (!s.san_censored) add("san", s.san, 0);
+  add("oxidation", s.oxidation, s.oxidation_baseline);
+  add("nitration", s.nitration, s.nitration_baseline);
+  return r;
+}
+
+// The state at the sample as the model has it (case c), then moved toward each reading by its gain.
+OilState updated_state(const EngineCase& c, const std::vector<Segment>& before, const std::vector<Reading>& readings,
+                       BaseNumberMethod method, std::vector<StateUpdate>* log) {
+  OilState x = simulate(c.charge, c.model, before, quiet()).final_state;
+  for (const Reading& r : readings) {
+    const double model = reading_of(r.name, x, c.charge.oil, method);
+    const double d = r.gain * (r.measured - model);
+    if (r.name == "tbn") x.base = std::max(0.0, x.base + d);
+    else if (r.name == "tan") x.weak_acid = std::max(0.0, x.weak_acid + d);
+    else if (r.name == "san") x.strong_acid = std::max(0.0, x.strong_acid + d);
+    else if (r.name == "oxidation") x.oxidation = std::max(0.0, x.oxidation + d);
+    else x.nitration = std::max(0.0, x.nitration + d);
+    if (log) log->push_back({r.name, model, r.measured, reading_of(r.name, x, c.charge.oil, method), r.gain});
+  }
+  return x;
+}
+
+EngineCase with_phi(const FitResult& fit, const std::vector<double>& phi) {
+  EngineCase c = fit.fitted;
+  for (std::size_t j = 0; j < fit.parameters.size(); ++j)
+    set_parameter(c, fit.parameters[j].key, from_fit_space(parameter(fit.parameters[j].key), phi[j]));
+  return c;
+}
+
+std::vector<double> phi_hat(const FitResult& fit) {
+  std::vector<double> phi;
+  for (const FittedParameter& p : fit.parameters) phi.push_back(p.fit_estimate);
+  return phi;
+}
+
+// Where the current charge starts from: the lab-first state at the latest sample, or a fresh run.
+struct Start {
+  bool lab_first = false;
+  std::size_t sample = 0;
+  double oil_hours = 0;             // at the start [h]
+  std::vector<Segment> before, rest;  // the record up to the sample, and after it
+  std::vector<Reading> readings;    // with their gains
+  BaseNumberMethod method = BaseNumberMethod::d4739;
+};
+
+Start start_of(const FitResult& fit, bool lab_first) {
+  Start st;
+  const EngineCase& c = fit.fitted;
+  const auto k = lab_first ? latest_in_current(fit) : std::nullopt;
+  if (!k) {
+    st.rest = c.record;
+    return st;
+  }
+  st.lab_first = true;
+  st.sample = *k;
+  const LabSample& s = fit.samples[*k];
+  st.method = s.tbn_method;
+  st.oil_hours = s.oil_hours;
+  const std::vector<double> starts = charge_starts(c.record);
+  std::tie(st.before, st.rest) = cut(c.record, starts.back() + s.oil_hours);
+  st.readings = readings_of(fit, s);
+  // gains K = P/(P + σ²), P the model's variance of the reading: the parameters' (linearised
+  // from the covariance) plus the scatter beyond the lab precision the fit shows, (χ²ᵣ − 1)₊·σ²
+  const std::vector<double> phi = phi_hat(fit);
+  const OilState x0 = simulate(c.charge, c.model, st.before, quiet()).final_state;
+  const std::size_t p = phi.size(), m = st.readings.size();
+  Eigen::MatrixXd G = Eigen::MatrixXd::Zero(static_cast<Eigen::Index>(m), static_cast<Eigen::Index>(p));
+  for (std::size_t j = 0; j < p; ++j) {
+    const double h = 1e-4 * std::max(1.0, std::fabs(phi[j]));
+    std::vector<double> up = phi, down = phi;
+    up[j] += h, down[j] -= h;
+    const EngineCase a = with_phi(fit, up), b = with_phi(fit, down);
+    const OilState xa = simulate(a.charge, a.model, st.before, quiet()).final_state;
+    const OilState xb = simulate(b.charge, b.model, st.before, quiet()).final_state;
+    for (std::size_t i = 0; i < m; ++i)
+      G(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(j)) =
+          (reading_of(st.readings[i].name, xa, a.charge.oil, st.method) - reading_of(st.readings[i].name, xb, b.charge.oil, st.method)) / (2 * h);
+  }
+  Eigen::MatrixXd S(static_cast<Eigen::Index>(p), static_cast<Eigen::Index>(p));
+  for (std::size_t i = 0; i < p; ++i)
+    for (std::size_t j = 0; j < p; ++j) S(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(j)) = fit.covariance[i][j];
+  (void)x0;
+  for (std::size_t i = 0; i < m; ++i) {
+    Reading& r = st.readings[i];
+    const Eigen::RowVectorXd gi = G.row(static_cast<Eigen::Index>(i));
+    const double P = (gi * S * gi.transpose())(0, 0) + std::max(0.0, fit.s2 - 1) * r.sigma * r.sigma;
+    r.gain = P / (P + r.sigma * r.sigma);
+  }
+  return st;
+}
+
+// Runs the current charge on from its start (and, for the next charge, an oil change and the
+// future): returns the run and the oil hours of the current charge at the end of the record.
+struct Ran {
+  RunResult run;
+  double end_oil_hours = 0;
+  OilState at_sample;
+};
+Ran run_on(const EngineCase& c, const Start& st, const std::vector<Segment>& future, bool next_charge,
+           std::vector<StateUpdate>* log) {
+  Ran out;
+  std::vector<Segment> rec = st.rest;
+  const double rest_hours = hours_of(st.rest);
+  std::vector<Segment> f = future;
+  if (next_charge) f.front().events.insert(f.front().events.begin(), OilEvent{OilEvent::Kind::oil_change, -1});
+  rec.insert(rec.end(), f.begin(), f.end());
+  RunOptions o = quiet();
+  if (st.lab_first) {
+    out.at_sample = updated_state(c, st.before, st.readings, st.method, log);
+    out.run = simulate(c.charge, c.model, rec, o, out.at_sample, st.oil_hours);
+    out.end_oil_hours = st.oil_hours + rest_hours;
+  } else {
+    out.run = simulate(c.charge, c.model, rec, o);
+    const std::vector<double> starts = charge_starts(c.record);
+    out.end_oil_hours = hours_of(c.record) - starts.back();
+  }
   return out;
 }
+
+double charge_interval(const ChargeSummary& ch, const EngineCase& c) {
+  return ch.first ? ch.drain_interval : c.model.limits.max_hours;
+}
+
+// The lab readings of the latest sample against every limit it can be read against.
+void already_by_sample(const FitResult& fit, const LabSample& s, const LabLimits& lab, std::vector<LimitForecast>& out) {
+  const LimitSettings& L = fit.fitted.model.limits;
+  const OilProperties& oil = fit.fitted.charge.oil;
+  const auto mark = [&](Limit l, const std::string& why) {
+    for (LimitForecast& f : out)
+      if (f.key == name(l) && !f.already) f.already = true, f.reached = true, f.remaining = f.low = f.high = 0, f.why = why;
+  };
+  const auto on = [&](Limit l) { return L.enabled[static_cast<std::size_t>(l)]; };
+  std::optional<double> tbn_l;  // the sample's TBN by the limit's method
+  if (s.tbn) tbn_l = *s.tbn - oil.weak_base(s.tbn_method) + oil.weak_base(L.tbn_method);
+  const std::string at = " in sample " + std::to_string(&s - fit.samples.data() + 1) + " (" + s.where + ")";
+  if (tbn_l && on(Limit::tbn_fall)) {
+    const double lim = L.tbn_share_of_fresh * (oil.fresh_reactive_base() + oil.weak_base(L.tbn_method));
+    if (*tbn_l <= lim) mark(Limit::tbn_fall, "TBN " + g3(*s.tbn) + at + " is at or below the limit " + g3(lim) + " mg KOH/g");
+  }
+  if (s.tan && on(Limit::tan_rise) && *s.tan >= oil.fresh_tan + L.tan_rise)
+    mark(Limit::tan_rise, "TAN " + g3(*s.tan) + at + " is at or above fresh + " + g3(L.tan_rise) + " = " + g3(oil.fresh_tan + L.tan_rise));
+  if (s.tan && tbn_l && on(Limit::crossover) && L.crossover && *s.tan >= *tbn_l)
+    mark(Limit::crossover, "TAN " + g3(*s.tan) + at + " is at or above TBN " + g3(*tbn_l));
+  if (s.san && !s.san_censored && on(Limit::san) && *s.san > L.san)
+    mark(Limit::san, "SAN " + g3(*s.san) + at + (L.san == 0 ? " shows free strong acid (limit: any)" : " is above the limit " + g3(L.san)));
+  if (s.oxidation && on(Limit::oxidation) && *s.oxidation - s.oxidation_baseline >= L.oxidation)
+    mark(Limit::oxidation, "oxidation " + g3(*s.oxidation - s.oxidation_baseline) + " A/cm" + at + " is at or above " + g3(L.oxidation));
+  if (s.nitration && on(Limit::nitration) && *s.nitration - s.nitration_baseline >= L.nitration)
+    mark(Limit::nitration, "nitration " + g3(*s.nitration - s.nitration_baseline) + " A/cm" + at + " is at or above " + g3(L.nitration));
+  if (s.initial_ph) {
+    LimitForecast f;
+    f.key = "i-ph";
+    f.limit = Limit::max_hours;
+    f.remaining = inf;
+    if (*s.initial_ph <= lab.initial_ph) {
+      f.already = f.reached = true;
+      f.remaining = 0;
+      f.why = "i-pH " + g3(*s.initial_ph) + at + " is at or below " + g3(lab.initial_ph);
+    }
+    out.push_back(f);
+  }
+}
+
 }  // namespace
 
-std::vector<LimitForecast> forecast(const FitResult& fit) {
+Forecast forecast_current(const FitResult& fit, const LabLimits& lab) {
+  Forecast out;
   const EngineCase& c = fit.fitted;
-  const std::array<double, limit_count> t0 = remaining_hours(c);
-  const std::size_t p = fit.parameters.size();
+  const Start st = start_of(fit, true);
+  out.lab_first = st.lab_first;
+  out.latest_sample = st.sample;
+  out.start_oil_hours = st.oil_hours;
+  const std::vector<Segment> future = future_of(c, {});
+  const auto remaining = [&](const EngineCase& x, std::vector<StateUpdate>* log, Ran* keep) {
+    Ran r = run_on(x, st, future, false, log);
+    const ChargeSummary& ch = r.run.charges.back();  // the rest of the record holds no oil change
+    std::array<double, limit_count> t{};
+    for (std::size_t k = 0; k < limit_count; ++k) t[k] = ch.reached_at[k] >= 0 ? ch.reached_at[k] - r.end_oil_hours : inf;
+    if (keep) *keep = std::move(r);
+    return t;
+  };
+  Ran centre;
+  const std::array<double, limit_count> t0 = remaining(c, &out.update, &centre);
+  out.start = centre.at_sample;
+  out.end_oil_hours = centre.end_oil_hours;
+  // linearised band: gradients in fit space (the gains held), the covariance
+  const std::vector<double> phi = phi_hat(fit);
+  const std::size_t p = phi.size();
   std::vector<std::array<double, limit_count>> grad(p);
   for (std::size_t j = 0; j < p; ++j) {
-    const ParameterInfo& info = parameter(fit.parameters[j].key);
-    const double phi = fit.parameters[j].fit_estimate, h = 1e-4 * std::max(1.0, std::fabs(phi));
-    EngineCase a = c, b = c;
-    set_parameter(a, info.key, from_fit_space(info.bound, phi + h));
-    set_parameter(b, info.key, from_fit_space(info.bound, phi - h));
-    const auto ta = remaining_hours(a), tb = remaining_hours(b);
+    const double h = 1e-4 * std::max(1.0, std::fabs(phi[j]));
+    std::vector<double> up = phi, down = phi;
+    up[j] += h, down[j] -= h;
+    const auto ta = remaining(with_phi(fit, up), nullptr, nullptr), tb = remaining(with_phi(fit, down), nullptr, nullptr);
     for (std::size_t k = 0; k < limit_count; ++k) grad[j][k] = (ta[k] - tb[k]) / (2 * h);
   }
-  std::vector<LimitForecast> out;
   for (std::size_t k = 0; k < limit_count; ++k) {
+    if (!c.model.limits.enabled[k]) continue;
     LimitForecast f;
     f.limit = all_limits[k];
+    f.key = std::string(name(f.limit));
     f.reached = std::isfinite(t0[k]);
     f.remaining = t0[k];
     if (f.reached && t0[k] <= 0) {
       f.already = true;
       f.remaining = f.low = f.high = 0;
+      f.why = "the model, started from the latest sample, passes it before the end of the record";
     } else if (f.reached) {
       double var = 0;
       for (std::size_t i = 0; i < p; ++i)
@@ -62,9 +331,161 @@ std::vector<LimitForecast> forecast(const FitResult& fit) {
       const double half = 1.6448536269514722 * std::sqrt(std::max(0.0, var));  // 90 %: z(0.95)
       f.low = std::max(0.0, t0[k] - half);
       f.high = t0[k] + half;
+    } else {
+      f.low = f.high = inf;
     }
-    out.push_back(f);
+    out.limits.push_back(f);
   }
+  if (st.lab_first) already_by_sample(fit, fit.samples[st.sample], lab, out.limits);
+  double first = inf, first_low = inf;
+  for (const LimitForecast& f : out.limits) {
+    out.change_now |= f.already;
+    if (f.reached && f.remaining < first) first = f.remaining, first_low = f.low;
+  }
+  // next sample: the regular interval after the latest sample, or halfway to the band's early end
+  // when that comes sooner
+  const double since = st.lab_first ? out.end_oil_hours - out.start_oil_hours : 0;
+  out.next_sample_in = out.change_now ? 0 : std::max(0.0, std::min(lab.sample_interval - since, 0.5 * first_low));
+  (void)first;
+  out.warnings = fit.warnings;
+  if (!st.lab_first) out.warnings.push_back("no sample of the current charge: the forecast starts from the model, not from a measurement");
+  return out;
+}
+
+std::vector<LimitForecast> forecast(const FitResult& fit) { return forecast_current(fit).limits; }
+
+// ---- predict --------------------------------------------------------------------------------
+
+namespace {
+
+double normal01(std::uint64_t seed, std::uint64_t draw, std::uint64_t dim) {
+  return std::sqrt(-2 * std::log(uniform01(seed, draw, 2 * dim))) * std::cos(6.283185307179586 * uniform01(seed, draw, 2 * dim + 1));
+}
+
+// The interval of charge k of the record, continued under its own last segment to the cap.
+double interval_of_charge(const EngineCase& c, int k) {
+  std::vector<Segment> rec;
+  int charge = 0;
+  for (std::size_t i = 0; i < c.record.size(); ++i) {
+    bool change = false;
+    for (const OilEvent& e : c.record[i].events) change |= e.kind == OilEvent::Kind::oil_change;
+    if (change && i > 0) ++charge;
+    if (charge > k) break;
+    rec.push_back(c.record[i]);
+  }
+  EngineCase x = c;
+  x.record = rec;
+  const std::vector<Segment> f = future_of(x, {});
+  rec.push_back(f.back());
+  const RunResult r = simulate(c.charge, c.model, rec, quiet());
+  return charge_interval(r.charges.back(), c);
+}
+
+}  // namespace
+
+Prediction predict_charge(const FitResult& fit, const PredictSettings& s) {
+  check::in_range("draws", s.draws, 0, 1e6, "");
+  for (const Segment& seg : s.conditions) check::positive("planned segment hours", seg.hours);
+  Prediction out;
+  out.next_charge = s.next_charge;
+  const EngineCase& c = fit.fitted;
+  out.current = forecast_current(fit, s.lab);
+  const Start st = start_of(fit, s.lab_first);
+  const std::vector<Segment> future = future_of(c, s.conditions);
+  const auto interval = [&](const EngineCase& x, std::optional<Limit>* limit) {
+    const Ran r = run_on(x, st, future, s.next_charge, nullptr);
+    const ChargeSummary& ch = r.run.charges.back();  // the next, or the current one continued
+    if (limit) *limit = ch.first;
+    return charge_interval(ch, x);
+  };
+  const double end_oil_hours = run_on(c, st, future, false, nullptr).end_oil_hours;
+  out.interval = interval(c, &out.limit);
+
+  // model form: each past charge (with samples, before the current one) from the others
+  const int charges = static_cast<int>(charge_starts(c.record).size());
+  if (s.model_form) {
+    EngineCase original = c;
+    for (const FittedParameter& p : fit.parameters) set_parameter(original, p.key, p.initial);
+    FitSettings fs;
+    for (const FittedParameter& p : fit.parameters) fs.parameters.push_back(p.key);
+    fs.precision = fit.precision;
+    fs.lab_precision = fit.lab_precision;
+    for (int k = 0; k < charges; ++k) {
+      std::vector<LabSample> own, others;
+      for (const LabSample& x : fit.samples) (x.charge == k ? own : others).push_back(x);
+      if (own.size() < 2 || others.size() < 2) continue;
+      try {
+        const FitResult a = calibrate(original, own, fs), b = calibrate(original, others, fs);
+        out.held_out.push_back({k, interval_of_charge(a.fitted, k), interval_of_charge(b.fitted, k)});
+      } catch (const FitRefusedError&) {
+        continue;  // too few readings in one part: that charge tells nothing here
+      }
+    }
+    double ss = 0;
+    for (const HeldOutCharge& h : out.held_out) ss += std::pow(std::log(h.from_others / h.own), 2);
+    if (!out.held_out.empty()) out.model_form_spread = std::sqrt(ss / static_cast<double>(out.held_out.size()));
+    if (out.held_out.size() < 2)
+      out.warnings.push_back("fewer than two past charges could be predicted from the others: the band holds the parameters' "
+                             "uncertainty only, not the model's own error (record more charges with samples)");
+  }
+
+  // draws: φ = φ̂ + L·z, L from the covariance (eigen-decomposition, negative eigenvalues dropped)
+  const std::vector<double> phi = phi_hat(fit);
+  const std::size_t p = phi.size();
+  Eigen::MatrixXd S(static_cast<Eigen::Index>(p), static_cast<Eigen::Index>(p));
+  for (std::size_t i = 0; i < p; ++i)
+    for (std::size_t j = 0; j < p; ++j) S(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(j)) = fit.covariance[i][j];
+  Eigen::MatrixXd L = Eigen::MatrixXd::Zero(S.rows(), S.cols());
+  if (p > 0) {
+    Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> es(S);
+    L = es.eigenvectors() * es.eigenvalues().cwiseMax(0.0).cwiseSqrt().asDiagonal();
+  }
+  const int nu = static_cast<int>(out.held_out.size());
+  std::vector<double> logs;
+  for (int i = 0; i < s.draws; ++i) {
+    Eigen::VectorXd z(static_cast<Eigen::Index>(p));
+    for (std::size_t j = 0; j < p; ++j) z[static_cast<Eigen::Index>(j)] = normal01(s.seed, static_cast<std::uint64_t>(i), j);
+    const Eigen::VectorXd d = L * z;
+    std::vector<double> x = phi;
+    for (std::size_t j = 0; j < p; ++j) x[j] += d[static_cast<Eigen::Index>(j)];
+    std::optional<Limit> lim;
+    double t = 0;
+    try {
+      t = interval(with_phi(fit, x), &lim);
+    } catch (const InputError&) {
+      continue;  // a combination the model refuses (the ranges hold each alone): skipped and counted
+    }
+    out.ending[static_cast<std::size_t>(lim ? *lim : Limit::max_hours)]++;
+    double e = 0;
+    if (nu > 0 && out.model_form_spread > 0) {  // Student t with ν = the held-out charges
+      double chi2 = 0;
+      for (int k = 0; k < nu; ++k) chi2 += std::pow(normal01(s.seed, static_cast<std::uint64_t>(i), p + 1 + static_cast<std::size_t>(k)), 2);
+      e = out.model_form_spread * normal01(s.seed, static_cast<std::uint64_t>(i), p) / std::sqrt(chi2 / nu);
+    }
+    logs.push_back(std::log(t));
+    out.intervals.push_back(std::min(c.model.limits.max_hours, t * std::exp(e)));
+  }
+  out.draws = static_cast<int>(out.intervals.size());
+  if (out.draws < s.draws)
+    out.notes.push_back(std::to_string(s.draws - out.draws) + " of " + std::to_string(s.draws) +
+                        " draws skipped: parameter combinations the model refuses");
+  if (out.draws > 0) {
+    out.p5 = percentile(out.intervals, 5);
+    out.p50 = percentile(out.intervals, 50);
+    out.p95 = percentile(out.intervals, 95);
+    double m = 0, v = 0;
+    for (double x : logs) m += x / static_cast<double>(logs.size());
+    for (double x : logs) v += (x - m) * (x - m) / std::max<double>(1, static_cast<double>(logs.size()) - 1);
+    out.parameter_spread = std::sqrt(v);
+  } else {
+    out.p5 = out.p50 = out.p95 = out.interval;
+  }
+  if (!s.next_charge) {
+    out.remaining_p5 = std::max(0.0, out.p5 - end_oil_hours);
+    out.remaining_p50 = std::max(0.0, out.p50 - end_oil_hours);
+    out.remaining_p95 = std::max(0.0, out.p95 - end_oil_hours);
+  }
+  out.warnings.insert(out.warnings.end(), out.current.warnings.begin(), out.current.warnings.end());
   return out;
 }
 

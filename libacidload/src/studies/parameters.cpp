@@ -1,5 +1,6 @@
 #include "acidload/studies/parameters.hpp"
 
+#include <algorithm>
 #include <cmath>
 
 #include "acidload/core/error.hpp"
@@ -8,30 +9,32 @@
 namespace acidload {
 
 const std::vector<ParameterInfo>& parameter_table() {
+  // Ranges are those the core's validation accepts (core/transfer.cpp, core/oil.cpp).
+  constexpr double ln10 = 2.302585092994046, logit_sd = 2.0;
   static const std::vector<ParameterInfo> t = {
-      {"model.so3-share", "-", Bound::share},
-      {"model.liner-uptake", "-", Bound::share},
-      {"model.liner-wall-rise", "K", Bound::positive},
-      {"model.capture-so2", "-", Bound::share},
-      {"model.capture-no2", "-", Bound::share},
-      {"model.burnt-share-of-blow-by", "-", Bound::share},
-      {"model.wet-so2-factor", "-", Bound::positive},
-      {"model.oxidation-rate", "A/cm per h", Bound::positive},
-      {"model.ring-zone-offset", "K", Bound::positive},
-      {"model.organic-acid-yield", "mg KOH/g per A/cm", Bound::positive},
-      {"model.nitration-yield", "A/cm per mol/kg", Bound::positive},
-      {"model.weak-base-d2896", "mg KOH/g", Bound::positive},
-      {"model.weak-base-d4739", "mg KOH/g", Bound::positive},
-      {"model.base-floor", "mg KOH/g", Bound::positive},
-      {"model.additive-depletion", "1/h", Bound::positive},
-      {"model.salt-titration-share", "-", Bound::share},
-      {"model.organic-neutralised-share", "-", Bound::share},
-      {"engine.blow-by", "-", Bound::share},
-      {"engine.jacket-water-out", "K", Bound::positive},
-      {"fuel.h2s", "ppmv dry", Bound::positive},
-      {"oil.fresh-tbn", "mg KOH/g", Bound::positive},
-      {"oil.volume", "m3", Bound::positive},
-      {"oil.consumption", "kg/h", Bound::positive},
+      {"model.so3-share", "-", Bound::share, 0, 1, logit_sd},
+      {"model.liner-uptake", "-", Bound::interval, 0, 0.1, logit_sd},
+      {"model.liner-wall-rise", "K", Bound::interval, 0, 200, logit_sd},
+      {"model.capture-so2", "-", Bound::share, 0, 1, logit_sd},
+      {"model.capture-no2", "-", Bound::share, 0, 1, logit_sd},
+      {"model.burnt-share-of-blow-by", "-", Bound::share, 0, 1, logit_sd},
+      {"model.wet-so2-factor", "-", Bound::interval, 1, 100, logit_sd},
+      {"model.oxidation-rate", "A/cm per h", Bound::interval, 0, 10, logit_sd},
+      {"model.ring-zone-offset", "K", Bound::interval, 0, 150, logit_sd},
+      {"model.organic-acid-yield", "mg KOH/g per A/cm", Bound::interval, 0, 5, logit_sd},
+      {"model.nitration-yield", "A/cm per mol/kg", Bound::interval, 0, 1e6, logit_sd},
+      {"model.weak-base-d2896", "mg KOH/g", Bound::interval, 0, 10, logit_sd},
+      {"model.weak-base-d4739", "mg KOH/g", Bound::interval, 0, 10, logit_sd},
+      {"model.base-floor", "mg KOH/g", Bound::interval, 0, 40, logit_sd},
+      {"model.additive-depletion", "1/h", Bound::interval, 0, 1, logit_sd},
+      {"model.salt-titration-share", "-", Bound::share, 0, 1, logit_sd},
+      {"model.organic-neutralised-share", "-", Bound::share, 0, 1, logit_sd},
+      {"engine.blow-by", "-", Bound::share, 0, 1, logit_sd},
+      {"engine.jacket-water-out", "K", Bound::interval, 273.15, 423.15, logit_sd},
+      {"fuel.h2s", "ppmv dry", Bound::positive, 0, 0, ln10},
+      {"oil.fresh-tbn", "mg KOH/g", Bound::interval, 0.5, 80, logit_sd},
+      {"oil.volume", "m3", Bound::positive, 0, 0, ln10},
+      {"oil.consumption", "kg/h", Bound::positive, 0, 0, ln10},
   };
   return t;
 }
@@ -86,9 +89,11 @@ double get_parameter(const EngineCase& c, std::string_view key) {
 
 void set_parameter(EngineCase& c, std::string_view key, double v) {
   const ParameterInfo& p = parameter(key);
-  if (!std::isfinite(v) || (p.bound == Bound::positive && v <= 0) || (p.bound == Bound::share && !(v > 0 && v < 1)))
-    throw InputError(std::string(key), format_value(v),
-                     p.bound == Bound::share ? "a share between 0 and 1" : "a positive value");
+  const bool ok = std::isfinite(v) && (p.bound == Bound::positive   ? v > 0
+                                       : p.bound == Bound::share    ? v > 0 && v < 1
+                                       : p.bound == Bound::interval ? v >= p.low && v <= p.high
+                                                                    : true);
+  if (!ok) throw InputError(std::string(key), format_value(v), "a value " + range_text(p));
   if (key == "engine.jacket-water-out") c = with_lever(c, Lever::jacket_water_out, v);
   else if (key == "fuel.h2s") c = with_lever(c, Lever::h2s_ppmv_dry, v);
   else if (key == "oil.fresh-tbn") c = with_lever(c, Lever::fresh_tbn, v);
@@ -105,32 +110,63 @@ void set_parameter(EngineCase& c, std::string_view key, double v) {
   }
 }
 
-double to_fit_space(Bound b, double x) {
-  switch (b) {
+namespace {
+constexpr double phi_cap = 40;  // exp(±40): far beyond any range a fit needs, and never overflows
+double logistic(double phi) { return 1 / (1 + std::exp(-phi)); }
+}  // namespace
+
+double to_fit_space(const ParameterInfo& p, double x) {
+  switch (p.bound) {
     case Bound::positive: return std::log(x);
     case Bound::share: return std::log(x / (1 - x));
+    case Bound::interval: {
+      const double u = (x - p.low) / (p.high - p.low);
+      return std::log(u / (1 - u));
+    }
     case Bound::free: return x;
   }
   return x;
 }
-double from_fit_space(Bound b, double phi) {
-  switch (b) {
+double from_fit_space(const ParameterInfo& p, double phi) {
+  if (p.bound != Bound::free) phi = std::clamp(phi, -phi_cap, phi_cap);
+  switch (p.bound) {
     case Bound::positive: return std::exp(phi);
-    case Bound::share: return 1 / (1 + std::exp(-phi));
+    case Bound::share: return logistic(phi);
+    case Bound::interval: return p.low + (p.high - p.low) * logistic(phi);
     case Bound::free: return phi;
   }
   return phi;
 }
-double dx_dphi(Bound b, double phi) {
-  switch (b) {
+double dx_dphi(const ParameterInfo& p, double phi) {
+  if (p.bound != Bound::free) phi = std::clamp(phi, -phi_cap, phi_cap);
+  switch (p.bound) {
     case Bound::positive: return std::exp(phi);
-    case Bound::share: {
-      const double x = 1 / (1 + std::exp(-phi));
-      return x * (1 - x);
-    }
+    case Bound::share: return logistic(phi) * (1 - logistic(phi));
+    case Bound::interval: return (p.high - p.low) * logistic(phi) * (1 - logistic(phi));
     case Bound::free: return 1;
   }
   return 1;
+}
+double inside_range(const ParameterInfo& p, double x) {
+  switch (p.bound) {
+    case Bound::positive: return std::max(x, 1e-9);
+    case Bound::share: return std::clamp(x, 1e-3, 1 - 1e-3);
+    case Bound::interval: {
+      const double e = 1e-3 * (p.high - p.low);
+      return std::clamp(x, p.low + e, p.high - e);
+    }
+    case Bound::free: return x;
+  }
+  return x;
+}
+std::string range_text(const ParameterInfo& p) {
+  switch (p.bound) {
+    case Bound::positive: return "above 0";
+    case Bound::share: return "between 0 and 1 (a share)";
+    case Bound::interval: return "from " + format_value(p.low) + " to " + format_value(p.high);
+    case Bound::free: return "(any finite value)";
+  }
+  return "";
 }
 
 }  // namespace acidload

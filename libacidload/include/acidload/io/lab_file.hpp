@@ -14,6 +14,13 @@
 //   i-ph          initial pH (ASTM D7946): read and reported, not modelled
 //   oxidation, nitration   FTIR [A/cm] or [A/0.1mm]: the unit must be stated in the header or in
 //                 an ftir-unit column (1 A/0.1mm = 100 A/cm: ask the lab)
+//   hour-meter, changed-at  the engine's hour meter at the sample and at the charge's oil change:
+//                 oil hours = hour-meter − changed-at where no oil-hours cell is given
+//   tbn-sd, tan-sd, san-sd, oxidation-sd, nitration-sd   this row's precision (one standard deviation)
+//   oxidation-baseline, nitration-baseline   the lab's FTIR reading of the fresh oil
+//   trended readings (lab_trend_columns(): fe, cu, pb, al, si, na, k … [ppm], viscosity-100 [cSt],
+//                 water [%] …): read with their unit, trended against alarm levels, not modelled
+//   any other column: carried through as text, with a note (a near miss of a known name is refused)
 #include <string>
 #include <vector>
 
@@ -22,8 +29,19 @@
 
 namespace acidload::io {
 
-//! Reads lab samples; every mistake names the file, line, column, the column and the cell.
-std::vector<LabSample> read_lab_samples(const std::string& path);
+//! A reading the lab file may carry that is trended, not modelled.
+struct TrendColumn {
+  std::string name;   //!< column name, e.g. "fe"
+  std::string unit;   //!< the unit it is kept in, e.g. "ppm"
+  std::vector<std::pair<std::string, double>> units;  //!< accepted header units and their factor to `unit`
+  std::string what;   //!< plain words, e.g. "iron (liners, gears, crankshaft)"
+};
+//! The trended columns (add a row here to read another).
+const std::vector<TrendColumn>& lab_trend_columns();
+
+//! Reads lab samples; every mistake names the file, line, column, the column and the cell. Notes
+//! (columns carried through unread) go to `notes` when given.
+std::vector<LabSample> read_lab_samples(const std::string& path, std::vector<std::string>* notes = nullptr);
 
 //! The fitted parameters as overlay text (format version 1), in case-file units.
 std::string overlay_text(const FitResult& fit, const std::string& case_file, const std::string& lab_file);

@@ -1,7 +1,10 @@
 #pragma once
 // Calibration to the plant's own oil-analysis history: weighted nonlinear least squares by
-// Levenberg–Marquardt, bounded parameters fitted in log/logit space, standard errors by the delta
-// method. The forecast is in forecast.hpp, Monte Carlo in monte_carlo.hpp.
+// Levenberg–Marquardt with a weak prior per parameter, bounded parameters fitted in log/logit space
+// (a step can never leave a parameter's range), standard errors by the delta method; parameters the
+// samples do not respond to are held at their prior and reported. The model is in docs/lab-results.md.
+// The forecast is in forecast.hpp, Monte Carlo in monte_carlo.hpp.
+#include <map>
 #include <optional>
 #include <string>
 #include <vector>
@@ -27,11 +30,22 @@ struct LabSample {
   std::optional<double> initial_ph;  //!< i-pH (ASTM D7946), read but not modelled
   std::string lab;                 //!< the laboratory (a change is flagged)
   std::string where;               //!< where it came from, for messages ("lab.csv:12")
+  //! This row's precision where the lab file states it (one standard deviation, as the readings).
+  std::optional<double> sd_tbn, sd_tan, sd_san, sd_oxidation, sd_nitration;
+  //! The lab's FTIR reading of the fresh oil (its baseline), added to the model's oxidation and
+  //! nitration, which start from 0 [A/cm].
+  double oxidation_baseline = 0, nitration_baseline = 0;
+  //! Readings trended but not modelled (wear metals, silicon, viscosity, water …), by column name,
+  //! in the unit of lab_trend_columns(); and columns the reader did not know, as written.
+  std::map<std::string, double> trended;
+  std::map<std::string, std::string> other;
+  std::string date;                //!< as written (ISO 8601), for the reader's eye
 };
 
 //! Measurement precision (one standard deviation) per reading, the weights of the fit.
-//! Defaults from memory of typical repeatability of the methods (ASTM D4739, D2896, D664, FTIR);
-//! put your lab's figures here.
+//! Defaults: the repeatability r of the methods' ASTM precision statements (D2896, D4739, D664)
+//! at used-oil levels, from memory, as σ = r/2.77; FTIR (E2412 gives none) common practice, no source.
+//! docs/lab-results.md gives the figures; put your lab's own (case, lab file, CLI or Python).
 struct Precision {
   double tbn_d2896 = 0.15;  //!< [mg KOH/g]
   double tbn_d4739 = 0.20;  //!< [mg KOH/g]
@@ -42,8 +56,10 @@ struct Precision {
 };
 
 struct FitSettings {
-  std::vector<std::string> parameters;  //!< keys from parameter_table()
-  Precision precision;
+  std::vector<std::string> parameters;  //!< keys from parameter_table(); empty: default_parameters()
+  Precision precision;                  //!< for every lab not in lab_precision
+  std::map<std::string, Precision> lab_precision;  //!< by the lab's name as the lab file writes it
+  bool priors = true;                   //!< the weak prior per parameter (ParameterInfo::prior_sd)
   int max_iterations = 200;
   double outlier_threshold = 3;  //!< |residual| / (σ·s) above this is flagged
 };
@@ -52,6 +68,8 @@ struct FittedParameter {
   std::string key;
   double initial = 0, estimate = 0, standard_error = 0;  //!< in the parameter's core unit
   double fit_estimate = 0, fit_standard_error = 0;       //!< in fit space (log or logit)
+  double prior = 0, prior_sd = 0;  //!< the prior: centre (fit space, the case's value) and σ (fit space)
+  bool held = false;  //!< the samples do not respond to it: held at its prior, σ the prior's
 };
 
 struct SampleResidual {
@@ -73,16 +91,40 @@ struct FitResult {
   double s2 = 0;               //!< reduced χ² = sum_of_squares / degrees_of_freedom (goodness of fit)
   int iterations = 0;
   bool converged = false;
-  std::vector<std::string> flags;  //!< outliers and lab changes, in plain words
+  std::vector<std::string> flags;  //!< outliers, lab changes, held and confounded parameters, in plain words
+  std::vector<std::string> notes;  //!< why these parameters (when chosen by default_parameters())
+  std::vector<std::string> warnings;  //!< a poor fit (χ²), a weak-base offset fitted across methods …
+  double chi2_p = 1;               //!< P(χ² ≥ the sum of squares) for the degrees of freedom: small = the model misfits
+  std::vector<LabSample> samples;  //!< the samples fitted
+  Precision precision;             //!< the default precision used
+  std::map<std::string, Precision> lab_precision;
   EngineCase fitted;               //!< the case with the estimates put in
 };
 
+//! The parameters a fit takes when none are named, matched to what the lab reports, with the
+//! reason for each in `why` (plain words): the liner uptake (the acid load) when the gas carries
+//! sulfur and TBN or TAN is reported; oxidation rate with oxidation readings; organic-acid yield
+//! with TAN and oxidation; nitration yield with nitration readings; the weak-base offset of the
+//! lab's TBN method only when it differs from the limit's method (and then with a warning).
+std::vector<std::string> default_parameters(const EngineCase& c, const std::vector<LabSample>& samples,
+                                            std::vector<std::string>& why, std::vector<std::string>& warnings);
+
+//! The precision of one reading of a sample: the row's own figure, else its lab's, else the default.
+double reading_sigma(const LabSample& s, const std::string& reading, const Precision& fallback,
+                     const std::map<std::string, Precision>& by_lab);
+
+//! The upper tail P(X ≥ x) of a χ² distribution with k degrees of freedom.
+double chi2_upper_tail(double x, int k);
+
 //! Predicted readings of every sample for a case (the forward model at the sample times).
 std::vector<SampleResidual> predict(const EngineCase& c, const std::vector<LabSample>& samples,
-                                    const Precision& precision);
+                                    const Precision& precision,
+                                    const std::map<std::string, Precision>& lab_precision = {});
 
-//! Fits the parameters. Refuses (FitRefusedError, with the reason) fewer observations than
-//! parameters, a direction the data do not constrain, and sulfur parameters without sulfur in the gas.
+//! Fits the parameters (all listed, or default_parameters() when none). Refuses (FitRefusedError)
+//! only fewer readings than parameters; a parameter the samples do not respond to (or a sulfur
+//! parameter without sulfur in the gas) is held at its prior and flagged; a pair the samples cannot
+//! tell apart is flagged (the prior keeps it defined).
 FitResult calibrate(const EngineCase& c, const std::vector<LabSample>& samples, const FitSettings& s);
 
 }  // namespace acidload

@@ -1,5 +1,12 @@
 #pragma once
-// The forecast of the current charge from a fit: hours left to each limit with a band.
+// From a fit to the oil change: the lab-first forecast of the current charge (the model state
+// updated by the latest sample, limits the sample has passed reached now) and the prediction of
+// the next charge's drain interval (or the current one's) with one honest band. The model is in
+// docs/lab-results.md.
+#include <array>
+#include <cstdint>
+#include <optional>
+#include <string>
 #include <vector>
 
 #include "acidload/core/limits.hpp"
@@ -7,15 +14,87 @@
 
 namespace acidload {
 
-//! Remaining hours of the current (last) charge to each limit, running on under the record's last
-//! segment, with a 90 % band from the parameter covariance (linearised, ±1.645 σ).
+//! Limits the lab reads that the model does not (common practice, no single source; the engine
+//! maker's and oil supplier's limits govern).
+struct LabLimits {
+  double initial_ph = 4.0;       //!< i-pH (ASTM D7946) at or below this ends the charge [-] (4–4.5 common practice)
+  double sample_interval = 250;  //!< regular sampling interval [h] (common practice, no source)
+};
+
+//! One limit of the current charge.
 struct LimitForecast {
   Limit limit = Limit::tbn_fall;
+  std::string key;               //!< name(limit), or "i-ph" for the lab-only i-pH limit
   bool reached = false;          //!< reached within the hours cap
-  bool already = false;          //!< reached before the end of the record (remaining is then 0)
-  double remaining = 0;          //!< hours from the end of the record [h]
-  double low = 0, high = 0;      //!< 90 % band [h]
+  bool already = false;          //!< the latest sample (or the record) has passed it: change the oil now
+  double remaining = 0;          //!< hours from the end of the record [h]; +∞ if not reached
+  double low = 0, high = 0;      //!< 90 % band [h] (linearised from the covariance)
+  std::string why;               //!< for an `already` limit: the reading against the limit, in words
 };
+
+//! The lab-first update at the latest sample, per reading (a scalar Kalman update).
+struct StateUpdate {
+  std::string reading;           //!< "tbn", "tan", "san", "oxidation", "nitration"
+  double model = 0, measured = 0, updated = 0;  //!< the reading as the model has it, as measured, after the update
+  double gain = 0;               //!< K = P/(P + σ²) [-]
+};
+
+struct Forecast {
+  std::vector<LimitForecast> limits;  //!< every enabled modelled limit, then i-pH when it was read
+  bool change_now = false;            //!< some limit is already passed
+  bool lab_first = false;             //!< the state was updated by a sample of the current charge
+  std::size_t latest_sample = 0;      //!< index of the sample the update used
+  double start_oil_hours = 0;         //!< oil hours of that sample [h]
+  double end_oil_hours = 0;           //!< oil hours at the end of the record [h]
+  std::vector<StateUpdate> update;
+  OilState start;                     //!< the updated state at the sample
+  double next_sample_in = 0;          //!< hours from the end of the record to the next sample due [h]
+  std::vector<std::string> warnings;  //!< the fit's (χ²) and the forecast's
+};
+
+//! The lab-first forecast of the current (last) charge, running on under the record's last segment.
+Forecast forecast_current(const FitResult& fit, const LabLimits& lab = {});
+//! The same, its limits only (kept for callers of the first version).
 std::vector<LimitForecast> forecast(const FitResult& fit);
+
+//! What predict_charge runs.
+struct PredictSettings {
+  bool next_charge = true;        //!< the next charge (after an oil change at the end of the record), else the current one continued
+  std::vector<Segment> conditions;  //!< planned operation, in order, the last continued to the hours cap; empty: the record's last segment
+  int draws = 400;                //!< parameter draws from the fit's covariance
+  std::uint64_t seed = 1;
+  bool model_form = true;         //!< add the spread of predicting each past charge from the others
+  bool lab_first = true;          //!< start the current charge from the lab-first state
+  LabLimits lab;
+};
+
+//! A past charge predicted from the others (leave-one-charge-out).
+struct HeldOutCharge {
+  int charge = 0;                 //!< 0-based
+  double own = 0;                 //!< its interval fitted on its own samples [h]
+  double from_others = 0;         //!< its interval predicted from the other charges' samples [h]
+};
+
+struct Prediction {
+  bool next_charge = true;
+  double interval = 0;            //!< drain interval at the fit's estimates [h] (oil hours of the charge)
+  std::optional<Limit> limit;     //!< the limit that ends it there (none: the hours cap)
+  double p5 = 0, p50 = 0, p95 = 0;  //!< the interval's band [h]; P5 is the pessimistic end (the earlier change)
+  double remaining_p5 = 0, remaining_p50 = 0, remaining_p95 = 0;  //!< current charge: hours from the end of the record [h]
+  std::array<int, limit_count> ending{};  //!< how many draws end by each limit
+  double parameter_spread = 0;    //!< σ of ln(interval) from the parameters [-]
+  double model_form_spread = 0;   //!< σ of ln(interval) from the held-out charges [-]
+  std::vector<HeldOutCharge> held_out;
+  int draws = 0;
+  std::vector<double> intervals;  //!< per draw [h]
+  Forecast current;               //!< the lab-first forecast of the current charge
+  std::vector<std::string> notes, warnings;
+};
+
+//! The drain interval of the next charge (or the current one continued) with one band for it:
+//! draws from the joint covariance in fit space (always within range), each widened by a
+//! model-form error of ln(interval) drawn from a Student t whose scale is the leave-one-charge-out
+//! spread of the past charges.
+Prediction predict_charge(const FitResult& fit, const PredictSettings& s = {});
 
 }  // namespace acidload
