@@ -105,15 +105,15 @@ def part3():
         rows = ["charge,oil-hours,tbn [mg KOH/g],tan [mg KOH/g],oxidation [A/cm]"]
         rows += [f"{c + 1},{h},0,0,0" for c in range(5) for h in range(200, 1201, 200)]
         lab.write_text("\n".join(rows) + "\n")
-        pred = core.predict(true_case, acidload.read_lab(lab))
+        pred = core.predict(true_case, acidload.read_lab_samples(lab))
         truth_predicted = np.asarray(pred["predicted"])
         vals = np.asarray(pred["predicted"]) + np.asarray(pred["sigma"]) * rng.standard_normal(len(pred["predicted"]))
         rows = ["charge,oil-hours,tbn [mg KOH/g],tan [mg KOH/g],oxidation [A/cm]"]
         for j, (c, h) in enumerate((c, h) for c in range(5) for h in range(200, 1201, 200)):
             rows.append(f"{c + 1},{h},{vals[3 * j]:.6f},{vals[3 * j + 1]:.6f},{vals[3 * j + 2]:.6f}")
         lab.write_text("\n".join(rows) + "\n")
-        samples = acidload.read_lab(lab)
-    t_acid, fit = median_time(lambda: acidload.fit(case5, samples, params))
+        samples = acidload.read_lab_samples(lab)
+    t_acid, fit = median_time(lambda: acidload.fit(case5, samples, params, priors=False))  # plain least squares, as SciPy
 
     # the SciPy side: the same 30 samples, the reference's balance for each charge, least_squares
     seg_rates = []  # each charge's rates at acidload's default oxidation rate and acid yield

@@ -1,6 +1,7 @@
 """Calibration and Monte Carlo through the Python package, checked against SciPy and numpy:
 - the estimates and standard errors of acidload's Levenberg–Marquardt equal scipy.optimize.least_squares
-  driving the same residual function through the binding (same weights, same s², an interior optimum);
+  driving the same residual function through the binding (the readings and the weak prior rows, same
+  weights, same s², an interior optimum);
 - Monte Carlo percentiles equal numpy.percentile of the per-draw values, and 1 and 2 threads agree;
 - a fit the data cannot identify raises FitRefusedError.
 The demo history and lab file are invented data."""
@@ -15,7 +16,7 @@ PARAMS = ["model.liner-uptake", "model.oxidation-rate", "model.organic-acid-yiel
 def _setup():
     acidload = need_acidload()
     case = acidload.load_case(str(ROOT / "cases" / "demo-site-history.yaml"))
-    lab = acidload.read_lab(ROOT / "cases" / "demo-site-lab.csv")
+    lab = acidload.read_lab_samples(ROOT / "cases" / "demo-site-lab.csv")
     return acidload, case, lab
 
 
@@ -25,27 +26,26 @@ def test_estimates_and_standard_errors_equal_scipy_least_squares():
     acidload, case, lab = _setup()
     fit = acidload.fit(case, lab, PARAMS)
     assert fit.converged
-    bounds = [acidload._core.parameter_bound(k) for k in PARAMS]
+    core = acidload._core
     variant = case.variants[0]
-    start = []
-    for k, b in zip(PARAMS, bounds):
-        x = acidload._core.get_parameter(variant._engine_case, k)
-        start.append(np.log(x) if b == "positive" else np.log(x / (1 - x)))
+    start = [core.to_fit_space(k, core.get_parameter(variant._engine_case, k)) for k in PARAMS]
 
     def residuals(phi):
-        return acidload.fit_residuals(case, lab, PARAMS, phi)
+        return acidload.fit_residuals(case, lab, PARAMS, phi)  # readings, then one prior row per parameter
 
     # scipy.optimize.least_squares (trust region reflective), tight tolerances, same residuals
     res = optimize.least_squares(residuals, np.array(start), method="trf", xtol=1e-15, ftol=1e-15, gtol=1e-15,
                                  diff_step=1e-7, max_nfev=2000)
     assert res.success
-    n, p = res.fun.size, len(PARAMS)
-    s2 = float(res.fun @ res.fun) / (n - p)
-    cov = s2 * np.linalg.inv(res.jac.T @ res.jac)
+    p = len(PARAMS)
+    data = res.fun[:-p]  # the prior rows do not count as observations
+    n = data.size
+    s2 = float(data @ data) / (n - p)
+    cov = max(1.0, s2) * np.linalg.inv(res.jac.T @ res.jac)
     phi = res.x
-    dx = np.array([np.exp(f) if b == "positive" else np.exp(-f) / (1 + np.exp(-f)) ** 2 for f, b in zip(phi, bounds)])
+    dx = np.array([core.dx_dphi(k, f) for k, f in zip(PARAMS, phi)])
     se = dx * np.sqrt(np.diag(cov))
-    est = np.array([np.exp(f) if b == "positive" else 1 / (1 + np.exp(-f)) for f, b in zip(phi, bounds)])
+    est = np.array([core.from_fit_space(k, f) for k, f in zip(PARAMS, phi)])
     np.testing.assert_allclose([fit.estimates[k] for k in PARAMS], est, rtol=1e-5)
     np.testing.assert_allclose([fit.standard_errors[k] for k in PARAMS], se, rtol=1e-5)
     assert fit.s2 == pytest.approx(s2, rel=1e-6)
@@ -65,17 +65,56 @@ def test_monte_carlo_percentiles_equal_numpy_and_do_not_depend_on_threads():
     assert one["interval_p90_h"] == pytest.approx(np.percentile(d, 90), rel=1e-12)
 
 
-def test_ill_posed_fit_is_refused_with_its_reason():
+def test_too_few_readings_are_refused_with_the_reason():
     acidload, case, lab = _setup()
     six = PARAMS + ["model.capture-so2", "model.so3-share", "model.nitration-yield"]
     with pytest.raises(acidload.FitRefusedError, match="more readings than parameters"):
         acidload.fit(case, lab[:1], six)  # one sample: five readings for six parameters
 
 
+def test_the_issue_s_eleven_parameter_fit_keeps_every_estimate_in_range():
+    acidload, case, lab = _setup()
+    keys = ["model.so3-share", "model.liner-uptake", "model.capture-so2", "model.wet-so2-factor", "model.oxidation-rate",
+            "model.organic-acid-yield", "model.nitration-yield", "model.weak-base-d2896", "model.base-floor",
+            "model.additive-depletion", "model.salt-titration-share"]
+    fit = acidload.fit(case, lab, keys)
+    for k, v in fit.estimates.items():
+        low, high, _, _ = acidload._core.parameter_range(k)
+        if acidload._core.parameter_bound(k) == "interval":
+            assert low <= v <= high, k
+        assert np.isfinite(fit.standard_errors[k]), k
+
+
+def test_default_parameters_and_lab_table():
+    acidload, case, _ = _setup()
+    table = acidload.read_lab(ROOT / "cases" / "demo-site-lab.csv")
+    fit = acidload.fit(case, table)  # the table carries its samples
+    assert fit.keys == ["model.liner-uptake", "model.oxidation-rate", "model.organic-acid-yield", "model.nitration-yield"]
+    assert any("nitration" in n for n in fit.notes)
+    assert not any(fit.held.values())
+    n = len(table["charge"])
+    assert n == len(acidload.read_lab_samples(ROOT / "cases" / "demo-site-lab.csv"))
+    assert np.asarray(table["tbn"], dtype=float).shape == (n,)
+
+
+def test_predict_gives_one_labelled_band_and_the_lab_first_forecast():
+    acidload, case, lab = _setup()
+    fit = acidload.fit(case, lab, PARAMS)
+    p = acidload.predict(fit, draws=100)
+    assert p["p5_h"] < p["p50_h"] < p["p95_h"]
+    assert p["limit"] in {"tbn-fall", "crossover", "tan-rise", "san", "oxidation", "nitration", "max-hours", "none"}
+    assert len(p["held_out"]) >= 2 and p["model_form_spread"] > 0
+    assert p["intervals_h"].shape == (100,)
+    assert p["current"].lab_first and not p["current"].change_now
+    cur = acidload.predict(fit, draws=100, next_charge=False)
+    assert cur["remaining_p50_h"] == pytest.approx(cur["p50_h"] - cur["current"].end_oil_hours)
+
+
 def test_forecast_and_overlay(tmp_path):
     acidload, case, lab = _setup()
     fit = acidload.fit(case, lab, PARAMS)
     fc = {f["limit"]: f for f in acidload.forecast(fit)}
+    assert not any(f["already"] for f in fc.values())
     assert fc["tbn-fall"]["low_h"] < fc["tbn-fall"]["remaining_h"] < fc["tbn-fall"]["high_h"]
     ov = tmp_path / "fitted.yaml"
     fit.write_overlay(ov, "cases/demo-site-history.yaml", "cases/demo-site-lab.csv")

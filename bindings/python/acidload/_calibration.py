@@ -37,6 +37,13 @@ def read_lab_samples(path: Union[str, os.PathLike]) -> list:
     return list(_core.read_lab_samples(os.fspath(path)))
 
 
+class _Samples(list):
+    """The samples behind a lab table; shared, not copied, when pandas copies the table's attrs."""
+
+    def __deepcopy__(self, memo: Dict[int, Any]) -> "_Samples":
+        return self
+
+
 class LabColumns(dict):
     """The lab table as a dict of numpy arrays (pandas not installed); ``.samples`` the samples."""
     samples: list = []
@@ -53,7 +60,7 @@ def read_lab(path: Union[str, os.PathLike]) -> Any:
     [A/cm] (NaN where not reported), every trended reading (fe, cu, … [ppm], viscosity_100 [cSt],
     water [%]) and the columns acidload does not know, as text. The samples themselves (for
     :func:`fit`) are in ``.attrs["samples"]`` of the DataFrame, or ``.samples`` of the dict."""
-    samples = read_lab_samples(path)
+    samples = _Samples(read_lab_samples(path))
     cols: Dict[str, Any] = {
         "charge": np.array([s.charge + 1 for s in samples], dtype=int),
         "oil_hours": np.array([s.oil_hours for s in samples], dtype=float),
@@ -170,14 +177,16 @@ class Fit:
 
 def fit(case: Union[Case, Variant], lab: Any, parameters: Optional[Sequence[str]] = None, *,
         precision: Optional[Dict[str, float]] = None, lab_precision: Optional[Dict[str, Dict[str, float]]] = None,
-        variant: Optional[str] = None) -> Fit:
+        priors: bool = True, variant: Optional[str] = None) -> Fit:
     """Weighted least squares (Levenberg–Marquardt, weak priors, ranges kept, delta-method errors) of the
     named parameters of a variant to lab samples (a CSV path, the table from :func:`read_lab` or the list
     from :func:`read_lab_samples`). Without ``parameters`` a set matched to what the lab reports
     (``Fit.notes`` says why). ``precision``: one standard deviation per reading (keys tbn_d2896,
-    tbn_d4739, tan, san [mg KOH/g], oxidation, nitration [A/cm]); ``lab_precision``: the same per lab name."""
+    tbn_d4739, tan, san [mg KOH/g], oxidation, nitration [A/cm]); ``lab_precision``: the same per lab name.
+    ``priors=False`` drops the weak priors (plain least squares, as another optimiser would do it)."""
     return Fit(_core.calibrate(_engine_case(case, variant), _samples(lab), list(parameters or []),
-                               dict(precision or {}), {k: dict(v) for k, v in (lab_precision or {}).items()}))
+                               dict(precision or {}), {k: dict(v) for k, v in (lab_precision or {}).items()},
+                               bool(priors)))
 
 
 def fit_residuals(case: Union[Case, Variant], lab: Any, parameters: Sequence[str], phi: Sequence[float], *,

@@ -67,8 +67,7 @@ void translate(std::exception_ptr p) {
 
 // ---- levers and units ------------------------------------------------------------------------
 Lever lever_from(const std::string& text) {
-  for (Lever l : {Lever::h2s_ppmv_dry, Lever::fresh_tbn, Lever::jacket_water_out, Lever::oil_volume})
-    if (text == name(l)) return l;
+  if (const std::optional<Lever> l = lever_named(text)) return *l;
   throw InputError("lever", text, "one of h2s, fresh-tbn, jacket-water-out, oil-volume");
 }
 
@@ -510,6 +509,14 @@ PYBIND11_MODULE(_core, m) {
       .def_readonly("interval_at_high", &InverseAnswer::interval_at_high, "[h]")
       .def_readonly("reason", &InverseAnswer::reason)
       .def_readonly("evaluations", &InverseAnswer::evaluations);
+  m.def("default_search",
+        [](const EngineCase& c, const std::string& lever) {
+          const LeverSearch s = default_search(c, lever_from(lever));
+          return py::make_tuple(s.low, s.high, s.tolerance);
+        },
+        py::arg("case"), py::arg("lever"),
+        "(low, high, tolerance) in the lever's core unit: where solve searches when no range is given "
+        "(acidload::default_search, the same defaults as the program's solve).");
   m.def("solve_for_interval",
         [](const EngineCase& c, const std::string& lever, double target, double low, double high, double tolerance) {
           const Lever l = lever_from(lever);
@@ -635,9 +642,10 @@ PYBIND11_MODULE(_core, m) {
            py::arg("case_file"), py::arg("lab_file"), "The estimates as overlay text for 'acidload run --overlay'.");
   m.def("calibrate", [](const EngineCase& c, const std::vector<LabSample>& s, const std::vector<std::string>& keys,
                         const std::map<std::string, double>& precision,
-                        const std::map<std::string, std::map<std::string, double>>& lab_precision) {
+                        const std::map<std::string, std::map<std::string, double>>& lab_precision, bool priors) {
     FitSettings fs;
     fs.parameters = keys;
+    fs.priors = priors;
     const auto apply = [](Precision& p, const std::map<std::string, double>& m) {
       for (const auto& [k, v] : m) {
         if (!(v > 0 && v < 1e3)) throw InputError("precision " + k, format_value(v), "a standard deviation above 0");
@@ -659,7 +667,7 @@ PYBIND11_MODULE(_core, m) {
     py::gil_scoped_release release;
     return calibrate(c, s, fs);
   }, py::arg("case"), py::arg("samples"), py::arg("parameters"), py::arg("precision") = std::map<std::string, double>{},
-        py::arg("lab_precision") = std::map<std::string, std::map<std::string, double>>{},
+        py::arg("lab_precision") = std::map<std::string, std::map<std::string, double>>{}, py::arg("priors") = true,
         "Weighted least squares (Levenberg-Marquardt, weak priors) of the named parameters (none: chosen for what "
         "the lab reports) to the samples; precision [mg KOH/g, A/cm] by reading, and by lab.");
   const auto limit_dict = [](const LimitForecast& x) {

@@ -1,0 +1,40 @@
+// acidload forecast CASE --lab FILE: the lab-first forecast of the current charge.
+#include "../report.hpp"
+#include "fit_common.hpp"
+
+namespace acidload_cli {
+namespace {
+
+FitOptions parse(const std::vector<std::string>& args) {
+  FitOptions o;
+  Options p("forecast");
+  fit_options(p, o).parse(args);
+  require_fit_options("forecast", o);
+  return o;
+}
+
+int run(const std::vector<std::string>& args, std::FILE* out) {
+  const FitRun r = fit_case(parse(args));
+  for (const std::string& n : r.lab_notes) std::fprintf(out, "note: %s\n", n.c_str());
+  print_forecast(out, r.fit, acidload::forecast_current(r.fit));
+  print_caution(out);
+  return exit_ok;
+}
+
+}  // namespace
+
+extern const Command forecast_command{
+    "forecast", "forecast CASE", "the current charge from its latest sample: limits passed, hours left, next sample",
+    "usage: acidload forecast CASE --lab FILE [--parameters KEY[,KEY…]] [--precision R=SD,…] [--variant NAME]\n"
+    "                         [--overlay FILE]...\n\n"
+    "Fits as 'acidload fit' does, moves the model state toward the latest sample of the current charge\n"
+    "(a Kalman-type update weighted by the readings' precision), flags every limit that sample has\n"
+    "already passed ('change the oil now'; SAN and an i-pH of 4 or below included), then runs the charge\n"
+    "on under the record's last segment: the hours left to each limit with a 90 % band from the\n"
+    "parameter covariance, and when the next sample is due. Confirm with a lab sample before acting on it.\n"
+    "  --precision R=SD,…  one standard deviation per reading, in its unit: tbn (both methods), tbn-d2896,\n"
+    "                      tbn-d4739, tan, san [mg KOH/g], oxidation, nitration [A/cm]; a lab file's *-sd\n"
+    "                      columns win over these\n",
+    run};
+
+}  // namespace acidload_cli
