@@ -8,7 +8,7 @@
 
 #include "acidload/core/economics.hpp"
 #include "acidload/core/scrubber.hpp"
-#include "acidload/studies/calibration.hpp"
+#include "acidload/studies/monte_carlo.hpp"
 #include "acidload/studies/whatif.hpp"
 
 namespace acidload {
