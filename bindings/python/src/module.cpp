@@ -174,7 +174,7 @@ py::dict rates_dict(const OilRates& r) {
 // ---- sweeps: the loop in C++, the GIL released ------------------------------------------------
 using InArray = py::array_t<double, py::array::c_style | py::array::forcecast>;
 
-py::array_t<double> sweep_drain_interval(const EngineCase& c, const std::string& lever, const InArray& values, int threads) {
+py::array_t<double> sweep_for_python(const EngineCase& c, const std::string& lever, const InArray& values, int threads) {
   const Lever l = lever_from(lever);
   if (threads < 0) throw InputError("threads", std::to_string(threads), "0 (every core) or a positive thread count");
   py::array_t<double> out(values.request().shape);
@@ -486,7 +486,7 @@ PYBIND11_MODULE(_core, m) {
           return drain_interval(c);
         },
         py::arg("case"), "The drain interval of a variant [h]; the hours cap when no other limit is reached.");
-  m.def("sweep_drain_interval", &sweep_drain_interval, py::arg("case"), py::arg("lever"), py::arg("values"),
+  m.def("sweep_drain_interval", &sweep_for_python, py::arg("case"), py::arg("lever"), py::arg("values"),
         py::arg("threads") = 0,
         "Drain interval [h] for each value of one lever (core unit), computed in C++ with the GIL released, on "
         "`threads` threads (0 = every core; the answers are the same for any count).");
