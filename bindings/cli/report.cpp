@@ -188,6 +188,19 @@ void print_forecast(std::FILE* out, const FitResult& f, const Forecast& fc) {
   for (const std::string& w : fc.warnings) std::fprintf(out, "\nWARNING: %s\n", w.c_str());
 }
 
+void print_trend(std::FILE* out, const FitResult& f, const TrendResult& t) {
+  std::fprintf(out, "\nTrend and alarms (levels: common practice, no source, unless set; the engine maker's and oil\n"
+                    "supplier's condemning limits govern):\n");
+  if (t.tbn_slope && t.tbn_slope_model)
+    std::fprintf(out, "  TBN slope of the current charge: %.3g mg KOH/g per 1000 h measured, %.3g the model's%s\n",
+                 *t.tbn_slope * 1000, *t.tbn_slope_model * 1000,
+                 t.implied_h2s ? (" (implies about " + std::to_string(static_cast<long>(*t.implied_h2s + 0.5)) + " ppmv H2S)").c_str() : "");
+  if (t.alarms.empty()) std::fprintf(out, "  no alarm\n");
+  for (const Alarm& a : t.alarms) std::fprintf(out, "  %-8s %s\n", a.level == "model" ? "MODEL" : a.level == "critical" ? "CRITICAL" : "caution",
+                                               a.message.c_str());
+  (void)f;
+}
+
 void print_prediction(std::FILE* out, const FitResult& f, const Prediction& p) {
   const double cap = f.fitted.model.limits.max_hours;
   const auto h = [&](double v) { return v >= cap ? std::string("cap ") + std::to_string(static_cast<long>(cap)) + " h"
@@ -225,14 +238,25 @@ void print_monte_carlo(std::FILE* out, const EngineCase& c, const std::vector<Un
   std::fprintf(out, "Monte Carlo of '%s': %d draws, seed %llu, inputs:", c.name.c_str(), r.draws,
                static_cast<unsigned long long>(seed));
   for (const UncertainInput& x : in) std::fprintf(out, " %s", x.key.c_str());
+  if (r.fitted_parameters) std::fprintf(out, "; %d fitted parameters drawn jointly from the fit's covariance", r.fitted_parameters);
   const auto h = [](double v) { return std::isfinite(v) ? std::to_string(static_cast<long>(v + 0.5)) + " h" : std::string("none"); };
-  std::fprintf(out, "\n  %-28s %10s %10s %10s\n", "", "P10", "P50", "P90");
-  std::fprintf(out, "  %-28s %10s %10s %10s\n", "drain interval", h(r.interval_p10).c_str(), h(r.interval_p50).c_str(),
-               h(r.interval_p90).c_str());
-  std::fprintf(out, "  %-28s %10s %10s %10s\n", "first free strong acid", h(r.san_p10).c_str(), h(r.san_p50).c_str(),
-               h(r.san_p90).c_str());
-  std::fprintf(out, "(the drain interval counts the hours cap, %.0f h, where no other limit is reached; 'none': no free\n"
-                    "acid within the cap in at least that share of the draws)\n", c.model.limits.max_hours);
+  std::fprintf(out, "\n  %-28s %10s %10s %10s %10s %10s\n", "", "P5", "P10", "P50", "P90", "P95");
+  if (r.charge_bands.empty())
+    std::fprintf(out, "  %-28s %10s %10s %10s %10s %10s\n", "drain interval, 1st charge", h(r.interval_p5).c_str(), h(r.interval_p10).c_str(),
+                 h(r.interval_p50).c_str(), h(r.interval_p90).c_str(), h(r.interval_p95).c_str());
+  for (std::size_t k = 0; k < r.charge_bands.size(); ++k) {
+    const IntervalBand& b = r.charge_bands[k];
+    const std::string label = "drain interval, charge " + std::to_string(k + 1);
+    std::fprintf(out, "  %-28s %10s %10s %10s %10s %10s\n", label.c_str(), h(b.p5).c_str(), h(b.p10).c_str(), h(b.p50).c_str(),
+                 h(b.p90).c_str(), h(b.p95).c_str());
+  }
+  std::fprintf(out, "  %-28s %10s %10s %10s %10s %10s\n", "first free strong acid", h(r.san_p5).c_str(), h(r.san_p10).c_str(),
+               h(r.san_p50).c_str(), h(r.san_p90).c_str(), h(r.san_p95).c_str());
+  std::fprintf(out, "(low percentiles are the pessimistic end: the earlier oil change; each charge runs on under its own\n"
+                    "last conditions; the drain interval counts the hours cap, %.0f h, where no other limit is reached;\n"
+                    "'none': no free acid within the cap in at least that share of the draws)\n", c.model.limits.max_hours);
+  if (r.clipped)
+    std::fprintf(out, "%d of %d draws had an input outside its parameter's range: clipped into it\n", r.clipped, r.draws);
 }
 
 void print_caution(std::FILE* out) {

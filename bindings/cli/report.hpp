@@ -8,6 +8,7 @@
 #include "acidload/studies/calibration.hpp"
 #include "acidload/studies/forecast.hpp"
 #include "acidload/studies/monte_carlo.hpp"
+#include "acidload/studies/trend.hpp"
 #include "acidload/studies/whatif.hpp"
 
 namespace acidload_cli {
@@ -25,6 +26,8 @@ void print_conversion(std::FILE* out, const acidload::EngineCase& c, const std::
 void print_fit(std::FILE* out, const acidload::EngineCase& c, const acidload::FitResult& f);
 //! The lab-first forecast of the current charge: limits passed ("change the oil now"), hours left, next sample.
 void print_forecast(std::FILE* out, const acidload::FitResult& f, const acidload::Forecast& fc);
+//! Trend and alarms after a fit.
+void print_trend(std::FILE* out, const acidload::FitResult& f, const acidload::TrendResult& t);
 //! The predicted drain interval with its band.
 void print_prediction(std::FILE* out, const acidload::FitResult& f, const acidload::Prediction& p);
 //! Monte Carlo percentiles.

@@ -121,3 +121,29 @@ def test_forecast_and_overlay(tmp_path):
     again = acidload.load_case(str(ROOT / "cases" / "demo-site.yaml"), overlays=[str(ov)])
     assert acidload._core.get_parameter(again.variants[0]._engine_case, "model.liner-uptake") == pytest.approx(
         fit.estimates["model.liner-uptake"], rel=1e-8)
+
+
+def test_trend_and_alarm_levels():
+    acidload, case, lab = _setup()
+    fit = acidload.fit(case, lab, PARAMS)
+    t = acidload.trend(fit)
+    assert t["tbn_slope"] < 0 and t["tbn_slope_model"] < 0 and t["implied_h2s_ppmv"] > 0
+    assert all(set(a) >= {"sample", "quantity", "level", "message"} for a in t["alarms"])
+    levels = {q: (c, k) for q, c, k, _, basis in acidload.default_alarm_levels()}
+    assert levels["fe"][0] < levels["fe"][1]
+    with pytest.raises(acidload.InputError):
+        acidload.trend(fit, {"fe": (50, float("nan"))})
+
+
+def test_monte_carlo_every_charge_with_the_fit_s_correlated_draws():
+    acidload, case, lab = _setup()
+    fit = acidload.fit(case, lab, PARAMS)
+    r = acidload.monte_carlo(case, draws=100, fit=fit, every_charge=True, threads=1)
+    assert r["fitted_parameters"] == 3 and len(r["charges"]) == 4
+    for c in r["charges"]:
+        # numpy.percentile (linear) is the definition acidload states
+        assert c["p5_h"] == pytest.approx(np.percentile(c["drain_interval_h"], 5), rel=1e-12)
+        assert c["p95_h"] == pytest.approx(np.percentile(c["drain_interval_h"], 95), rel=1e-12)
+    assert r["interval_p5_h"] <= r["interval_p10_h"] <= r["interval_p50_h"] <= r["interval_p90_h"] <= r["interval_p95_h"]
+    two = acidload.monte_carlo(case, draws=100, fit=fit, every_charge=True, threads=2)
+    np.testing.assert_array_equal(two["charges"][2]["drain_interval_h"], r["charges"][2]["drain_interval_h"])

@@ -9,6 +9,7 @@
 #include "acidload/studies/calibration.hpp"
 #include "acidload/studies/forecast.hpp"
 #include "acidload/studies/monte_carlo.hpp"
+#include "acidload/studies/trend.hpp"
 
 using namespace acidload;
 using acidload_test::history_case;
@@ -348,4 +349,93 @@ TEST_CASE("predict: the next charge's interval with one band; the current one co
   const Prediction cur = predict_charge(f, ps);
   CHECK(cur.p50 > 300);
   CHECK(cur.remaining_p50 == doctest::Approx(cur.p50 - 300));
+}
+
+TEST_CASE("Monte Carlo's early stop per draw gives what a full run of each draw gives") {
+  // each draw stops once its interval and first free acid are known; a plain run of the same draw
+  // (the same counter-based numbers, no stop, every limit watched) must give the same two figures
+  EngineCase c = history_case();
+  c.record = {acidload_test::sanity_segment(8000)};
+  const std::vector<UncertainInput> in = {{"fuel.h2s", {Distribution::Kind::lognormal, 300, 0.3, 0}},
+                                          {"oil.fresh-tbn", {Distribution::Kind::normal, 6.0, 0.2, 0}}};
+  const int draws = 60;
+  const MonteCarloResult mc = monte_carlo(c, in, draws, 11, 1);
+  int with_san = 0;
+  for (int i = 0; i < draws; ++i) {
+    EngineCase x = c;
+    for (std::size_t k = 0; k < in.size(); ++k)
+      set_parameter(x, in[k].key, sample(in[k].distribution, uniform01(11, i, 2 * k), uniform01(11, i, 2 * k + 1)));
+    const RunResult r = simulate(x.charge, x.model, x.record, x.options);
+    const ChargeSummary& ch = r.charges.front();
+    const double interval = ch.first ? ch.drain_interval : x.model.limits.max_hours;
+    const double san = ch.reached_at[static_cast<std::size_t>(Limit::san)];
+    CHECK(mc.drain_interval[static_cast<std::size_t>(i)] == doctest::Approx(interval).epsilon(1e-10));
+    if (san >= 0) {
+      ++with_san;
+      CHECK(mc.first_san[static_cast<std::size_t>(i)] == doctest::Approx(san).epsilon(1e-10));
+    } else {
+      CHECK(std::isinf(mc.first_san[static_cast<std::size_t>(i)]));
+    }
+  }
+  CHECK(with_san > 0);          // the check covers draws that stop at the first free acid…
+  CHECK(with_san < draws);      // …and draws that run to the cap without it
+}
+
+TEST_CASE("trend: a TBN falling faster than the model's band says what to check; alarm levels") {
+  const EngineCase t = truth();
+  Precision p;
+  EngineCase c = history_case();
+  auto s = history_samples(t, 41, p);
+  FitSettings fs;
+  fs.parameters = three;
+  // the last charge's TBN falls 60 % faster than the others: an acid load above the model
+  const double fresh_reading = *s[24].tbn;  // its first sample (200 h)
+  for (LabSample& x : s)
+    if (x.charge == 4) *x.tbn -= 0.6 * (fresh_reading - *x.tbn) + 0.6 * 0.002 * (x.oil_hours - 200);
+  s[29].trended["fe"] = 60;  // critical (default 50 ppm, common practice)
+  s[28].trended["si"] = 18;  // caution (15)
+  const FitResult f = calibrate(c, s, fs);
+  const TrendResult tr = trend(f);
+  REQUIRE(tr.tbn_slope);
+  REQUIRE(tr.tbn_slope_model);
+  CHECK(*tr.tbn_slope < *tr.tbn_slope_model);
+  INFO("slopes " << *tr.tbn_slope << " model " << *tr.tbn_slope_model << " se " << *tr.tbn_slope_error << " s2 " << f.s2);
+  REQUIRE(tr.implied_h2s);
+  CHECK(*tr.implied_h2s > get_parameter(c, "fuel.h2s"));
+  bool acid = false, fe = false, si = false;
+  for (const Alarm& a : tr.alarms) {
+    acid |= a.message.find("acid load above the model: check H2S and scrubber breakthrough") != std::string::npos;
+    fe |= a.quantity == "fe" && a.level == "critical";
+    si |= a.quantity == "si" && a.level == "caution";
+  }
+  CHECK(acid);
+  CHECK(fe);
+  CHECK(si);
+  // user levels replace the defaults
+  const TrendResult tu = trend(f, {{"fe", 70, 90, true, "set by the user"}});
+  for (const Alarm& a : tu.alarms) CHECK(a.quantity != "fe");
+}
+
+TEST_CASE("Monte Carlo over every charge, with a fit's correlated draws; out-of-range draws clipped, never an abort") {
+  const EngineCase t = truth();
+  Precision p;
+  FitSettings fs;
+  fs.parameters = three;
+  const FitResult f = calibrate(history_case(), history_samples(t, 51, p), fs);
+  const std::vector<UncertainInput> in = {{"model.so3-share", {Distribution::Kind::normal, 0.02, 0.05, 0}}};  // often below 0
+  const MonteCarloResult r = monte_carlo(history_case(), in, &f, true, 200, 3, 2);
+  CHECK(r.clipped > 0);
+  CHECK(r.clipped < 200);
+  CHECK(r.fitted_parameters == 3);
+  REQUIRE(r.charge_bands.size() == 5);
+  for (const IntervalBand& b : r.charge_bands) {
+    CHECK(b.p5 <= b.p10);
+    CHECK(b.p10 <= b.p50);
+    CHECK(b.p50 <= b.p90);
+    CHECK(b.p90 <= b.p95);
+  }
+  CHECK(r.charge_bands[0].p50 == doctest::Approx(r.interval_p50).epsilon(1e-9));  // the first charge both ways
+  // the same with one thread
+  const MonteCarloResult one = monte_carlo(history_case(), in, &f, true, 200, 3, 1);
+  CHECK(one.charge_intervals == r.charge_intervals);
 }

@@ -108,3 +108,47 @@ uncertainty:
   fs::remove(ov);
   fs::remove(cs);
 }
+
+TEST_CASE("lab CSV: trended columns with units, unknown columns carried with a note, hour meter, dates, precision, baseline") {
+  const fs::path p = write("acidload-lab-extra.csv",
+                           "charge,hour-meter,changed-at,date,tbn,fe [ppm],si,viscosity-100 [mm2/s],water [ppm],colour,"
+                           "tbn-sd,oxidation [A/cm],oxidation-baseline [A/cm]\n"
+                           "1,45210,45000,2026-03-14,4.5,12,3,13.5,500,amber,0.3,4,1.5\n"
+                           "1,45410 h,45000,2026-03-22 08:30,4.0,,4,14.1,,dark,,6,1.5\n");
+  std::vector<std::string> notes;
+  const auto s = io::read_lab_samples(p.string(), &notes);
+  REQUIRE(s.size() == 2);
+  CHECK(s[0].oil_hours == 210);
+  CHECK(s[1].oil_hours == 410);
+  CHECK(s[0].date == "2026-03-14");
+  CHECK(s[0].trended.at("fe") == 12);
+  CHECK(s[1].trended.count("fe") == 0);
+  CHECK(s[0].trended.at("si") == 3);  // no unit in the header: the column's own (ppm)
+  CHECK(s[0].trended.at("viscosity-100") == doctest::Approx(13.5));
+  CHECK(s[0].trended.at("water") == doctest::Approx(0.05));  // 500 ppm = 0.05 %
+  CHECK(s[0].other.at("colour") == "amber");
+  CHECK(*s[0].sd_tbn == doctest::Approx(0.3));
+  CHECK(!s[1].sd_tbn);
+  CHECK(s[0].oxidation_baseline == doctest::Approx(1.5));
+  REQUIRE(notes.size() == 1);
+  CHECK(notes[0].find("'colour'") != std::string::npos);
+  fs::remove(p);
+  const auto refuse = [](const std::string& text, const std::string& fragment) {
+    const fs::path q = write("acidload-lab-bad2.csv", text);
+    try {
+      io::read_lab_samples(q.string());
+      FAIL("accepted: " << text);
+    } catch (const InputError& e) {
+      INFO(e.what());
+      CHECK(std::string(e.what()).find(fragment) != std::string::npos);
+    }
+    fs::remove(q);
+  };
+  refuse("charge,oil-hours,fe [ppb]\n1,250,3\n", "ppm, mg/kg");
+  refuse("charge,oil-hours,fe\n1,250,lots\n", "fe reading");
+  refuse("charge,oil-hours,date,tbn\n1,250,14/03/2026,3\n", "YYYY-MM-DD");
+  refuse("charge,oil-hours,date,tbn\n1,250,2026-13-01,3\n", "YYYY-MM-DD");
+  refuse("charge,hour-meter,changed-at,tbn\n1,100,200,3\n", "at or after the oil change");
+  refuse("charge,hour-meter,tbn\n1,100,3\n", "'oil-hours' column");
+  refuse("charge,oil-hours,tbn,tbn-sd\n1,250,3,0\n", "above 0");
+}

@@ -17,6 +17,7 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
   const FitRun r = fit_case(parse(args));
   for (const std::string& n : r.lab_notes) std::fprintf(out, "note: %s\n", n.c_str());
   print_forecast(out, r.fit, acidload::forecast_current(r.fit));
+  print_trend(out, r.fit, acidload::trend(r.fit));
   print_caution(out);
   return exit_ok;
 }
@@ -31,7 +32,10 @@ extern const Command forecast_command{
     "(a Kalman-type update weighted by the readings' precision), flags every limit that sample has\n"
     "already passed ('change the oil now'; SAN and an i-pH of 4 or below included), then runs the charge\n"
     "on under the record's last segment: the hours left to each limit with a 90 % band from the\n"
-    "parameter covariance, and when the next sample is due. Confirm with a lab sample before acting on it.\n"
+    "parameter covariance, and when the next sample is due. Then the trend: the latest sample against the\n"
+    "model's band, the current charge's TBN slope against the model's (and the H2S it implies), and wear\n"
+    "metals, silicon, sodium, potassium, water and viscosity against their alarm levels. Confirm with a\n"
+    "lab sample before acting on it.\n"
     "  --precision R=SD,…  one standard deviation per reading, in its unit: tbn (both methods), tbn-d2896,\n"
     "                      tbn-d4739, tan, san [mg KOH/g], oxidation, nitration [A/cm]; a lab file's *-sd\n"
     "                      columns win over these\n",

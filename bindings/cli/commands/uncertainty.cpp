@@ -2,14 +2,20 @@
 #include "../cli.hpp"
 #include "../report.hpp"
 #include "acidload/core/error.hpp"
+#include "acidload/io/lab_file.hpp"
 #include "acidload/studies/calibration.hpp"
+#include "acidload/studies/monte_carlo.hpp"
+#include "acidload/studies/parameters.hpp"
+
+#include <optional>
 
 namespace acidload_cli {
 namespace {
 
 struct UncertaintyOptions {
-  std::string case_file, draws, seed, threads, variant;
+  std::string case_file, draws, seed, threads, variant, lab, parameters;
   std::vector<std::string> overlays;
+  bool first_only = false;
 };
 
 UncertaintyOptions parse(const std::vector<std::string>& args) {
@@ -21,6 +27,9 @@ UncertaintyOptions parse(const std::vector<std::string>& args) {
       .value("--threads", o.threads, "N")
       .value("--variant", o.variant, "NAME")
       .values("--overlay", o.overlays, "FILE")
+      .value("--lab", o.lab, "FILE")
+      .value("--parameters", o.parameters, "KEY[,KEY…]")
+      .flag("--first-charge", o.first_only)
       .parse(args);
   return o;
 }
@@ -36,12 +45,20 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
   const int threads = o.threads.empty() ? 0 : static_cast<int>(count_option(o.threads, "--threads", 1, 256));
   const io::CaseFile file = io::load_case(o.case_file, o.overlays);
   const EngineCase& c = pick_variant(file, o.variant);
-  if (file.uncertainty.inputs.empty())
-    throw InputError("uncertainty", "(no section)", "an 'uncertainty' section with inputs in " + o.case_file,
+  if (file.uncertainty.inputs.empty() && o.lab.empty())
+    throw InputError("uncertainty", "(no section)", "an 'uncertainty' section with inputs in " + o.case_file + ", or --lab FILE",
                      InputWhere{o.case_file, 1, 1, ""});
+  if (o.lab.empty() && !o.parameters.empty()) throw UsageError("uncertainty --parameters needs --lab FILE");
+  std::optional<FitResult> fit;
+  if (!o.lab.empty()) {  // the fit's parameters drawn jointly from its covariance
+    FitSettings fs;
+    fs.parameters = split_list(o.parameters);
+    for (const std::string& k : fs.parameters) parameter(k);
+    fit = calibrate(c, io::read_lab_samples(o.lab), fs);
+  }
   const std::uint64_t used_seed = seed ? *seed : file.uncertainty.seed;
-  const MonteCarloResult r = monte_carlo(c, file.uncertainty.inputs, draws ? static_cast<int>(*draws) : file.uncertainty.draws,
-                                         used_seed, threads);
+  const MonteCarloResult r = monte_carlo(c, file.uncertainty.inputs, fit ? &*fit : nullptr, !o.first_only,
+                                         draws ? static_cast<int>(*draws) : file.uncertainty.draws, used_seed, threads);
   print_monte_carlo(out, c, file.uncertainty.inputs, r, used_seed);
   print_caution(out);
   return exit_ok;
@@ -50,13 +67,18 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
 }  // namespace
 
 extern const Command uncertainty_command{
-    "uncertainty", "uncertainty CASE", "Monte Carlo over the case's uncertain inputs: P10/P50/P90 of the interval",
-    "usage: acidload uncertainty CASE [--draws N] [--seed N] [--threads N] [--variant NAME] [--overlay FILE]...\n\n"
+    "uncertainty", "uncertainty CASE", "Monte Carlo over uncertain inputs: P5 to P95 of every charge's interval",
+    "usage: acidload uncertainty CASE [--lab FILE [--parameters KEY[,KEY…]]] [--first-charge] [--draws N] [--seed N]\n"
+    "                            [--threads N] [--variant NAME] [--overlay FILE]...\n\n"
     "Monte Carlo over the uncertain inputs declared in CASE's 'uncertainty' section (normal, lognormal,\n"
-    "uniform, triangular): P10, P50 and P90 of the drain interval and of the time to the first free\n"
-    "strong acid. Every draw has its own counter-based random stream, so the result is the same for\n"
-    "any number of threads (default: every core). N is a whole number: --draws 1 to 10000000,\n"
-    "--seed 0 to 9e15, --threads 1 to 256.\n",
+    "uniform, triangular) and, with --lab, over the parameters fitted to that lab file (as 'acidload fit'\n"
+    "does), drawn jointly from the fit's covariance: P5, P10, P50, P90 and P95 of the drain interval of\n"
+    "every charge of the record (each run on under its own last conditions to the hours cap; the low end\n"
+    "is the pessimistic one) and of the time to the first free strong acid. A draw outside a\n"
+    "parameter's range is clipped into it and counted. Every draw has its own counter-based random\n"
+    "stream, so the result is the same for any number of threads (default: every core). N is a whole\n"
+    "number: --draws 1 to 10000000, --seed 0 to 9e15, --threads 1 to 256.\n"
+    "  --first-charge  only the first charge (faster)\n",
     run};
 
 }  // namespace acidload_cli

@@ -18,12 +18,13 @@ not replace, the engine maker's and oil supplier's limits and lab analysis.
 """
 from . import _core
 from ._case import KEYWORDS, Case, Variant, case, case_from_dict, load_case, load_case_text
-from ._calibration import PARAMETERS, Fit, fit, fit_residuals, forecast, monte_carlo, predict, read_lab, read_lab_samples
+from ._calibration import (PARAMETERS, Fit, default_alarm_levels, fit, fit_residuals, forecast, monte_carlo, predict,
+                           read_lab, read_lab_samples, trend)
 from ._errors import Error, FitRefusedError, InputError, NoAnswerError, NotModelledError
 from ._gas import CONCENTRATION_UNITS, accepted_units, convert, molar_mass, molar_volume, parse_quantity
 from ._results import TRAJECTORY_UNITS, Result, VariantResult, run
 from ._studies import LEVERS, InverseAnswer, drain_interval, solve_for_interval
-from . import oil, so3, water
+from . import economics, oil, scrubber, so3, water
 
 #: The version of the library, the program and this package (defined once, in CMakeLists.txt).
 __version__: str = _core.version()
@@ -36,9 +37,10 @@ __all__ = [
     "run", "Result", "VariantResult", "TRAJECTORY_UNITS", "drain_interval", "solve_for_interval",
     "InverseAnswer", "LEVERS",
     # calibration and uncertainty
-    "read_lab", "read_lab_samples", "fit", "Fit", "fit_residuals", "forecast", "predict", "monte_carlo", "PARAMETERS",
+    "read_lab", "read_lab_samples", "fit", "Fit", "fit_residuals", "forecast", "predict", "trend", "default_alarm_levels",
+    "monte_carlo", "PARAMETERS",
     # errors
     "Error", "InputError", "NotModelledError", "NoAnswerError", "FitRefusedError",
     # physics from the core
-    "molar_mass", "molar_volume", "convert", "parse_quantity", "accepted_units", "CONCENTRATION_UNITS", "water", "so3", "oil",
+    "molar_mass", "molar_volume", "convert", "parse_quantity", "accepted_units", "CONCENTRATION_UNITS", "water", "so3", "oil", "scrubber", "economics",
 ]

@@ -25,7 +25,8 @@ import numpy as np
 from . import _core
 from ._case import Case, Variant, _engine_case
 
-__all__ = ["read_lab", "read_lab_samples", "fit", "Fit", "forecast", "predict", "monte_carlo", "fit_residuals", "PARAMETERS"]
+__all__ = ["read_lab", "read_lab_samples", "fit", "Fit", "forecast", "predict", "trend", "monte_carlo", "fit_residuals",
+           "PARAMETERS"]
 
 #: Keys of the parameters that can be fitted or varied.
 PARAMETERS: List[str] = list(_core.parameter_keys())
@@ -243,19 +244,42 @@ def predict(fit_or_case: Union[Fit, Case, Variant], lab: Any = None, *, paramete
     return out
 
 
+def trend(result: Fit, levels: Optional[Dict[str, Tuple[float, float]]] = None) -> Dict[str, Any]:
+    """Trend and alarms after a fit: the latest sample against the model's band, the current charge's TBN
+    slope against the model's (tbn_slope, tbn_slope_model [mg KOH/g per h]) with the H2S it implies
+    (implied_h2s_ppmv; "acid load above the model: check H2S and scrubber breakthrough"), and wear metals,
+    silicon, sodium, potassium, water, viscosity-100 (change from the charge's first sample [%]) against
+    caution and critical levels. ``levels`` replaces defaults: {"fe": (30, 50), "tbn": (2.5, 2.0)} (a
+    level pair falling, as for TBN, alarms at or below). Defaults: :func:`default_alarm_levels`,
+    common practice, no source; the engine maker's and oil supplier's limits govern."""
+    lv = []
+    for q, (caution, critical) in (levels or {}).items():
+        lv.append((q, float(caution), float(critical), float(critical) >= float(caution)))
+    return dict(_core.trend(result._r, lv))
+
+
+def default_alarm_levels() -> List[Tuple[str, float, float, bool, str]]:
+    """(quantity, caution, critical, rising, basis) of the default alarm levels."""
+    return list(_core.default_alarm_levels())
+
+
 def monte_carlo(case: Union[Case, Variant], *, inputs: Optional[Sequence[Tuple[str, str, float, float, float]]] = None,
-                draws: Optional[int] = None, seed: Optional[int] = None, threads: int = 0,
-                variant: Optional[str] = None) -> Dict[str, Any]:
+                draws: Optional[int] = None, seed: Optional[int] = None, threads: int = 0, fit: Optional[Fit] = None,
+                every_charge: bool = False, variant: Optional[str] = None) -> Dict[str, Any]:
     """Monte Carlo over uncertain inputs: the case's ``uncertainty`` section unless ``inputs`` gives
-    (key, distribution, a, b, c) tuples in core units. Returns per-draw arrays (drain_interval_h,
-    first_san_h — inf where none) and their P10/P50/P90; identical for any thread count."""
+    (key, distribution, a, b, c) tuples in core units, and with ``fit`` the fitted parameters drawn
+    jointly (correlated) from its covariance over its fitted case. Returns per-draw arrays
+    (drain_interval_h of the first charge, first_san_h — inf where none), their P5/P10/P50/P90/P95
+    (the low end the pessimistic one), with ``every_charge`` each charge of the record run on to the
+    hours cap (``charges``), and ``clipped``: draws with an input outside its range, clipped into it.
+    Identical for any thread count."""
     if inputs is None or draws is None or seed is None:
-        if not isinstance(case, Case):
-            raise TypeError("give inputs, draws and seed, or a Case with an uncertainty section")
-        file_inputs, file_draws, file_seed = _core.case_uncertainty(case._file)
+        file_inputs, file_draws, file_seed = (_core.case_uncertainty(case._file) if isinstance(case, Case)
+                                              else ([], 1000, 1))
         inputs = file_inputs if inputs is None else inputs
         draws = file_draws if draws is None else draws
         seed = file_seed if seed is None else seed
-    if not inputs:
-        raise ValueError("no uncertain inputs: give inputs or an uncertainty section in the case")
-    return dict(_core.monte_carlo(_engine_case(case, variant), list(inputs), int(draws), int(seed), int(threads)))
+    if not inputs and fit is None:
+        raise ValueError("no uncertain inputs: give inputs, a fit, or an uncertainty section in the case")
+    return dict(_core.monte_carlo(_engine_case(case, variant), list(inputs), int(draws), int(seed), int(threads),
+                                  fit._r if fit is not None else None, bool(every_charge)))

@@ -20,6 +20,7 @@
 #include "acidload/studies/calibration.hpp"
 #include "acidload/studies/forecast.hpp"
 #include "acidload/studies/monte_carlo.hpp"
+#include "acidload/studies/trend.hpp"
 #include "acidload/studies/inverse.hpp"
 
 namespace py = pybind11;
@@ -174,23 +175,16 @@ py::dict rates_dict(const OilRates& r) {
 // ---- sweeps: the loop in C++, the GIL released ------------------------------------------------
 using InArray = py::array_t<double, py::array::c_style | py::array::forcecast>;
 
-py::array_t<double> sweep_drain_interval(const EngineCase& c, const std::string& lever, const InArray& values) {
+py::array_t<double> sweep_for_python(const EngineCase& c, const std::string& lever, const InArray& values, int threads) {
   const Lever l = lever_from(lever);
-  const py::ssize_t n = values.size();
+  if (threads < 0) throw InputError("threads", std::to_string(threads), "0 (every core) or a positive thread count");
   py::array_t<double> out(values.request().shape);
-  const double* in = values.data();
-  double* o = out.mutable_data();
+  std::vector<double> r;
   {
     py::gil_scoped_release release;
-    for (py::ssize_t i = 0; i < n; ++i) {
-      try {
-        o[i] = drain_interval(with_lever(c, l, in[i]));
-      } catch (const InputError& e) {  // name the element of the sweep that was refused
-        throw InputError(e.key(), e.value(), e.expected() + " (element " + std::to_string(i) + " of the sweep)",
-                         e.where());
-      }
-    }
+    r = acidload::sweep_drain_interval(c, l, values.data(), static_cast<std::size_t>(values.size()), threads);
   }
+  std::copy(r.begin(), r.end(), out.mutable_data());
   return out;
 }
 
@@ -327,6 +321,25 @@ PYBIND11_MODULE(_core, m) {
   so3.def("equilibrium_so3_share", &so3::equilibrium_so3_share, py::arg("temperature_k"), py::arg("o2_fraction"),
           py::arg("total_pressure_pa"),
           "Equilibrium SO3/(SO2 + SO3) [mol/mol] at T [K], O2 mole fraction [mol/mol] and total pressure [Pa].");
+
+  // ---- scrubber beds (Thomas breakthrough) and cost arithmetic, for direct use and the reference tests
+  py::module_ scrub = m.def_submodule("scrubber", "Media beds by the Thomas breakthrough form, throughput variable.");
+  scrub.def("thomas_steepness", &thomas_steepness, py::arg("width"),
+            "beta = 2 ln 9 / width [-]; width: share of the bed life from 10 % to 90 % breakthrough.");
+  scrub.def("breakthrough_share", &breakthrough_share, py::arg("fed_share"), py::arg("steepness"),
+            "F(phi) = 1/(1 + exp(beta (1 - phi))) [-]; phi = sulfur fed / (q0 M).");
+  scrub.def("captured_share", &captured_share, py::arg("fed_share"), py::arg("steepness"),
+            "G(phi) = integral of 1 - F from 0 to phi: sulfur held as a share of q0 M [-].");
+  scrub.def("bed_outlet_ratio", &bed_outlet_ratio, py::arg("fed_share"), py::arg("efficiency"), py::arg("steepness"),
+            "Outlet over inlet H2S, (1 - eta) + eta F(phi) [-].");
+  scrub.def("fed_share_at_outlet_ratio", &fed_share_at_outlet_ratio, py::arg("ratio"), py::arg("efficiency"),
+            py::arg("steepness"), "phi at which the outlet ratio is reached [-] (InputError outside the fresh bed's range).");
+  scrub.def("iron_oxide_theoretical_capacity", &iron_oxide_theoretical_capacity,
+            "3 M_S / M_Fe2O3 [kg S per kg Fe2O3] (Fe2O3 + 3 H2S -> Fe2S3 + 3 H2O).");
+  scrub.def("caustic_per_sulfur", &caustic_per_sulfur, "2 M_NaOH / M_S [kg NaOH per kg S] (H2S + 2 NaOH -> Na2S + 2 H2O).");
+  py::module_ econ = m.def_submodule("economics", "Cost arithmetic: the capital recovery factor.");
+  econ.def("capital_recovery_factor", &capital_recovery_factor, py::arg("discount_rate"), py::arg("life_years"),
+           "i (1+i)^n / ((1+i)^n - 1) [1/year]; 1/n at i = 0.");
 
   // ---- the oil balance (MODEL §8), for direct use and for the reference tests
   py::module_ oil = m.def_submodule("oil", "The oil balance of one segment of constant rates (MODEL §8).");
@@ -499,8 +512,10 @@ PYBIND11_MODULE(_core, m) {
           return drain_interval(c);
         },
         py::arg("case"), "The drain interval of a variant [h]; the hours cap when no other limit is reached.");
-  m.def("sweep_drain_interval", &sweep_drain_interval, py::arg("case"), py::arg("lever"), py::arg("values"),
-        "Drain interval [h] for each value of one lever (core unit), computed in C++ with the GIL released.");
+  m.def("sweep_drain_interval", &sweep_for_python, py::arg("case"), py::arg("lever"), py::arg("values"),
+        py::arg("threads") = 0,
+        "Drain interval [h] for each value of one lever (core unit), computed in C++ with the GIL released, on "
+        "`threads` threads (0 = every core; the answers are the same for any count).");
   py::class_<InverseAnswer>(m, "InverseAnswer", "The answer of solve_for_interval, in the lever's core unit.")
       .def_readonly("found", &InverseAnswer::found)
       .def_readonly("value", &InverseAnswer::value, "in the lever's core unit")
@@ -744,8 +759,43 @@ PYBIND11_MODULE(_core, m) {
         py::arg("seed") = 1, py::arg("model_form") = true, py::arg("lab_first") = true, py::arg("initial_ph") = LabLimits{}.initial_ph,
         "The drain interval of the next charge (or the current one continued) with its P5/P50/P95 band [h]; plan: cases "
         "whose records are the planned operation (empty: the record's last segment).");
+  m.def("trend", [](const FitResult& f, const std::vector<std::tuple<std::string, double, double, bool>>& levels) {
+    std::vector<AlarmLevel> lv;
+    for (const auto& [q, caution, critical, rising] : levels) {
+      if (!(std::isfinite(caution) && std::isfinite(critical)) || (rising ? critical < caution : critical > caution))
+        throw InputError("alarm level " + q, format_value(caution) + " / " + format_value(critical),
+                         "a caution level and a critical level beyond it");
+      lv.push_back({q, caution, critical, rising, "set by the user"});
+    }
+    TrendResult t;
+    {
+      py::gil_scoped_release release;
+      t = trend(f, lv);
+    }
+    py::dict d;
+    py::list alarms;
+    for (const Alarm& a : t.alarms) {
+      py::dict x;
+      x["sample"] = a.sample, x["quantity"] = a.quantity, x["level"] = a.level, x["value"] = a.value, x["limit"] = a.limit;
+      x["message"] = a.message;
+      alarms.append(x);
+    }
+    d["alarms"] = alarms;
+    const auto opt = [](const std::optional<double>& v) { return v ? py::cast(*v) : py::none(); };
+    d["tbn_slope"] = opt(t.tbn_slope), d["tbn_slope_model"] = opt(t.tbn_slope_model), d["tbn_slope_error"] = opt(t.tbn_slope_error);
+    d["implied_h2s_ppmv"] = opt(t.implied_h2s);
+    return d;
+  }, py::arg("fit"), py::arg("levels") = std::vector<std::tuple<std::string, double, double, bool>>{},
+        "Trend and alarms: the latest sample against the model's band, the TBN slope [mg KOH/g per h] against the "
+        "model's and the H2S it implies [ppmv], readings against caution/critical levels ((quantity, caution, "
+        "critical, rising) replace the defaults).");
+  m.def("default_alarm_levels", []() {
+    py::list out;
+    for (const AlarmLevel& l : default_alarm_levels()) out.append(py::make_tuple(l.quantity, l.caution, l.critical, l.rising, l.basis));
+    return out;
+  }, "The default alarm levels: (quantity, caution, critical, rising, basis).");
   m.def("monte_carlo", [](const EngineCase& c, const std::vector<std::tuple<std::string, std::string, double, double, double>>& inputs,
-                          int draws, std::uint64_t seed, int threads) {
+                          int draws, std::uint64_t seed, int threads, const FitResult* fit, bool every_charge) {
     std::vector<UncertainInput> in;
     for (const auto& [key, kind, a, b, cc] : inputs) {
       Distribution d;
@@ -760,16 +810,30 @@ PYBIND11_MODULE(_core, m) {
     MonteCarloResult r;
     {
       py::gil_scoped_release release;
-      r = monte_carlo(c, in, draws, seed, threads);
+      r = monte_carlo(c, in, fit, every_charge, draws, seed, threads);
     }
     py::dict d;
     d["drain_interval_h"] = py::array_t<double>(static_cast<py::ssize_t>(r.drain_interval.size()), r.drain_interval.data());
     d["first_san_h"] = py::array_t<double>(static_cast<py::ssize_t>(r.first_san.size()), r.first_san.data());
     d["interval_p10_h"] = r.interval_p10, d["interval_p50_h"] = r.interval_p50, d["interval_p90_h"] = r.interval_p90;
     d["san_p10_h"] = r.san_p10, d["san_p50_h"] = r.san_p50, d["san_p90_h"] = r.san_p90;
+    d["interval_p5_h"] = r.interval_p5, d["interval_p95_h"] = r.interval_p95, d["san_p5_h"] = r.san_p5, d["san_p95_h"] = r.san_p95;
+    py::list charges;
+    for (std::size_t k = 0; k < r.charge_bands.size(); ++k) {
+      py::dict x;
+      const IntervalBand& b = r.charge_bands[k];
+      x["charge"] = k + 1;
+      x["drain_interval_h"] = py::array_t<double>(static_cast<py::ssize_t>(r.charge_intervals[k].size()), r.charge_intervals[k].data());
+      x["p5_h"] = b.p5, x["p10_h"] = b.p10, x["p50_h"] = b.p50, x["p90_h"] = b.p90, x["p95_h"] = b.p95;
+      charges.append(x);
+    }
+    d["charges"] = charges;
+    d["clipped"] = r.clipped;
+    d["fitted_parameters"] = r.fitted_parameters;
     d["draws"] = r.draws;
     return d;
   }, py::arg("case"), py::arg("inputs"), py::arg("draws"), py::arg("seed"), py::arg("threads") = 0,
+        py::arg("fit") = static_cast<const FitResult*>(nullptr), py::arg("every_charge") = false,
         "Monte Carlo: inputs as (key, distribution, a, b, c) in core units (normal: mean, sd; lognormal: median, "
         "sigma of ln; uniform: low, high; triangular: low, mode, high); identical for any thread count.");
   m.def("case_uncertainty", [](const io::CaseFile& f) {

@@ -153,10 +153,12 @@ std::vector<LabSample> read_lab_samples(const std::string& path, std::vector<std
       if (names[c] == n) return static_cast<int>(c);
     return -1;
   };
+  const bool hour_meter = col("hour-meter") >= 0 && col("changed-at") >= 0;  // oil hours from the hour meter
   for (const char* required : {"charge", "oil-hours"})
-    if (col(required) < 0)
+    if (col(required) < 0 && !(hour_meter && std::string(required) == "oil-hours"))
       throw d.error(Mark{t.lines.empty() ? 1 : t.lines.front() - 1, 1}, "lab columns", "(no " + std::string(required) + ")",
-                    std::string("a '") + required + "' column");
+                    std::string("a '") + required + "' column" +
+                        (std::string(required) == "oil-hours" ? " (or 'hour-meter' with 'changed-at')" : ""));
   for (const char* ftir : {"oxidation", "nitration"})
     if (col(ftir) >= 0 && units[static_cast<std::size_t>(col(ftir))].empty() && col("ftir-unit") < 0)
       throw d.error(Mark{t.lines.empty() ? 1 : t.lines.front() - 1, 1}, std::string(ftir), "(no unit)",

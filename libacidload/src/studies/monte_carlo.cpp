@@ -7,7 +7,10 @@
 #include <thread>
 
 #include "acidload/core/error.hpp"
+#include "acidload/studies/calibration.hpp"
 #include "acidload/studies/parameters.hpp"
+
+#include <Eigen/Dense>
 
 namespace acidload {
 
@@ -76,8 +79,48 @@ EngineCase first_charge_to_cap(const EngineCase& c) {
 }
 }  // namespace
 
+IntervalBand band_of(const std::vector<double>& v) {
+  return {percentile(v, 5), percentile(v, 10), percentile(v, 50), percentile(v, 90), percentile(v, 95)};
+}
+
+namespace {
+// Charge k of the record (with the charges before it), continued under its last segment to the cap.
+std::vector<Segment> charge_to_cap(const EngineCase& c, int k) {
+  std::vector<Segment> rec;
+  int charge = 0;
+  double hours = 0;
+  for (std::size_t i = 0; i < c.record.size(); ++i) {
+    bool change = false;
+    for (const OilEvent& e : c.record[i].events) change |= e.kind == OilEvent::Kind::oil_change;
+    if (change && i > 0) ++charge, hours = 0;
+    if (charge > k) break;
+    rec.push_back(c.record[i]);
+    hours += c.record[i].hours;
+  }
+  Segment more = rec.back();
+  more.events.clear();
+  more.starts = more.hours > 0 ? more.starts / more.hours * c.model.limits.max_hours : 0;
+  more.hours = c.model.limits.max_hours;  // past the cap whatever the charge ran already
+  more.calendar_hours = -1;
+  rec.push_back(more);
+  return rec;
+}
+int charge_count(const EngineCase& c) {
+  int n = 1;
+  for (std::size_t i = 1; i < c.record.size(); ++i)
+    for (const OilEvent& e : c.record[i].events) n += e.kind == OilEvent::Kind::oil_change;
+  return n;
+}
+}  // namespace
+
 MonteCarloResult monte_carlo(const EngineCase& c0, const std::vector<UncertainInput>& inputs, int draws,
                              std::uint64_t seed, int threads) {
+  return monte_carlo(c0, inputs, nullptr, false, draws, seed, threads);
+}
+
+MonteCarloResult monte_carlo(const EngineCase& c_in, const std::vector<UncertainInput>& inputs, const FitResult* fit,
+                             bool every_charge, int draws, std::uint64_t seed, int threads) {
+  const EngineCase& c0 = fit ? fit->fitted : c_in;
   check::in_range("draws", draws, 1, 1e7, "");
   for (const UncertainInput& in : inputs) {
     parameter(in.key);
@@ -93,16 +136,65 @@ MonteCarloResult monte_carlo(const EngineCase& c0, const std::vector<UncertainIn
   out.draws = draws;
   out.drain_interval.assign(static_cast<std::size_t>(draws), 0);
   out.first_san.assign(static_cast<std::size_t>(draws), 0);
-  const auto one = [&](int i) {
-    EngineCase x = c;
+  const int charges = every_charge ? charge_count(c0) : 0;
+  out.charge_intervals.assign(static_cast<std::size_t>(charges), std::vector<double>(static_cast<std::size_t>(draws), 0));
+  std::vector<char> clipped(static_cast<std::size_t>(draws), 0);
+  // a fit's parameters: φ = φ̂ + L·z, L from the covariance's eigen-decomposition (its dimensions
+  // come after the inputs' in the stream)
+  const std::size_t p = fit ? fit->parameters.size() : 0;
+  out.fitted_parameters = static_cast<int>(p);
+  Eigen::MatrixXd L = Eigen::MatrixXd::Zero(static_cast<Eigen::Index>(p), static_cast<Eigen::Index>(p));
+  if (p > 0) {
+    Eigen::MatrixXd S(L.rows(), L.cols());
+    for (std::size_t i = 0; i < p; ++i)
+      for (std::size_t j = 0; j < p; ++j) S(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(j)) = fit->covariance[i][j];
+    Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> es(S);
+    L = es.eigenvectors() * es.eigenvalues().cwiseMax(0.0).cwiseSqrt().asDiagonal();
+  }
+  const auto draw_case = [&](EngineCase& x, int i) {
+    if (p > 0) {
+      Eigen::VectorXd z(static_cast<Eigen::Index>(p));
+      for (std::size_t j = 0; j < p; ++j) {
+        const std::size_t d = 2 * (inputs.size() + j);
+        z[static_cast<Eigen::Index>(j)] = sample({Distribution::Kind::normal, 0, 1, 0}, uniform01(seed, static_cast<std::uint64_t>(i), d),
+                                                 uniform01(seed, static_cast<std::uint64_t>(i), d + 1));
+      }
+      const Eigen::VectorXd dphi = L * z;
+      for (std::size_t j = 0; j < p; ++j) {
+        const ParameterInfo& info = parameter(fit->parameters[j].key);
+        set_parameter(x, info.key, from_fit_space(info, fit->parameters[j].fit_estimate + dphi[static_cast<Eigen::Index>(j)]));
+      }
+    }
     for (std::size_t k = 0; k < inputs.size(); ++k) {
       const double u1 = uniform01(seed, static_cast<std::uint64_t>(i), 2 * k);
       const double u2 = uniform01(seed, static_cast<std::uint64_t>(i), 2 * k + 1);
-      set_parameter(x, inputs[k].key, sample(inputs[k].distribution, u1, u2));
+      const ParameterInfo& info = parameter(inputs[k].key);
+      const double v = sample(inputs[k].distribution, u1, u2);
+      const double in = info.bound == Bound::interval ? std::clamp(v, info.low, info.high)
+                        : info.bound == Bound::share    ? (v <= 0 ? 1e-6 : v >= 1 ? 1 - 1e-6 : v)
+                        : info.bound == Bound::positive ? (v > 0 ? v : 1e-9)
+                                                        : v;
+      if (in != v) clipped[static_cast<std::size_t>(i)] = 1;  // outside the range: clipped into it, counted
+      set_parameter(x, inputs[k].key, in);
+    }
+  };
+  const auto one = [&](int i) {
+    EngineCase x = c;
+    draw_case(x, i);
+    for (int k = 0; k < charges; ++k) {
+      EngineCase y = c0;
+      draw_case(y, i);
+      RunOptions o = y.options;
+      o.output_interval = 0;
+      o.keep_segment_ends = false;
+      const RunResult r = simulate(y.charge, y.model, charge_to_cap(y, k), o);
+      const ChargeSummary& ch = r.charges.back();
+      out.charge_intervals[static_cast<std::size_t>(k)][static_cast<std::size_t>(i)] = ch.first ? ch.drain_interval : y.model.limits.max_hours;
     }
     RunOptions o = x.options;
     o.output_interval = 0;
     o.keep_segment_ends = false;  // no trajectory is needed, only the limits
+    o.stop_when_interval_and_san_known = true;  // both figures reported are fixed from there on
     const RunResult r = simulate(x.charge, x.model, x.record, o);
     const ChargeSummary& ch = r.charges.front();
     out.drain_interval[static_cast<std::size_t>(i)] = ch.first ? ch.drain_interval : x.model.limits.max_hours;
@@ -130,6 +222,12 @@ MonteCarloResult monte_carlo(const EngineCase& c0, const std::vector<UncertainIn
   out.san_p10 = percentile(out.first_san, 10);
   out.san_p50 = percentile(out.first_san, 50);
   out.san_p90 = percentile(out.first_san, 90);
+  out.interval_p5 = percentile(out.drain_interval, 5);
+  out.interval_p95 = percentile(out.drain_interval, 95);
+  out.san_p5 = percentile(out.first_san, 5);
+  out.san_p95 = percentile(out.first_san, 95);
+  for (const auto& v : out.charge_intervals) out.charge_bands.push_back(band_of(v));
+  for (char x : clipped) out.clipped += x;
   return out;
 }
 
