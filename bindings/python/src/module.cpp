@@ -320,8 +320,8 @@ PYBIND11_MODULE(_core, m) {
           py::arg("total_pressure_pa"),
           "Equilibrium SO3/(SO2 + SO3) [mol/mol] at T [K], O2 mole fraction [mol/mol] and total pressure [Pa].");
 
-  // ---- the oil balance (MODEL §8), for direct use and for the reference tests
-  py::module_ oil = m.def_submodule("oil", "The oil balance of one segment of constant rates (MODEL §8).");
+  // ---- the oil balance (docs/model.md §8), for direct use and for the reference tests
+  py::module_ oil = m.def_submodule("oil", "The oil balance of one segment of constant rates (docs/model.md §8).");
   py::enum_<BaseNumberMethod>(oil, "BaseNumberMethod", "Base-number titration methods (ASTM D2896, D4739).")
       .value("D2896", BaseNumberMethod::d2896)
       .value("D4739", BaseNumberMethod::d4739);
