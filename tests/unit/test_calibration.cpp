@@ -5,6 +5,7 @@
 #include <cmath>
 
 #include "../support/lab_history.hpp"
+#include "../support/reference_check.hpp"
 #include "acidload/core/error.hpp"
 #include "acidload/studies/calibration.hpp"
 #include "acidload/studies/forecast.hpp"
@@ -175,10 +176,12 @@ TEST_CASE("a fit to a plant the model does not describe warns (chi-square)") {
   CHECK(f.warnings.back().find("does not describe this plant") != std::string::npos);
 }
 
-TEST_CASE("chi-square tail against tabulated quantiles (NIST/SEMATECH e-Handbook, table 1.3.6.7.4, from memory)") {
-  // upper-tail critical values: chi2(0.05; 10) = 18.307, chi2(0.01; 30) = 50.892
-  CHECK(chi2_upper_tail(18.307, 10) == doctest::Approx(0.05).epsilon(1e-3));
-  CHECK(chi2_upper_tail(50.892, 30) == doctest::Approx(0.01).epsilon(1e-3));
+TEST_CASE("chi-square tail against tabulated critical values") {
+  // upper-tail critical values chi2(0.05; 10) = 18.307, chi2(0.01; 30) = 50.892 (tabulated to 3 decimals)
+  REFERENCE_CHECK("chi-square tail at chi2(0.05; 10) = 18.307", chi2_upper_tail(18.307, 10), 0.05, relative, 1e-3, "-",
+                  "docs/references.md [NISTHandbook] (from memory)");
+  REFERENCE_CHECK("chi-square tail at chi2(0.01; 30) = 50.892", chi2_upper_tail(50.892, 30), 0.01, relative, 2e-3, "-",
+                  "docs/references.md [NISTHandbook] (from memory)");
 }
 
 TEST_CASE("outliers and lab changes are flagged; censored SAN counts only when exceeded") {

@@ -20,6 +20,7 @@ from . import _core
 from ._case import KEYWORDS, Case, Variant, case, case_from_dict, load_case, load_case_text
 from ._calibration import (PARAMETERS, Fit, default_alarm_levels, fit, fit_residuals, forecast, monte_carlo, predict,
                            read_lab, read_lab_samples, trend)
+from ._fleet import FLEET_COLUMNS, CaseOutcome, FleetResult, monte_carlo_many, run_many
 from ._errors import Error, FitRefusedError, InputError, NoAnswerError, NotModelledError
 from ._gas import CONCENTRATION_UNITS, accepted_units, convert, molar_mass, molar_volume, parse_quantity
 from ._results import TRAJECTORY_UNITS, Result, VariantResult, run
@@ -36,6 +37,8 @@ __all__ = [
     # runs and studies
     "run", "Result", "VariantResult", "TRAJECTORY_UNITS", "drain_interval", "solve_for_interval",
     "InverseAnswer", "LEVERS",
+    # fleets: many cases on all cores or a Dask cluster
+    "run_many", "monte_carlo_many", "FleetResult", "CaseOutcome", "FLEET_COLUMNS",
     # calibration and uncertainty
     "read_lab", "read_lab_samples", "fit", "Fit", "fit_residuals", "forecast", "predict", "trend", "default_alarm_levels",
     "monte_carlo", "PARAMETERS",
