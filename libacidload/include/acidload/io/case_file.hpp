@@ -9,6 +9,7 @@
 
 #include "acidload/studies/calibration.hpp"
 #include "acidload/studies/whatif.hpp"
+#include "acidload/io/keys.hpp"
 
 namespace acidload::io {
 
@@ -32,15 +33,13 @@ struct CaseFile {
   UncertaintySettings uncertainty;           //!< the `uncertainty` section, if any
 };
 
-//! Reads a case file. Overlays (files of the same format holding any subset of its sections,
-//! typically `model:` from a calibration) are merged over the base in order, before the variants.
+//! Reads a case file. Every key is read through the registry (keys.hpp). Overlays (files of the same format holding any subset of its sections,
+//! typically `model:` from a calibration) are merged over the base in order, before the variants;
+//! a relative record file in an overlay resolves next to the overlay.
 //! Every mistake throws InputError naming the file, line, column, key, value and expectation.
 CaseFile load_case(const std::string& path, const std::vector<std::string>& overlays = {});
 //! The same from text; relative file names (a record CSV) resolve against `base_dir`.
 CaseFile load_case_text(std::string_view text, const std::string& file_name, const std::string& base_dir,
                         const std::vector<std::string>& overlays = {});
-
-//! The keys of each section, for the reference page and for tests.
-const std::vector<std::string>& section_keys(std::string_view section);
 
 }  // namespace acidload::io
