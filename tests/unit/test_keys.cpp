@@ -17,6 +17,7 @@
 #include "acidload/acidload.hpp"
 #include "acidload/io/case_file.hpp"
 #include "acidload/io/keys.hpp"
+#include "acidload/io/lab_file.hpp"
 
 using namespace acidload;
 
@@ -252,4 +253,57 @@ TEST_CASE("a variant named '' is refused at its line") {
   c.extra = "variants:\n  - name: ''\n    engine: {power: 700 kW}\n";
   CHECK_THROWS_WITH_AS(load(c), doctest::Contains("k.yaml:11:"), InputError);
   CHECK_THROWS_WITH_AS(load(c), doctest::Contains("not empty"), InputError);
+}
+
+TEST_CASE("lab files: a SAN limit below zero and an initial pH outside 0-14 are refused at the cell") {
+  namespace fs = std::filesystem;
+  const fs::path dir = fs::temp_directory_path() / "acidload-test-lab-refusals";
+  fs::create_directories(dir);
+  const auto refused = [&](const std::string& san, const std::string& ph, const std::string& fragment) {
+    const fs::path p = dir / "lab.csv";
+    std::ofstream(p) << "charge,oil-hours,tbn [mg KOH/g],san,i-ph\n1,250,5.1," << san << "," << ph << "\n";
+    try {
+      io::read_lab_samples(p.string());
+      return false;
+    } catch (const InputError& e) {
+      const std::string m = e.what();
+      return e.where().line == 2 && m.find(fragment) != std::string::npos;
+    }
+  };
+  CHECK(refused("<-1", "5.5", "reporting limit above 0"));
+  CHECK(refused("<0", "5.5", "reporting limit above 0"));
+  CHECK(refused("<0.1", "-50", "pH from 0 to 14"));
+  CHECK(refused("<0.1", "1e300", "pH from 0 to 14"));
+  CHECK(refused("<0.1", "14.5", "pH from 0 to 14"));
+  CHECK_FALSE(refused("<0.1", "14", ""));  // the ends are accepted
+  CHECK_FALSE(refused("0.3", "0", ""));
+  fs::remove_all(dir);
+}
+
+TEST_CASE("H2S of 20 % or more is refused on every path, and a high real value is read as given") {
+  CaseText c;
+  for (const std::string v : {"250000 ppmv", "2e6 ppmv", "1e7 mg/Nm3", "200000 ppmv"}) {
+    CAPTURE(v);
+    c.sections["fuel"]["h2s"] = v;
+    try {
+      load(c);
+      FAIL("accepted");
+    } catch (const InputError& e) {
+      CHECK(e.key() == "fuel.h2s");
+      CHECK(e.where().line == c.line_of("fuel", "h2s"));
+    }
+  }
+  // 15 % (dry, no water): the wet fraction is the figure itself (definition of ppmv on a dry basis)
+  c.sections["fuel"]["h2s"] = "150000 ppmv";
+  const io::CaseFile f = load(c);
+  CHECK(f.variants[0].record[0].fuel[Gas::H2S] == doctest::Approx(0.15).epsilon(1e-12));
+  // the same in a record row: refused at the row's own key
+  CaseText r;
+  r.segments = {"{hours: 100 h}", "{hours: 100 h, h2s: 250000 ppmv}"};
+  try {
+    load(r);
+    FAIL("accepted");
+  } catch (const InputError& e) {
+    CHECK(e.key() == "record.segments[1].h2s");
+  }
 }

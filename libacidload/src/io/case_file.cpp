@@ -20,6 +20,7 @@ namespace acidload::io {
 namespace {
 using detail::EngineInputs;
 using detail::OilInputs;
+using detail::describe;
 using detail::Reader;
 
 // A CSV record as a list of segment nodes; header "name [unit]" gives bare cells a unit. A relative
@@ -58,6 +59,41 @@ std::vector<Node> csv_segments(Reader& r, const Node& file_node) {
     out.push_back(std::move(row));
   }
   return out;
+}
+
+// The caps on work (case_file.hpp), checked before anything runs; each refusal names the key that
+// sets the work: the row where the hours pass the cap, the output interval, the detection step.
+void check_work(const Reader& r, const Node& root, const EngineCase& c, const std::vector<Node>& rows) {
+  double hours = 0;
+  for (std::size_t i = 0; i < c.record.size(); ++i) {
+    hours += c.record[i].hours;
+    if (hours > max_simulated_hours) {
+      const Node& at = rows.empty() ? (root.find("run") ? *root.find("run") : root) : rows[i];
+      const Node* h = at.find("hours");
+      r.fail(h ? *h : at, format_value(hours) + " h in all",
+             "a record of at most " + format_value(max_simulated_hours) + " running hours (a cap on work; docs/case-format.md)");
+    }
+  }
+  const auto where = [&](const char* path, const char* fallback) -> const Node& {
+    const auto it = r.seen.find(path);
+    if (it != r.seen.end()) return *it->second;
+    if (const Node* n = root.find(fallback)) return *n;
+    return root;
+  };
+  const double points = hours / c.options.output_interval;
+  if (points > max_trajectory_points) {
+    const Node& at = where("run.output-interval", "run");
+    r.fail(at, describe(at), "an output interval of at least " + format_value(hours / max_trajectory_points) + " h: " +
+                                 format_value(std::ceil(points)) + " trajectory points over " + format_value(hours) +
+                                 " h is more than the cap of " + format_value(max_trajectory_points) + " (docs/case-format.md)");
+  }
+  const double steps = hours / c.options.detection_step;
+  if (steps > max_detection_steps) {
+    const Node& at = where("run.detection-step", "run");
+    r.fail(at, describe(at), "a detection step of at least " + format_value(hours / max_detection_steps) + " h: " +
+                                 format_value(std::ceil(steps)) + " detection steps over " + format_value(hours) +
+                                 " h is more than the cap of " + format_value(max_detection_steps) + " (docs/case-format.md)");
+  }
 }
 
 const Node& section(const Reader& r, const Node& root, const char* key, const char* what) {
@@ -132,6 +168,9 @@ EngineCase build(Reader& r, const Node& root, const std::string& name) {
       rows = segs->items;
     }
     if (rows.empty()) r.fail(*rec, "", "at least one segment");
+    if (rows.size() > max_record_rows)
+      r.fail(file ? *file : *segs, std::to_string(rows.size()) + " segments",
+             "a record of at most " + std::to_string(max_record_rows) + " segments (a cap on work; docs/case-format.md)");
   }
   if (rows.empty()) {
     base.hours = horizon;
@@ -156,6 +195,7 @@ EngineCase build(Reader& r, const Node& root, const std::string& name) {
       prev = s;
     }
   }
+  check_work(r, root, c, rows);
   // validate the operation of every segment here, so that a range error names the place
   for (std::size_t i = 0; i < c.record.size(); ++i) {
     try {
@@ -234,7 +274,11 @@ CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::
   out.variants.push_back(build(r, root, base_name));
   if (const Node* vs = root0.find("variants")) {
     if (vs->type != Node::Type::sequence) r.fail(*vs, "", "a list of variants, each with a 'name'");
+    if (vs->items.size() > max_variants)
+      r.fail(*vs, std::to_string(vs->items.size()) + " variants",
+             "at most " + std::to_string(max_variants) + " variants (a cap on work; docs/case-format.md)");
     std::set<std::string> names{base_name};
+    std::size_t segments = out.variants.front().record.size();
     out.variants.reserve(vs->items.size() + 1);
     for (const Node& v : vs->items) {
       r.require_section(v, "variant");
@@ -246,6 +290,10 @@ CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::
       Node merged = root;
       detail::merge_layer(merged, without(v, {"name"}));
       out.variants.push_back(build(r, merged, name));
+      segments += out.variants.back().record.size();
+      if (segments > max_segments_in_all)
+        r.fail(*n, name, "variants whose records hold at most " + std::to_string(max_segments_in_all) +
+                             " segments in all (a cap on memory; docs/case-format.md)");
     }
   }
   return out;

@@ -37,7 +37,7 @@ double Reader::value(const Node& n, const CaseKey& k) const {
   double v = quantity(doc(n), n, k.kind);
   // an end written in another unit ("-40 degC" for 233.15 K) is the end, not a rounding error past it
   const auto snap = [&](double end) {
-    if (std::isfinite(end) && std::fabs(v - end) <= 1e-12 * std::max(1.0, std::fabs(end))) v = end;
+    if (std::isfinite(end) && end != 0 && std::fabs(v - end) <= 1e-12 * std::fabs(end)) v = end;
   };
   snap(k.low);
   snap(k.high);
@@ -368,7 +368,8 @@ void read_segment(const Reader& r, const Node& row, Segment& s, const EngineInpu
   r.get(row, "segment.excess-air-ratio", s.operation.air.excess_air_ratio);
   const Node* ev = row.find("event");
   const Node* amt = row.find("event-amount");
-  if (amt && !ev) r.fail(*amt, amt->scalar, "an 'event' for the amount to belong to");
+  const bool no_event = !ev || (ev->type == Node::Type::scalar && ev->scalar.empty());  // `event: ''` is no event
+  if (amt && no_event) r.fail(*amt, amt->scalar, "an 'event' (oil-change, top-up or partial-drain) for the amount to belong to");
   if (ev && !(ev->type == Node::Type::scalar && ev->scalar.empty())) {
     OilEvent e;
     const std::string w = r.word(*ev, case_key("segment.event"));
@@ -385,7 +386,9 @@ void read_segment(const Reader& r, const Node& row, Segment& s, const EngineInpu
       e.kind = OilEvent::Kind::top_up;
       if (amount) {
         const double v = quantity(r.doc(*amt), *amt, Kind::volume);
-        if (!(v >= 0 && v <= 100)) r.fail(*amt, amt->scalar, "a top-up volume from 0 to 100 m3");
+        const double system = ch.mass / ch.oil.density_15;  // [m³]
+        if (!(v >= 0 && v <= system))
+          r.fail(*amt, amt->scalar, "a top-up from 0 to the system's own volume, " + format_value(system * 1e3) + " L");
         e.amount = v * ch.oil.density_15;
       }
     } else {

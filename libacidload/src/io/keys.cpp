@@ -8,6 +8,7 @@
 #include <map>
 
 #include "acidload/core/error.hpp"
+#include "acidload/studies/monte_carlo.hpp"
 #include "acidload/core/constants.hpp"
 #include "text.hpp"
 
@@ -283,7 +284,7 @@ std::vector<CaseKey> build_table() {
 
   // ---- uncertainty
   b.section = "uncertainty";
-  b.q("draws", K::count, 1, 1e7, "", "10000", "number of draws", "UncertaintySettings::draws");
+  b.q("draws", K::count, 1, max_draws, "", "10000", "number of draws (at most 1e6: about 3 h of one core for a one-year hourly record)", "UncertaintySettings::draws");
   b.q("seed", K::count, 0, 9e15, "", "1", "seed of the counter-based random stream", "UncertaintySettings::seed");
   b.other("inputs", T::list, "required", "the uncertain inputs (below)", "UncertaintySettings::inputs");
 

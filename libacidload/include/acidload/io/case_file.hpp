@@ -17,6 +17,16 @@ namespace acidload::io {
 //! The newest format version this reader knows. Files of every older version keep loading.
 inline constexpr int case_format_version = 1;
 
+//! Caps on the work one case may ask for, each refused up front with the key named (the reasons are
+//! in docs/case-format.md, "Limits on work"). Within them a run of one variant stays within about
+//! ten seconds of one core and a few hundred MB.
+inline constexpr double max_trajectory_points = 1e6;  //!< simulated hours ÷ output interval, per variant (~140 MB)
+inline constexpr double max_detection_steps = 5e6;    //!< simulated hours ÷ detection step, per variant
+inline constexpr double max_simulated_hours = 1e7;    //!< a record's running hours (1140 years)
+inline constexpr std::size_t max_record_rows = 1000000;     //!< segments of one record
+inline constexpr std::size_t max_variants = 10000;          //!< variants of one case
+inline constexpr std::size_t max_segments_in_all = 2000000; //!< record segments over all variants (~600 MB)
+
 //! The `uncertainty` section: inputs for Monte Carlo and its settings.
 struct UncertaintySettings {
   std::vector<UncertainInput> inputs;  //!< empty when the case has no such section
