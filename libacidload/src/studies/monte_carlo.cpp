@@ -121,7 +121,7 @@ MonteCarloResult monte_carlo(const EngineCase& c0, const std::vector<UncertainIn
 MonteCarloResult monte_carlo(const EngineCase& c_in, const std::vector<UncertainInput>& inputs, const FitResult* fit,
                              bool every_charge, int draws, std::uint64_t seed, int threads) {
   const EngineCase& c0 = fit ? fit->fitted : c_in;
-  check::in_range("draws", draws, 1, 1e7, "");
+  check::in_range("draws", draws, 1, max_draws, "");
   for (const UncertainInput& in : inputs) {
     parameter(in.key);
     const Distribution& d = in.distribution;
