@@ -9,6 +9,7 @@
 #include "acidload/io/case_file.hpp"
 #include "acidload/io/lab_file.hpp"
 #include "acidload/io/quantity.hpp"
+#include "acidload/io/report.hpp"
 #include "acidload/io/results.hpp"
 #include "acidload/studies/inverse.hpp"
 #include "demo_case.hpp"
@@ -34,6 +35,7 @@ const char* main_help =
     "  convert FIG  a contaminant figure in every unit, for the gas of a case\n"
     "  fit CASE     calibrate parameters to the plant's lab history (--lab FILE --parameters …)\n"
     "  forecast CASE  remaining hours of the current charge to each limit, with a band (after a fit)\n"
+    "  report CASE  one self-contained HTML page with the comparison, plots, inputs and cautions\n"
     "  uncertainty CASE  Monte Carlo over the case's uncertain inputs: P10/P50/P90 of the interval\n"
     "  demo         run the bundled demo site (invented data)\n\n"
     "options:\n"
@@ -48,14 +50,29 @@ const char* check_help =
     "Exit code 3 with file:line:column and the reason when the case has a mistake.\n";
 
 const char* run_help =
-    "usage: acidload run CASE [--overlay FILE]... [--out FOLDER]\n\n"
+    "usage: acidload run CASE [--overlay FILE]... [--out FOLDER] [--summary-csv FILE]\n\n"
     "Runs every variant of the case file CASE and prints a comparison: acid into the oil by species,\n"
     "the initial TBN fall, the drain interval and the limit that ends it (or 'not reached'), TBN, TAN\n"
     "and SAN there, and the exhaust sulfuric-acid dew point.\n\n"
     "  --out FOLDER   also write FOLDER/summary.json (every figure, units in the key names) and\n"
     "                 FOLDER/trajectories.csv (TBN, TAN, SAN, oxidation, nitration against hours per\n"
     "                 variant). Written to a new folder and swapped in: a failed run leaves an\n"
-    "                 existing FOLDER as it was.\n";
+    "                 existing FOLDER as it was.\n"
+    "  --summary-csv FILE  also write the comparison table as CSV: one row per variant and charge\n"
+    "                 (charges numbered from 1), units in the header; written atomically.\n";
+
+const char* report_help =
+    "usage: acidload report CASE [--lab FILE [--parameters KEY[,KEY…]]] [--overlay FILE]... --out REPORT.html\n\n"
+    "Writes one self-contained HTML page (inline CSS and SVG, no scripts, nothing fetched: it opens from a\n"
+    "USB stick and prints on A4): cautions and warnings, the comparison of the variants, TBN, TAN, SAN and\n"
+    "oxidation against oil hours with the limits and each drain interval, the drain interval against H2S,\n"
+    "acid into the oil by species, every input marked given, default, fitted or overlay, the model's\n"
+    "assumptions, the acidload version and the SHA-256 of each input file.\n"
+    "  --lab FILE         also the lab readings of FILE against the model: fitted to them (parameters\n"
+    "                     model.liner-uptake,model.oxidation-rate unless --parameters names others) with a\n"
+    "                     90 %% band; a fit the data cannot support is reported, not drawn\n"
+    "  --out REPORT.html  the page; written to a temporary file and renamed. An existing file is replaced\n"
+    "                     only if it is an acidload report.\n";
 
 const char* solve_help =
     "usage: acidload solve CASE --for LEVER --target HOURS [--range LOW HIGH] [--variant NAME] [--overlay FILE]...\n\n"
@@ -108,7 +125,7 @@ struct Args {
   std::string command, case_file;
   std::vector<std::string> overlays;
   std::string out, lever, target, low, high, variant, species = "H2S", convert_case, lab, parameters, write_overlay;
-  std::string draws, seed, threads;
+  std::string draws, seed, threads, summary_csv;
   bool help = false;
 };
 
@@ -120,7 +137,7 @@ Args parse(int argc, char** argv) {
     if (s == "--help" || s == "-h") a.help = true;
     else if (s == "--overlay" || s == "--out" || s == "--for" || s == "--target" || s == "--variant" ||
              s == "--as" || s == "--case" || s == "--lab" || s == "--parameters" || s == "--write-overlay" ||
-             s == "--draws" || s == "--seed" || s == "--threads") {
+             s == "--draws" || s == "--seed" || s == "--threads" || s == "--summary-csv") {
       if (i + 1 >= argc) throw UsageError(s + " needs a value");
       const std::string v = argv[++i];
       if (s == "--overlay") a.overlays.push_back(v);
@@ -135,6 +152,7 @@ Args parse(int argc, char** argv) {
       else if (s == "--draws") a.draws = v;
       else if (s == "--seed") a.seed = v;
       else if (s == "--threads") a.threads = v;
+      else if (s == "--summary-csv") a.summary_csv = v;
       else a.convert_case = v;
     } else if (s == "--range") {
       if (i + 2 >= argc) throw UsageError("--range needs LOW and HIGH");
@@ -147,7 +165,7 @@ Args parse(int argc, char** argv) {
   return a;
 }
 
-int run_case(const acidload::io::CaseFile& c, const std::string& out) {
+int run_case(const acidload::io::CaseFile& c, const std::string& out, const std::string& summary_csv = "") {
   using clock = std::chrono::steady_clock;
   const auto start = clock::now();
   const bool terminal = isatty(STDERR_FILENO);
@@ -162,8 +180,37 @@ int run_case(const acidload::io::CaseFile& c, const std::string& out) {
   }
   if (shown) std::fprintf(stderr, "\r%60s\r", "");
   if (!out.empty()) acidload::io::write_results(out, c, rows);  // before printing: a failed write prints no table
+  if (!summary_csv.empty()) acidload::io::write_text_file(summary_csv, acidload::io::summary_csv(c, rows));
   acidload_cli::print_comparison(stdout, c, rows);
   if (!out.empty()) std::printf("\nResults written to %s/summary.json and %s/trajectories.csv\n", out.c_str(), out.c_str());
+  if (!summary_csv.empty()) std::printf("Comparison table written to %s\n", summary_csv.c_str());
+  acidload_cli::print_caution(stdout);
+  return exit_ok;
+}
+
+int report(const Args& a) {
+  if (a.case_file.empty()) throw UsageError("report needs a case file");
+  if (a.out.empty()) throw UsageError("report needs --out REPORT.html");
+  if (!a.parameters.empty() && a.lab.empty()) throw UsageError("--parameters goes with --lab");
+  const acidload::io::CaseFile c = acidload::io::load_case(a.case_file, a.overlays);
+  std::vector<acidload::VariantSummary> rows;
+  for (const auto& v : c.variants) rows.push_back(acidload::summarize(v));
+  acidload::io::ReportOptions o;
+  o.lab_file = a.lab;
+  if (!a.parameters.empty()) {
+    o.parameters.clear();
+    for (std::size_t start = 0; start <= a.parameters.size();) {
+      const auto comma = a.parameters.find(',', start);
+      const std::string key = a.parameters.substr(start, comma == std::string::npos ? std::string::npos : comma - start);
+      if (!key.empty()) o.parameters.push_back(key);
+      if (comma == std::string::npos) break;
+      start = comma + 1;
+    }
+    for (const std::string& k : o.parameters) acidload::parameter(k);  // unknown keys: bad input with the list
+  }
+  const acidload::io::ReportData d = acidload::io::gather_report(c, rows, o);
+  acidload::io::write_report(a.out, acidload::io::report_html(d));  // complete before anything is replaced
+  std::printf("Report written to %s (%zu variant(s)%s)\n", a.out.c_str(), rows.size(), d.lab ? ", with the lab results" : "");
   acidload_cli::print_caution(stdout);
   return exit_ok;
 }
@@ -345,7 +392,11 @@ int main(int argc, char** argv) {
         std::printf("\n%s: no mistakes found\n", a.case_file.c_str());
         return exit_ok;
       }
-      return run_case(c, a.out);
+      return run_case(c, a.out, a.summary_csv);
+    }
+    if (a.command == "report") {
+      if (a.help) return std::printf(report_help), exit_ok;
+      return report(a);
     }
     if (a.command == "solve") {
       if (a.help) return std::printf("%s", solve_help), exit_ok;

@@ -656,6 +656,24 @@ UncertaintySettings read_uncertainty(const Reader& r, const Node& u) {
   return out;
 }
 
+// "section.key" → the file that set it, for the sections of a variant's merged tree.
+std::map<std::string, std::string> key_sources(const Reader& r, const Node& root) {
+  std::map<std::string, std::string> out;
+  for (const auto& [section, node] : root.entries) {
+    if (section == "variants" || section == "uncertainty" || section == "format-version" || section == "case") continue;
+    if (node.type != Node::Type::map) {
+      out[section] = r.doc(node).file;
+      continue;
+    }
+    for (const auto& [key, value] : node.entries) {
+      const Node* first = &value;  // a merged map may mix sources: the first entry's stands for it
+      while (first->type == Node::Type::map && !first->entries.empty()) first = &first->entries.front().second;
+      out[section + "." + key] = r.doc(*first).file;
+    }
+  }
+  return out;
+}
+
 std::shared_ptr<Document> parse_into(Reader& r, std::string_view text, const std::string& file) {
   auto d = std::make_shared<Document>(parse_document(text, file));
   set_source(d->root, static_cast<int>(r.docs.size()));
@@ -705,6 +723,8 @@ CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::
   std::string base_name = "base";
   if (const Node* b = root.find("base-name")) base_name = r.text(*b);
   out.variants.push_back(build(r, root, base_name));
+  out.key_sources.push_back(key_sources(r, root));
+  out.variant_keys.emplace_back();
   if (const Node* vs = root.find("variants")) {
     if (vs->type != Node::Type::sequence) r.fail(*vs, "", "a list of variants, each with a 'name'");
     std::set<std::string> names{base_name};
@@ -721,6 +741,10 @@ CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::
                           layer.entries.end());
       merge(merged, layer);
       out.variants.push_back(build(r, merged, name));
+      out.key_sources.push_back(key_sources(r, merged));
+      std::vector<std::string> own;
+      for (const auto& [key, file] : key_sources(r, layer)) own.push_back(key);
+      out.variant_keys.push_back(std::move(own));
     }
   }
   return out;
