@@ -7,6 +7,8 @@
 #include "../support/lab_history.hpp"
 #include "acidload/core/error.hpp"
 #include "acidload/studies/calibration.hpp"
+#include "acidload/studies/forecast.hpp"
+#include "acidload/studies/monte_carlo.hpp"
 
 using namespace acidload;
 using acidload_test::history_case;

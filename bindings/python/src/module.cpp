@@ -18,6 +18,8 @@
 #include "acidload/io/report.hpp"
 #include "acidload/io/results.hpp"
 #include "acidload/studies/calibration.hpp"
+#include "acidload/studies/forecast.hpp"
+#include "acidload/studies/monte_carlo.hpp"
 #include "acidload/studies/inverse.hpp"
 
 namespace py = pybind11;
