@@ -167,6 +167,8 @@ class InverseAnswer:
     reason: str
     evaluations: int
 
+def default_search(case: EngineCase, lever: str) -> Tuple[float, float, float]: ...  # (low, high, tolerance), core unit
+
 def solve_for_interval(case: EngineCase, lever: str, target_hours: float, low: float, high: float,
                        tolerance: float) -> InverseAnswer: ...
 

@@ -67,8 +67,7 @@ void translate(std::exception_ptr p) {
 
 // ---- levers and units ------------------------------------------------------------------------
 Lever lever_from(const std::string& text) {
-  for (Lever l : {Lever::h2s_ppmv_dry, Lever::fresh_tbn, Lever::jacket_water_out, Lever::oil_volume})
-    if (text == name(l)) return l;
+  if (const std::optional<Lever> l = lever_named(text)) return *l;
   throw InputError("lever", text, "one of h2s, fresh-tbn, jacket-water-out, oil-volume");
 }
 
@@ -526,6 +525,14 @@ PYBIND11_MODULE(_core, m) {
       .def_readonly("interval_at_high", &InverseAnswer::interval_at_high, "[h]")
       .def_readonly("reason", &InverseAnswer::reason)
       .def_readonly("evaluations", &InverseAnswer::evaluations);
+  m.def("default_search",
+        [](const EngineCase& c, const std::string& lever) {
+          const LeverSearch s = default_search(c, lever_from(lever));
+          return py::make_tuple(s.low, s.high, s.tolerance);
+        },
+        py::arg("case"), py::arg("lever"),
+        "(low, high, tolerance) in the lever's core unit: where solve searches when no range is given "
+        "(acidload::default_search, the same defaults as the program's solve).");
   m.def("solve_for_interval",
         [](const EngineCase& c, const std::string& lever, double target, double low, double high, double tolerance) {
           const Lever l = lever_from(lever);

@@ -18,6 +18,30 @@ std::string_view name(Lever l) {
   return "?";
 }
 
+std::optional<Lever> lever_named(std::string_view word) {
+  for (Lever l : {Lever::h2s_ppmv_dry, Lever::fresh_tbn, Lever::jacket_water_out, Lever::oil_volume})
+    if (name(l) == word) return l;
+  return std::nullopt;
+}
+
+LeverSearch default_search(const EngineCase& c, Lever l) {
+  // The ranges cover the plants the program is meant for (common practice, no source); the
+  // tolerances are far below what the inputs are known to.
+  switch (l) {
+    case Lever::h2s_ppmv_dry: return {0, 3000, 0.01};  // ppmv dry
+    case Lever::fresh_tbn: {                           // mg KOH/g: from just above what the oil cannot give up
+      const OilProperties& o = c.charge.oil;
+      return {o.base_floor + o.weak_base(o.fresh_tbn_method) + 0.01, 30, 1e-4};
+    }
+    case Lever::jacket_water_out: return {333.15, 393.15, 1e-3};  // K: 60 to 120 degC
+    case Lever::oil_volume: {                                     // m3: a tenth to ten times the case's
+      const double v = lever_value(c, l);
+      return {0.1 * v, 10 * v, 1e-6};
+    }
+  }
+  return {};
+}
+
 EngineCase with_lever(const EngineCase& c, Lever l, double v) {
   EngineCase x = c;
   switch (l) {

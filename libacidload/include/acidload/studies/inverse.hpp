@@ -3,6 +3,7 @@
 // bracketing root-finding on the exact forward model. "No answer in the range" is an answer.
 #include <optional>
 #include <string>
+#include <string_view>
 
 #include "acidload/studies/whatif.hpp"
 
@@ -16,6 +17,16 @@ enum class Lever {
   oil_volume,         //!< oil in circulation at 15 °C [m³]
 };
 std::string_view name(Lever l);  //!< "h2s", "fresh-tbn", "jacket-water-out", "oil-volume"
+//! The lever name() calls `word`; nullopt for any other word.
+std::optional<Lever> lever_named(std::string_view word);
+
+//! Where an inverse question searches when no range is given, and to what tolerance, in the lever's
+//! unit: the one set of defaults of the program's `solve` and the Python package.
+struct LeverSearch {
+  double low = 0, high = 0;  //!< the range searched
+  double tolerance = 0;      //!< of the answer
+};
+LeverSearch default_search(const EngineCase& c, Lever l);
 
 //! The case with one lever set to `value` (in the lever's unit).
 EngineCase with_lever(const EngineCase& c, Lever l, double value);
