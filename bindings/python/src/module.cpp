@@ -174,23 +174,16 @@ py::dict rates_dict(const OilRates& r) {
 // ---- sweeps: the loop in C++, the GIL released ------------------------------------------------
 using InArray = py::array_t<double, py::array::c_style | py::array::forcecast>;
 
-py::array_t<double> sweep_drain_interval(const EngineCase& c, const std::string& lever, const InArray& values) {
+py::array_t<double> sweep_for_python(const EngineCase& c, const std::string& lever, const InArray& values, int threads) {
   const Lever l = lever_from(lever);
-  const py::ssize_t n = values.size();
+  if (threads < 0) throw InputError("threads", std::to_string(threads), "0 (every core) or a positive thread count");
   py::array_t<double> out(values.request().shape);
-  const double* in = values.data();
-  double* o = out.mutable_data();
+  std::vector<double> r;
   {
     py::gil_scoped_release release;
-    for (py::ssize_t i = 0; i < n; ++i) {
-      try {
-        o[i] = drain_interval(with_lever(c, l, in[i]));
-      } catch (const InputError& e) {  // name the element of the sweep that was refused
-        throw InputError(e.key(), e.value(), e.expected() + " (element " + std::to_string(i) + " of the sweep)",
-                         e.where());
-      }
-    }
+    r = acidload::sweep_drain_interval(c, l, values.data(), static_cast<std::size_t>(values.size()), threads);
   }
+  std::copy(r.begin(), r.end(), out.mutable_data());
   return out;
 }
 
@@ -515,8 +508,10 @@ PYBIND11_MODULE(_core, m) {
           return drain_interval(c);
         },
         py::arg("case"), "The drain interval of a variant [h]; the hours cap when no other limit is reached.");
-  m.def("sweep_drain_interval", &sweep_drain_interval, py::arg("case"), py::arg("lever"), py::arg("values"),
-        "Drain interval [h] for each value of one lever (core unit), computed in C++ with the GIL released.");
+  m.def("sweep_drain_interval", &sweep_for_python, py::arg("case"), py::arg("lever"), py::arg("values"),
+        py::arg("threads") = 0,
+        "Drain interval [h] for each value of one lever (core unit), computed in C++ with the GIL released, on "
+        "`threads` threads (0 = every core; the answers are the same for any count).");
   py::class_<InverseAnswer>(m, "InverseAnswer", "The answer of solve_for_interval, in the lever's core unit.")
       .def_readonly("found", &InverseAnswer::found)
       .def_readonly("value", &InverseAnswer::value, "in the lever's core unit")

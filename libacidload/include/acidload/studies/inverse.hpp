@@ -4,6 +4,7 @@
 #include <optional>
 #include <string>
 #include <string_view>
+#include <vector>
 
 #include "acidload/studies/whatif.hpp"
 
@@ -35,6 +36,11 @@ double lever_value(const EngineCase& c, Lever l);
 
 //! The drain interval of a case [h]; the hours cap when no limit other than the cap is reached.
 double drain_interval(const EngineCase& c);
+
+//! drain_interval() of the case with the lever at each of `n` values [h], on `threads` threads
+//! (0 = every core). Each value is its own run, so the answers are identical whatever the thread
+//! count. A refused value throws the InputError of the lowest refused element, naming its index.
+std::vector<double> sweep_drain_interval(const EngineCase& c, Lever l, const double* values, std::size_t n, int threads = 0);
 
 struct InverseAnswer {
   bool found = false;         //!< a value in [low, high] meets the target
