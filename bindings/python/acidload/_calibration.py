@@ -14,7 +14,6 @@ A fit the data cannot identify raises :class:`FitRefusedError` with the reason.
 from __future__ import annotations
 
 import os
-import tempfile
 from typing import Any, Dict, List, Optional, Sequence, Tuple, Union
 
 import numpy as np
@@ -84,19 +83,17 @@ class Fit:
         """The estimates as an overlay (format version 1) for ``acidload run CASE --overlay FILE``."""
         return self._r.overlay_text(case_file, lab_file)
 
-    def write_overlay(self, path: Union[str, os.PathLike], case_file: str = "CASE", lab_file: str = "LAB") -> None:
-        """Writes the overlay atomically (a temporary file renamed into place)."""
-        path = os.fspath(path)
-        folder = os.path.dirname(os.path.abspath(path))
-        fd, tmp = tempfile.mkstemp(dir=folder, prefix=".overlay-")
-        try:
-            with os.fdopen(fd, "w", encoding="utf-8") as f:
-                f.write(self.overlay_text(case_file, lab_file))
-            os.replace(tmp, path)
-        except BaseException:
-            if os.path.exists(tmp):
-                os.remove(tmp)
-            raise
+    def write_overlay(self, path: Union[str, os.PathLike], case_file: str = "CASE", lab_file: str = "LAB", *,
+                      inputs: Sequence[Union[str, os.PathLike]] = ()) -> None:
+        """Writes the overlay atomically, as ``acidload fit --write-overlay`` does: refused (InputError's
+        sibling acidload.Error, the file left as it was) when ``path`` is ``case_file``, ``lab_file`` or
+        one of ``inputs`` (any other file the fit read), or an existing file that is not an overlay
+        acidload wrote. A symbolic link is written through."""
+        for name, v in (("path", path), ("case_file", case_file), ("lab_file", lab_file)):
+            if not isinstance(v, (str, os.PathLike)):
+                raise TypeError(f"write_overlay(): {name} is a file name, not {type(v).__name__}")
+        self._r.write_overlay(os.fspath(path), os.fspath(case_file), os.fspath(lab_file),
+                              [os.fspath(x) for x in inputs])
 
     def __repr__(self) -> str:
         est = ", ".join(f"{k}={v:.4g}±{self.standard_errors[k]:.2g}" for k, v in self.estimates.items())

@@ -603,7 +603,13 @@ PYBIND11_MODULE(_core, m) {
       .def_readonly("flags", &FitResult::flags)
       .def_readonly("fitted", &FitResult::fitted, "the case with the estimates put in")
       .def("overlay_text", [](const FitResult& f, const std::string& c, const std::string& l) { return io::overlay_text(f, c, l); },
-           py::arg("case_file"), py::arg("lab_file"), "The estimates as overlay text for 'acidload run --overlay'.");
+           py::arg("case_file"), py::arg("lab_file"), "The estimates as overlay text for 'acidload run --overlay'.")
+      .def("write_overlay",
+           [](const FitResult& f, const std::string& path, const std::string& c, const std::string& l,
+              const std::vector<std::string>& inputs) { io::write_overlay(path, f, c, l, inputs); },
+           py::arg("path"), py::arg("case_file"), py::arg("lab_file"), py::arg("inputs"),
+           "Writes the overlay as the program's fit --write-overlay does (io::write_overlay: the files read "
+           "and files acidload did not write are refused).");
   m.def("calibrate", [](const EngineCase& c, const std::vector<LabSample>& s, const std::vector<std::string>& keys) {
     FitSettings fs;
     fs.parameters = keys;
