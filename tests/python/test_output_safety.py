@@ -138,7 +138,8 @@ def test_a_signal_mid_run_leaves_the_old_result_or_the_new_one(site, tmp_path, s
             assert not debris(tmp_path)
         assert (out / "summary.json").read_text() == good and (out / MARKER).is_file()
     assert run("run", site / "case.yaml", "--out", out).returncode == 0
-    assert not debris(tmp_path)  # a killed run's temporary is gone after the next run
+    left = debris(tmp_path)
+    assert not left, [(n, sorted(p.name for p in (tmp_path / n).iterdir()), (tmp_path / n / MARKER).read_text() if (tmp_path / n / MARKER).exists() else None) for n in left]  # a killed run's temporary is gone after the next run
 
 
 def test_four_parallel_runs_on_one_folder(site, tmp_path):

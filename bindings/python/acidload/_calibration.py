@@ -20,6 +20,8 @@ import numpy as np
 
 from . import _core
 from ._case import Case, Variant, _engine_case
+from ._checks import number, whole
+from ._errors import InputError
 
 __all__ = ["read_lab", "fit", "Fit", "forecast", "monte_carlo", "fit_residuals", "PARAMETERS"]
 
@@ -136,4 +138,19 @@ def monte_carlo(case: Union[Case, Variant], *, inputs: Optional[Sequence[Tuple[s
         seed = file_seed if seed is None else seed
     if not inputs:
         raise ValueError("no uncertain inputs: give inputs or an uncertainty section in the case")
-    return dict(_core.monte_carlo(_engine_case(case, variant), list(inputs), int(draws), int(seed), int(threads)))
+    # The same limits as the program's uncertainty command (--draws, --seed, --threads); 0 threads: every core.
+    draws = whole(draws, "draws", 1, 10_000_000)
+    seed = whole(seed, "seed", 0, 9 * 10**15)
+    threads = whole(threads, "threads", 0, 256)
+    checked = []
+    for i, item in enumerate(inputs):
+        try:
+            key, dist, a, b, c = item
+        except (TypeError, ValueError):
+            raise InputError(f"'inputs[{i}]' = {item!r}: expected (key, distribution, a, b, c)", key=f"inputs[{i}]",
+                             value=repr(item), expected="(key, distribution, a, b, c)") from None
+        if not isinstance(key, str) or not isinstance(dist, str):
+            raise InputError(f"'inputs[{i}]': the key and the distribution are text", key=f"inputs[{i}]",
+                             value=repr(item), expected="(key, distribution, a, b, c) with key and distribution as text")
+        checked.append((key, dist, number(a, f"inputs[{i}][2]"), number(b, f"inputs[{i}][3]"), number(c, f"inputs[{i}][4]")))
+    return dict(_core.monte_carlo(_engine_case(case, variant), checked, draws, seed, threads))

@@ -179,16 +179,22 @@ py::array_t<double> sweep_drain_interval(const EngineCase& c, const std::string&
   py::array_t<double> out(values.request().shape);
   const double* in = values.data();
   double* o = out.mutable_data();
-  {
-    py::gil_scoped_release release;
-    for (py::ssize_t i = 0; i < n; ++i) {
-      try {
-        o[i] = drain_interval(with_lever(c, l, in[i]));
-      } catch (const InputError& e) {  // name the element of the sweep that was refused
-        throw InputError(e.key(), e.value(), e.expected() + " (element " + std::to_string(i) + " of the sweep)",
-                         e.where());
+  // In blocks with the GIL released; between blocks Ctrl-C (and any other signal Python handles)
+  // is checked, so a long sweep can be interrupted within one block's time.
+  constexpr py::ssize_t block = 16;
+  for (py::ssize_t first = 0; first < n; first += block) {
+    {
+      py::gil_scoped_release release;
+      for (py::ssize_t i = first; i < std::min(n, first + block); ++i) {
+        try {
+          o[i] = drain_interval(with_lever(c, l, in[i]));
+        } catch (const InputError& e) {  // name the element of the sweep that was refused
+          throw InputError(e.key(), e.value(), e.expected() + " (element " + std::to_string(i) + " of the sweep)",
+                           e.where());
+        }
       }
     }
+    if (PyErr_CheckSignals() != 0) throw py::error_already_set();
   }
   return out;
 }

@@ -246,6 +246,18 @@ std::string not_replaceable(const fs::path& dir) {
   return "";
 }
 
+// Removes a folder of acidload's (checked by not_replaceable) with its marker last, so that a kill
+// part-way leaves a folder still recognisably acidload's for the next run to finish removing.
+void remove_own_folder(const fs::path& dir) {
+  std::error_code ec;
+  std::vector<fs::path> entries;
+  for (fs::directory_iterator it(dir, ec); !ec && it != fs::directory_iterator(); it.increment(ec))
+    if (it->path().filename() != results_marker) entries.push_back(it->path());
+  for (const fs::path& p : entries) fs::remove(p, ec);
+  fs::remove(dir / results_marker, ec);
+  fs::remove(dir, ec);
+}
+
 bool process_alive(long pid) { return pid > 0 && (::kill(static_cast<pid_t>(pid), 0) == 0 || errno == EPERM); }
 
 // Temporaries (.acidload-tmp-PID-N) of writers that are no longer running, left by a kill: removed
@@ -262,7 +274,7 @@ void remove_stale_temporaries(const fs::path& parent) {
     std::error_code e2;
     const auto st = fs::symlink_status(it->path(), e2);
     if (fs::is_directory(st)) {
-      if (not_replaceable(it->path()).empty()) fs::remove_all(it->path(), e2);
+      if (not_replaceable(it->path()).empty()) remove_own_folder(it->path());
     } else if (fs::is_regular_file(st)) {
       fs::remove(it->path(), e2);
     }
@@ -340,7 +352,7 @@ void write_results_folder(const std::string& folder, const std::vector<ResultFil
     put_file(fresh / results_marker, marker);  // first: a killed write leaves a folder recognisably ours
     for (const ResultFile& f : files) put_file(fresh / f.name, f.text);
   } catch (...) {
-    fs::remove_all(fresh, ec);
+    remove_own_folder(fresh);
     throw;
   }
   int rc = existed ? ::renameat2(AT_FDCWD, fresh.c_str(), AT_FDCWD, target.c_str(), RENAME_EXCHANGE)
@@ -351,16 +363,16 @@ void write_results_folder(const std::string& folder, const std::vector<ResultFil
       const fs::path old = temporary_name(parent);
       if (::rename(target.c_str(), old.c_str()) != 0) {
         const int e = errno;
-        fs::remove_all(fresh, ec);
+        remove_own_folder(fresh);
         throw Error("cannot replace " + shown(target) + ": " + why(e) + " (nothing was written)");
       }
       if (::rename(fresh.c_str(), target.c_str()) != 0) {
         const int e = errno;
         ::rename(old.c_str(), target.c_str());  // put the previous result back
-        fs::remove_all(fresh, ec);
+        remove_own_folder(fresh);
         throw Error("cannot move the results into " + shown(target) + ": " + why(e));
       }
-      fs::remove_all(old, ec);
+      remove_own_folder(old);
       ::fsync(lock.fd());
       return;
     }
@@ -368,10 +380,10 @@ void write_results_folder(const std::string& folder, const std::vector<ResultFil
   }
   if (rc != 0) {
     const int e = errno;
-    fs::remove_all(fresh, ec);
+    remove_own_folder(fresh);
     throw Error("cannot move the results into " + shown(target) + ": " + why(e) + " (nothing was written)");
   }
-  if (existed) fs::remove_all(fresh, ec);  // the previous result, now under the temporary name
+  if (existed) remove_own_folder(fresh);  // the previous result, now under the temporary name
   ::fsync(lock.fd());
 }
 
