@@ -81,9 +81,9 @@ double crankcase_wetness(double dew, double cold, double scale, double starts_pe
   return 1.0 - (1.0 - ws) * (1.0 - fw);
 }
 
-Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParameters& p) {
+Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParameters& p, bool check_parameters) {
   validate(op);
-  validate(p);
+  if (check_parameters) validate(p);
   Transfer t;
   t.fuel_flow = op.fuel_flow;
   t.sulfur_flow = fuel.sulfur() * op.fuel_flow;

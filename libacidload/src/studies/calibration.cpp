@@ -98,9 +98,17 @@ std::vector<SampleResidual> predict(const EngineCase& c, const std::vector<LabSa
   std::vector<SampleResidual> out;
   for (std::size_t i = 0; i < samples.size(); ++i) {
     const LabSample& s = samples[i];
+    // the last point of the sample's charge at its time: engine hours never fall along the
+    // trajectory, so a binary search finds the points at that time (not a scan per sample)
+    const double tol = 1e-6 * (1 + times[i]);
+    const auto past = std::upper_bound(r.trajectory.begin(), r.trajectory.end(), times[i] + tol,
+                                       [](double t, const TrajectoryPoint& q) { return t < q.engine_hours; });
     const TrajectoryPoint* p = nullptr;
-    for (const TrajectoryPoint& q : r.trajectory)
-      if (q.charge == s.charge && std::fabs(q.engine_hours - times[i]) < 1e-6 * (1 + times[i])) p = &q;
+    for (auto q = past; q != r.trajectory.begin() && std::fabs((q - 1)->engine_hours - times[i]) < tol; --q)
+      if ((q - 1)->charge == s.charge) {
+        p = &*(q - 1);
+        break;
+      }
     if (!p) throw Error("internal: no trajectory point at the sample " + s.where);
     const auto add = [&](const char* reading, double measured, double predicted, bool censored, BaseNumberMethod mth) {
       SampleResidual x;
@@ -293,5 +301,6 @@ FitResult calibrate(const EngineCase& c, const std::vector<LabSample>& samples, 
   }
   return out;
 }
+
 
 }  // namespace acidload

@@ -3,7 +3,11 @@
 #include <boost/math/tools/toms748_solve.hpp>
 #include <algorithm>
 #include <cmath>
+#include <algorithm>
+#include <atomic>
 #include <cstdint>
+#include <exception>
+#include <thread>
 
 #include "acidload/core/error.hpp"
 
@@ -90,6 +94,47 @@ double drain_interval(const EngineCase& c) {
   const RunResult r = simulate(c.charge, c.model, c.record, o);
   const ChargeSummary& ch = r.charges.front();
   return ch.first ? ch.drain_interval : c.model.limits.max_hours;
+}
+
+std::vector<double> sweep_drain_interval(const EngineCase& c, Lever l, const double* values, std::size_t n, int threads,
+                                         const std::atomic<bool>* stop) {
+  std::vector<double> out(n, 0.0);
+  std::size_t workers = threads > 0 ? static_cast<std::size_t>(threads) : std::max(1u, std::thread::hardware_concurrency());
+  workers = std::max<std::size_t>(1, std::min(workers, n));
+  constexpr std::size_t block = 16;  // values handed out at a time
+  std::atomic<std::size_t> next{0};
+  std::atomic<std::size_t> first_bad{n};  // lowest refused element so far; later ones are skipped
+  std::vector<std::exception_ptr> errors(n == 0 ? 0 : (n + block - 1) / block);
+  const auto work = [&] {
+    for (std::size_t b; (b = next.fetch_add(block)) < n;) {
+      if (stop && stop->load()) break;
+      for (std::size_t i = b; i < std::min(n, b + block); ++i) {
+        if (i > first_bad.load()) break;
+        try {
+          out[i] = drain_interval(with_lever(c, l, values[i]));
+        } catch (const InputError& e) {  // name the element of the sweep that was refused
+          errors[b / block] = std::make_exception_ptr(
+              InputError(e.key(), e.value(), e.expected() + " (element " + std::to_string(i) + " of the sweep)", e.where()));
+        } catch (...) {
+          errors[b / block] = std::current_exception();
+        }
+        if (errors[b / block]) {
+          for (std::size_t f = first_bad.load(); i < f && !first_bad.compare_exchange_weak(f, i);) {}
+          break;
+        }
+      }
+    }
+  };
+  if (workers == 1) {
+    work();
+  } else {
+    std::vector<std::thread> pool;
+    for (std::size_t t = 0; t < workers; ++t) pool.emplace_back(work);
+    for (auto& th : pool) th.join();
+  }
+  if (first_bad.load() < n) std::rethrow_exception(errors[first_bad.load() / block]);
+  if (stop && stop->load()) throw Error("sweep interrupted");
+  return out;
 }
 
 InverseAnswer solve_for_interval(const EngineCase& c, Lever lever, double target, double lo, double hi, double tol) {

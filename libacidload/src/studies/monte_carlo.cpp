@@ -103,6 +103,7 @@ MonteCarloResult monte_carlo(const EngineCase& c0, const std::vector<UncertainIn
     RunOptions o = x.options;
     o.output_interval = 0;
     o.keep_segment_ends = false;  // no trajectory is needed, only the limits
+    o.stop_when_interval_and_san_known = true;  // both figures reported are fixed from there on
     const RunResult r = simulate(x.charge, x.model, x.record, o);
     const ChargeSummary& ch = r.charges.front();
     out.drain_interval[static_cast<std::size_t>(i)] = ch.first ? ch.drain_interval : x.model.limits.max_hours;

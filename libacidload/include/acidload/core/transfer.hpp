@@ -103,7 +103,8 @@ double liner_uptake_factor(double subcooling, double scale);
 double crankcase_wetness(double blowby_dew_point, double coldest_surface, double scale,
                          double starts_per_hour, double warmup_hours);
 
-//! The transfer of one operating state.
-Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParameters& p);
+//! The transfer of one operating state. `check_parameters` false skips validate(p), for a caller
+//! that has validated the parameters once for a whole record (the operation is always validated).
+Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParameters& p, bool check_parameters = true);
 
 }  // namespace acidload
