@@ -256,6 +256,7 @@ TEST_CASE("the report page of the demo case is well-formed, marks its inputs and
   REQUIRE(d.sweeps.size() == c.variants.size());
   CHECK(d.sweeps[0].h2s_ppmv.front() == 0);
   const std::string html = report_html(d);
+  CHECK(html.rfind(report_signature, 0) == 0);  // the first line says whose it is
   CHECK(html.find(report_marker) < 200);
   CHECK(html.find("<script") == std::string::npos);
   CHECK(html.find("http://") == html.find("http://www.w3.org/2000/svg"));  // no address but the SVG namespace
@@ -285,19 +286,28 @@ TEST_CASE("a report replaces only a file that is an acidload report, and atomica
   fs::create_directories(dir);
   const fs::path other = dir / "notes.html";
   std::ofstream(other) << "<html>my own notes</html>";
-  CHECK_THROWS_AS(write_report(other.string(), std::string(report_marker) + "new"), Error);
+  CHECK_THROWS_AS(write_report(other.string(), std::string(report_signature) + " -->\nnew"), Error);
   std::ifstream in(other);
   std::string kept((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
   CHECK(kept == "<html>my own notes</html>");
   const fs::path mine = dir / "report.html";
-  write_report(mine.string(), std::string(report_marker) + " one");
-  write_report(mine.string(), std::string(report_marker) + " two");  // its own report: replaced
+  write_report(mine.string(), std::string(report_signature) + " -->\none");
+  write_report(mine.string(), std::string(report_signature) + " -->\ntwo");  // its own report: replaced
   std::ifstream in2(mine);
   std::string now((std::istreambuf_iterator<char>(in2)), std::istreambuf_iterator<char>());
   CHECK(now.find("two") != std::string::npos);
   std::size_t files = 0;
-  for (const auto& e : fs::directory_iterator(dir)) files += e.is_regular_file();
-  CHECK(files == 2);  // no temporary left behind
+  for (const auto& e : fs::directory_iterator(dir)) files += e.is_regular_file() && e.path().filename().string()[0] != '.';
+  CHECK(files == 2);
+  // the summary CSV: only over a summary CSV
+  const fs::path table = dir / "table.csv";
+  std::ofstream(table) << "a,b\n1,2\n";
+  CHECK_THROWS_AS(write_summary_csv(table.string(), std::string(summary_csv_signature) + "x\n"), Error);
+  fs::remove(table);
+  write_summary_csv(table.string(), std::string(summary_csv_signature) + "x\n");
+  write_summary_csv(table.string(), std::string(summary_csv_signature) + "y\n");
+  // and never over an input of the run
+  CHECK_THROWS_AS(write_report(table.string(), "x", {table.string()}), Error);
   fs::remove_all(dir);
 }
 

@@ -39,7 +39,7 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
   std::vector<acidload::VariantSummary> rows;
   for (const auto& v : c.variants) rows.push_back(acidload::summarize(v));
   const acidload::io::ReportData d = acidload::io::gather_report(c, rows, ro);
-  acidload::io::write_report(o.out, acidload::io::report_html(d));  // built whole before anything is replaced
+  acidload::io::write_report(o.out, acidload::io::report_html(d), acidload::io::report_inputs(c, o.lab));  // built whole before anything is replaced
   std::fprintf(out, "Report written to %s (%zu variant(s)%s)\n", o.out.c_str(), rows.size(),
                d.lab ? ", with the lab results" : "");
   print_caution(out);

@@ -27,7 +27,7 @@ int run_case(std::FILE* out, const acidload::io::CaseFile& c, const std::string&
   }
   if (shown) std::fprintf(stderr, "\r%60s\r", "");
   if (!out_folder.empty()) acidload::io::write_results(out_folder, c, rows);
-  if (!summary_csv.empty()) acidload::io::write_text_file(summary_csv, acidload::io::summary_csv(c, rows));
+  if (!summary_csv.empty()) acidload::io::write_summary_csv(summary_csv, acidload::io::summary_csv(c, rows), acidload::io::report_inputs(c, ""));
   print_comparison(out, c, rows);
   if (!out_folder.empty())
     std::fprintf(out, "\nResults written to %s/summary.json and %s/trajectories.csv\n", out_folder.c_str(),

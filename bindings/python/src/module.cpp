@@ -567,7 +567,7 @@ PYBIND11_MODULE(_core, m) {
              o.lab_file = lab;
              if (!parameters.empty()) o.parameters = parameters;
              py::gil_scoped_release release;
-             io::write_report(path, io::report_html(io::gather_report(r.file, r.rows, o)));
+             io::write_report(path, io::report_html(io::gather_report(r.file, r.rows, o)), io::report_inputs(r.file, lab));
            },
            py::arg("path"), py::arg("lab") = "", py::arg("parameters") = std::vector<std::string>{},
            "Writes the report page atomically; an existing file is replaced only if it is an acidload report.");

@@ -17,6 +17,7 @@
 #include "acidload/acidload.hpp"
 #include "acidload/io/document.hpp"
 #include "acidload/io/lab_file.hpp"
+#include "acidload/io/results.hpp"
 #include "acidload/io/svg.hpp"
 #include "acidload/studies/inverse.hpp"
 #include "acidload/studies/parameters.hpp"
@@ -115,6 +116,30 @@ std::string read_head(const std::string& path, std::size_t bytes) {
   f.read(s.data(), static_cast<std::streamsize>(bytes));
   s.resize(static_cast<std::size_t>(std::max<std::streamsize>(0, f.gcount())));
   return s;
+}
+
+// The record CSV files the case file names (read again: the loaded case keeps only their segments).
+std::vector<std::string> record_files(const CaseFile& c) {
+  std::vector<std::string> out;
+  std::error_code ec;
+  if (!std::filesystem::is_regular_file(c.file, ec)) return out;
+  try {
+    const Document doc = read_document(c.file);
+    const auto record_file = [&](const Node& root) {
+      const Node* rec = root.find("record");
+      const Node* f = rec ? rec->find("file") : nullptr;
+      if (!f || f->type != Node::Type::scalar) return;
+      std::filesystem::path p = f->scalar;
+      if (p.is_relative()) p = std::filesystem::path(c.file).parent_path() / p;
+      if (std::find(out.begin(), out.end(), p.string()) == out.end()) out.push_back(p.string());
+    };
+    record_file(doc.root);
+    if (const Node* vs = doc.root.find("variants"))
+      for (const Node& v : vs->items) record_file(v);
+  } catch (const Error&) {
+    // the case was read once already; a file that changed since is left out
+  }
+  return out;
 }
 
 bool is_fitted_overlay(const std::string& path) { return read_head(path, 64).rfind("# Fitted by acidload", 0) == 0; }
@@ -299,28 +324,7 @@ ReportData gather_report(const CaseFile& c, const std::vector<VariantSummary>& r
   };
   file("case", c.file);
   for (const std::string& ov : c.overlays) file(is_fitted_overlay(ov) ? "overlay (fitted)" : "overlay", ov);
-  {  // the record files the case names (read again only to hash them)
-    std::error_code ec;
-    if (std::filesystem::is_regular_file(c.file, ec)) {
-      try {
-        const Document doc = read_document(c.file);
-        std::set<std::string> seen;
-        const auto record_file = [&](const Node& root) {
-          const Node* rec = root.find("record");
-          const Node* f = rec ? rec->find("file") : nullptr;
-          if (!f || f->type != Node::Type::scalar) return;
-          std::filesystem::path p = f->scalar;
-          if (p.is_relative()) p = std::filesystem::path(c.file).parent_path() / p;
-          if (seen.insert(p.string()).second) file("record", p.string());
-        };
-        record_file(doc.root);
-        if (const Node* vs = doc.root.find("variants"))
-          for (const Node& v : vs->items) record_file(v);
-      } catch (const Error&) {
-        // the case was read once already; a file that changed since is left unhashed
-      }
-    }
-  }
+  for (const std::string& f : record_files(c)) file("record", f);
   const std::string head = read_head(c.file, 2048);
   std::string lower;
   std::transform(head.begin(), head.end(), std::back_inserter(lower), [](unsigned char ch) { return std::tolower(ch); });
@@ -466,7 +470,7 @@ std::string th_col(const std::string& s) { return "<th scope=\"col\">" + s + "</
 
 std::string report_html(const ReportData& d) {
   std::ostringstream h;
-  h << "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n" << report_marker << "\n<meta charset=\"utf-8\"/>\n"
+  h << report_signature << " -->\n<html lang=\"en\">\n<head>\n" << report_marker << "\n<meta charset=\"utf-8\"/>\n"
     << "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\"/>\n"
     << "<title>" << esc(d.title) << " — oil acid load report</title>\n<style>" << css << "</style>\n</head>\n<body>\n";
   h << "<header><p class=\"kind\">Oil acid load report</p><h1>" << esc(d.title) << "</h1><p class=\"meta\">Case file <code>"
@@ -802,36 +806,20 @@ std::string summary_csv(const CaseFile& c, const std::vector<VariantSummary>& ro
 }
 
 // ---- writing ----------------------------------------------------------------------------------
-void write_text_file(const std::string& path, const std::string& text, std::string_view marker) {
-  namespace fs = std::filesystem;
-  const fs::path target = fs::absolute(path);
-  std::error_code ec;
-  if (fs::exists(target, ec)) {
-    if (!fs::is_regular_file(target, ec))
-      throw Error("the output path " + target.string() + " exists and is not a file; nothing was written");
-    if (!marker.empty() && read_head(target.string(), 4096).find(marker) == std::string::npos)
-      throw Error(target.string() + " exists and is not an acidload report; it was left as it was (choose another name)");
-  }
-  fs::create_directories(target.parent_path(), ec);  // as --out folders are
-  std::random_device rd;
-  const fs::path tmp = target.parent_path() / ("." + target.filename().string() + ".new-" + std::to_string(rd() % 1000000));
-  {
-    std::ofstream f(tmp, std::ios::binary | std::ios::trunc);
-    f << text;
-    f.close();
-    if (!f) {
-      fs::remove(tmp, ec);
-      throw Error("cannot write " + tmp.string() + " (for " + target.string() + ")");
-    }
-  }
-  fs::rename(tmp, target, ec);
-  if (ec) {
-    std::error_code ec2;
-    fs::remove(tmp, ec2);
-    throw Error("cannot write " + target.string() + ": " + ec.message());
-  }
+void write_report(const std::string& path, const std::string& html, const std::vector<std::string>& inputs) {
+  write_owned_file(path, html, std::string(report_signature), inputs);
 }
 
-void write_report(const std::string& path, const std::string& html) { write_text_file(path, html, report_marker); }
+void write_summary_csv(const std::string& path, const std::string& csv, const std::vector<std::string>& inputs) {
+  write_owned_file(path, csv, std::string(summary_csv_signature), inputs);
+}
+
+std::vector<std::string> report_inputs(const CaseFile& c, const std::string& lab) {
+  std::vector<std::string> in{c.file};
+  in.insert(in.end(), c.overlays.begin(), c.overlays.end());
+  for (const std::string& f : record_files(c)) in.push_back(f);
+  if (!lab.empty()) in.push_back(lab);
+  return in;
+}
 
 }  // namespace acidload::io

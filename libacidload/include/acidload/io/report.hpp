@@ -18,8 +18,12 @@ namespace acidload::io {
 //! SHA-256 of bytes as 64 lowercase hex digits (FIPS 180-4).
 std::string sha256_hex(std::string_view bytes);
 
-//! The marker every acidload report carries near its start; write_report replaces only files that have it.
+//! The first line of every acidload report starts with this; write_report replaces only files that do.
+inline constexpr std::string_view report_signature = "<!DOCTYPE html><!-- acidload report";
+//! The generator tag in the report's head.
 inline constexpr std::string_view report_marker = "<meta name=\"generator\" content=\"acidload report\"/>";
+//! The summary CSV's header starts with this; --summary-csv replaces only files that do.
+inline constexpr std::string_view summary_csv_signature = "variant,charge,charge start [h],";
 
 //! Where an input's value came from.
 enum class Origin { given, variant, default_value, overlay, fitted };
@@ -101,11 +105,12 @@ std::string report_html(const ReportData& d);
 //! the header, "" where a value does not exist (no limit reached).
 std::string summary_csv(const CaseFile& c, const std::vector<VariantSummary>& rows);
 
-//! Writes text to `path` atomically (a temporary file beside it, then renamed). With `marker`, an
-//! existing file is replaced only when its first 4 kB contain the marker; otherwise nothing is written
-//! and acidload::Error names the file.
-void write_text_file(const std::string& path, const std::string& text, std::string_view marker = {});
-//! write_text_file with the report marker.
-void write_report(const std::string& path, const std::string& html);
+//! Writes the page atomically by write_owned_file (results.hpp): an existing file is replaced only if
+//! its first line carries report_signature, never one of `inputs` (the files the report read).
+void write_report(const std::string& path, const std::string& html, const std::vector<std::string>& inputs = {});
+//! Writes summary_csv's text the same way, replacing only a file whose header carries summary_csv_signature.
+void write_summary_csv(const std::string& path, const std::string& csv, const std::vector<std::string>& inputs = {});
+//! The files a report of `c` reads (the case file, overlays, record files, and `lab` unless empty).
+std::vector<std::string> report_inputs(const CaseFile& c, const std::string& lab);
 
 }  // namespace acidload::io
