@@ -17,7 +17,7 @@ FitOptions parse(const std::vector<std::string>& args) {
 int run(const std::vector<std::string>& args, std::FILE* out) {
   const FitOptions o = parse(args);
   const FitRun r = fit_case(o);
-  if (!o.write_overlay.empty()) acidload::io::write_overlay(o.write_overlay, r.fit, o.case_file, o.lab);
+  if (!o.write_overlay.empty()) acidload::io::write_overlay(o.write_overlay, r.fit, o.case_file, o.lab, o.overlays);
   for (const std::string& n : r.lab_notes) std::fprintf(out, "note: %s\n", n.c_str());
   print_fit(out, *r.variant, r.fit);
   if (!o.write_overlay.empty())
@@ -40,7 +40,9 @@ extern const Command fit_command{
     "correlations, the residual of every reading, the reduced chi-square (with a warning when the model\n"
     "does not describe the plant) and flags for outliers, lab changes and parameters held at their prior\n"
     "because the samples do not respond to them. Fewer readings than parameters are refused (exit code 3).\n"
-    "  --write-overlay FILE  write the estimates as an overlay for 'acidload run CASE --overlay FILE'\n"
+    "  --write-overlay FILE  write the estimates as an overlay for 'acidload run CASE --overlay FILE';\n"
+    "                        refused for the files the fit read and for an existing file that is not\n"
+    "                        an overlay acidload wrote (exit code 3)\n"
     "  --precision R=SD,…  one standard deviation per reading, in its unit: tbn (both methods), tbn-d2896,\n"
     "                      tbn-d4739, tan, san [mg KOH/g], oxidation, nitration [A/cm]; a lab file's *-sd\n"
     "                      columns win over these\n",

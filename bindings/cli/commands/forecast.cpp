@@ -16,7 +16,8 @@ FitOptions parse(const std::vector<std::string>& args) {
 int run(const std::vector<std::string>& args, std::FILE* out) {
   const FitRun r = fit_case(parse(args));
   for (const std::string& n : r.lab_notes) std::fprintf(out, "note: %s\n", n.c_str());
-  print_forecast(out, r.fit, acidload::forecast_current(r.fit));
+  const auto fc = (ProgressLine("forecast: running the current charge on"), acidload::forecast_current(r.fit));
+  print_forecast(out, r.fit, fc);
   print_trend(out, r.fit, acidload::trend(r.fit));
   print_caution(out);
   return exit_ok;

@@ -19,7 +19,7 @@ TRAJECTORY_UNITS: Dict[str, str] = {
     "oil_hours": "h",           # since the last oil change
     "calendar_hours": "h",      # since the start of the record
     "starts": "-",              # engine starts since the start of the record
-    "charge": "-",              # which oil charge (0 = the one the record starts with)
+    "charge": "-",              # which oil charge (1 = the one the record starts with, as trajectories.csv)
     "tbn": "mg KOH/g",          # by the limits' method
     "tbn_d2896": "mg KOH/g",
     "tbn_d4739": "mg KOH/g",
@@ -175,8 +175,34 @@ class Result:
         return self._run.trajectories_csv()
 
     def write(self, folder: Union[str, "os.PathLike[str]"]) -> None:
-        """Writes summary.json and trajectories.csv into folder, atomically, as ``acidload run --out``."""
+        """Writes summary.json and trajectories.csv into folder, atomically, as ``acidload run --out``
+        does, with the same rules: the folder becomes acidload's own (a .acidload-results marker
+        inside); an existing folder that is not (or holds files acidload did not write), or the folder
+        of the case file, is refused with acidload.Error and left as it was; a symbolic link is
+        written through."""
+        if not isinstance(folder, (str, os.PathLike)):
+            raise TypeError(f"write() takes a folder name, not {type(folder).__name__}")
         self._run.write_results(os.fspath(folder))
+
+    def summary_csv(self) -> str:
+        """The comparison table as CSV text (one row per variant and charge, charges from 1, units in the
+        header), as ``acidload run CASE --summary-csv FILE`` writes it."""
+        return self._run.summary_csv()
+
+    def report_html(self, lab: Optional[Union[str, "os.PathLike[str]"]] = None,
+                    parameters: Optional[List[str]] = None) -> str:
+        """The report page as HTML text, made by the same C++ writer as ``acidload report``.
+
+        lab: a lab CSV file: its readings are drawn against the model fitted to them (``parameters``,
+        default model.liner-uptake and model.oxidation-rate) with a 90 % band."""
+        return self._run.report_html(os.fspath(lab) if lab is not None else "", list(parameters or []))
+
+    def report(self, path: Union[str, "os.PathLike[str]"], lab: Optional[Union[str, "os.PathLike[str]"]] = None,
+               parameters: Optional[List[str]] = None) -> None:
+        """Writes the report page (one self-contained HTML file: inline CSS and SVG, no scripts, nothing
+        fetched; prints on A4) as ``acidload report CASE --out path`` does: atomically, and an existing
+        file is replaced only if it is an acidload report (else acidload.Error, the file left as it was)."""
+        self._run.write_report(os.fspath(path), os.fspath(lab) if lab is not None else "", list(parameters or []))
 
     def __repr__(self) -> str:
         return f"<acidload.Result of {self.summary['case'] or self.summary['case-file']!r}: {len(self)} variant(s)>"

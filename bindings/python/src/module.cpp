@@ -16,12 +16,17 @@
 #include "acidload/io/case_file.hpp"
 #include "acidload/io/lab_file.hpp"
 #include "acidload/io/quantity.hpp"
+#include "acidload/io/report.hpp"
 #include "acidload/io/results.hpp"
 #include "acidload/studies/calibration.hpp"
 #include "acidload/studies/forecast.hpp"
 #include "acidload/studies/monte_carlo.hpp"
 #include "acidload/studies/trend.hpp"
 #include "acidload/studies/inverse.hpp"
+
+#include <atomic>
+#include <chrono>
+#include <future>
 
 namespace py = pybind11;
 using namespace acidload;
@@ -141,7 +146,7 @@ py::dict trajectory_arrays(const CaseRun& run, std::size_t i) {
   {
     py::array_t<int> a(static_cast<py::ssize_t>(n));
     int* d = a.mutable_data();
-    for (std::size_t k = 0; k < n; ++k) d[k] = t[k].charge;
+    for (std::size_t k = 0; k < n; ++k) d[k] = t[k].charge + 1;  // from 1, as trajectories.csv
     out["charge"] = a;
   }
   column("tbn", [&](const TrajectoryPoint& p) { return limit_method == BaseNumberMethod::d2896 ? p.tbn_d2896 : p.tbn_d4739; });
@@ -179,10 +184,28 @@ py::array_t<double> sweep_for_python(const EngineCase& c, const std::string& lev
   const Lever l = lever_from(lever);
   if (threads < 0) throw InputError("threads", std::to_string(threads), "0 (every core) or a positive thread count");
   py::array_t<double> out(values.request().shape);
+  // The library's sweep runs on a thread of its own; this one checks for Ctrl-C (and any other
+  // signal Python handles) every 50 ms and, on one, asks the sweep to stop and raises.
+  std::atomic<bool> stop{false};
   std::vector<double> r;
   {
     py::gil_scoped_release release;
-    r = acidload::sweep_drain_interval(c, l, values.data(), static_cast<std::size_t>(values.size()), threads);
+    auto job = std::async(std::launch::async, [&] {
+      return acidload::sweep_drain_interval(c, l, values.data(), static_cast<std::size_t>(values.size()), threads, &stop);
+    });
+    while (job.wait_for(std::chrono::milliseconds(50)) != std::future_status::ready) {
+      py::gil_scoped_acquire hold;
+      if (PyErr_CheckSignals() != 0) {
+        stop = true;
+        py::error_already_set interrupted;  // takes the pending Python exception
+        {
+          py::gil_scoped_release wait;
+          job.wait();
+        }
+        throw interrupted;
+      }
+    }
+    r = job.get();
   }
   std::copy(r.begin(), r.end(), out.mutable_data());
   return out;
@@ -533,7 +556,29 @@ PYBIND11_MODULE(_core, m) {
       .def("first_rates", [](const CaseRun& r, std::size_t i) { return rates_dict(r.rows.at(i).run.first_rates); },
            py::arg("index"), "The first segment's oil-balance rates of variant `index`.")
       .def("write_results", [](const CaseRun& r, const std::string& folder) { io::write_results(folder, r.file, r.rows); },
-           py::arg("folder"), "Writes summary.json and trajectories.csv into folder, as the program does.");
+           py::arg("folder"), "Writes summary.json and trajectories.csv into folder, as the program does.")
+      .def("summary_csv", [](const CaseRun& r) { return io::summary_csv(r.file, r.rows); },
+           "The comparison table as CSV text, exactly as 'acidload run --summary-csv' writes it.")
+      .def("report_html",
+           [](const CaseRun& r, const std::string& lab, const std::vector<std::string>& parameters) {
+             io::ReportOptions o;
+             o.lab_file = lab;
+             if (!parameters.empty()) o.parameters = parameters;
+             py::gil_scoped_release release;
+             return io::report_html(io::gather_report(r.file, r.rows, o));
+           },
+           py::arg("lab") = "", py::arg("parameters") = std::vector<std::string>{},
+           "The report page as HTML text, as 'acidload report' writes it (lab: a lab CSV file or '').")
+      .def("write_report",
+           [](const CaseRun& r, const std::string& path, const std::string& lab, const std::vector<std::string>& parameters) {
+             io::ReportOptions o;
+             o.lab_file = lab;
+             if (!parameters.empty()) o.parameters = parameters;
+             py::gil_scoped_release release;
+             io::write_report(path, io::report_html(io::gather_report(r.file, r.rows, o)), io::report_inputs(r.file, lab));
+           },
+           py::arg("path"), py::arg("lab") = "", py::arg("parameters") = std::vector<std::string>{},
+           "Writes the report page atomically; an existing file is replaced only if it is an acidload report.");
   m.def("run_case", &run_case, py::arg("case"), "Runs every variant of a case (the GIL released).");
 
   // ---- studies
@@ -685,7 +730,13 @@ PYBIND11_MODULE(_core, m) {
       }, "per parameter: held at its prior (the samples do not respond to it)")
       .def_readonly("fitted", &FitResult::fitted, "the case with the estimates put in")
       .def("overlay_text", [](const FitResult& f, const std::string& c, const std::string& l) { return io::overlay_text(f, c, l); },
-           py::arg("case_file"), py::arg("lab_file"), "The estimates as overlay text for 'acidload run --overlay'.");
+           py::arg("case_file"), py::arg("lab_file"), "The estimates as overlay text for 'acidload run --overlay'.")
+      .def("write_overlay",
+           [](const FitResult& f, const std::string& path, const std::string& c, const std::string& l,
+              const std::vector<std::string>& inputs) { io::write_overlay(path, f, c, l, inputs); },
+           py::arg("path"), py::arg("case_file"), py::arg("lab_file"), py::arg("inputs"),
+           "Writes the overlay as the program's fit --write-overlay does (io::write_overlay: the files read "
+           "and files acidload did not write are refused).");
   m.def("calibrate", [](const EngineCase& c, const std::vector<LabSample>& s, const std::vector<std::string>& keys,
                         const std::map<std::string, double>& precision,
                         const std::map<std::string, std::map<std::string, double>>& lab_precision, bool priors) {
