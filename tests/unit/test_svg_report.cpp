@@ -345,7 +345,7 @@ TEST_CASE("the fitted band is zero without covariance and widens with it") {
   FittedParameter p;
   p.key = "model.oxidation-rate";
   p.estimate = get_parameter(f.fitted, p.key);
-  p.fit_estimate = to_fit_space(parameter(p.key).bound, p.estimate);
+  p.fit_estimate = to_fit_space(parameter(p.key), p.estimate);
   f.parameters = {p};
   f.covariance = {{0.01}};  // σ of ln k_ox = 0.1
   const TrajectoryBand b = trajectory_band(f);

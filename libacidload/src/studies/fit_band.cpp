@@ -52,8 +52,8 @@ TrajectoryBand trajectory_band(const FitResult& fit, double z) {
     const double phi = fit.parameters[j].fit_estimate;
     step[j] = 1e-4 * std::max(1.0, std::fabs(phi));
     EngineCase a = c, b = c;
-    set_parameter(a, info.key, from_fit_space(info.bound, phi + step[j]));
-    set_parameter(b, info.key, from_fit_space(info.bound, phi - step[j]));
+    set_parameter(a, info.key, from_fit_space(info, phi + step[j]));
+    set_parameter(b, info.key, from_fit_space(info, phi - step[j]));
     plus[j] = readings(a);
     minus[j] = readings(b);
   }
