@@ -47,7 +47,8 @@ def run_rss(cmd):
         msg = err.read().decode(errors="replace").strip().split("\n")
         text = pathlib.Path(rss.name).read_text().split()
     kb = float(text[-1]) if text and text[-1].isdigit() else float("nan")
-    return dt, kb / 1024, p.returncode, (msg[0] if msg else "")[:100]
+    first = msg[0] if msg else ""
+    return dt, kb / 1024, p.returncode, first if len(first) <= 100 else "…" + first[-99:]
 
 
 def row(label, size, res, per=None):
