@@ -314,6 +314,25 @@ PYBIND11_MODULE(_core, m) {
           py::arg("total_pressure_pa"),
           "Equilibrium SO3/(SO2 + SO3) [mol/mol] at T [K], O2 mole fraction [mol/mol] and total pressure [Pa].");
 
+  // ---- scrubber beds (Thomas breakthrough) and cost arithmetic, for direct use and the reference tests
+  py::module_ scrub = m.def_submodule("scrubber", "Media beds by the Thomas breakthrough form, throughput variable.");
+  scrub.def("thomas_steepness", &thomas_steepness, py::arg("width"),
+            "beta = 2 ln 9 / width [-]; width: share of the bed life from 10 % to 90 % breakthrough.");
+  scrub.def("breakthrough_share", &breakthrough_share, py::arg("fed_share"), py::arg("steepness"),
+            "F(phi) = 1/(1 + exp(beta (1 - phi))) [-]; phi = sulfur fed / (q0 M).");
+  scrub.def("captured_share", &captured_share, py::arg("fed_share"), py::arg("steepness"),
+            "G(phi) = integral of 1 - F from 0 to phi: sulfur held as a share of q0 M [-].");
+  scrub.def("bed_outlet_ratio", &bed_outlet_ratio, py::arg("fed_share"), py::arg("efficiency"), py::arg("steepness"),
+            "Outlet over inlet H2S, (1 - eta) + eta F(phi) [-].");
+  scrub.def("fed_share_at_outlet_ratio", &fed_share_at_outlet_ratio, py::arg("ratio"), py::arg("efficiency"),
+            py::arg("steepness"), "phi at which the outlet ratio is reached [-] (InputError outside the fresh bed's range).");
+  scrub.def("iron_oxide_theoretical_capacity", &iron_oxide_theoretical_capacity,
+            "3 M_S / M_Fe2O3 [kg S per kg Fe2O3] (Fe2O3 + 3 H2S -> Fe2S3 + 3 H2O).");
+  scrub.def("caustic_per_sulfur", &caustic_per_sulfur, "2 M_NaOH / M_S [kg NaOH per kg S] (H2S + 2 NaOH -> Na2S + 2 H2O).");
+  py::module_ econ = m.def_submodule("economics", "Cost arithmetic: the capital recovery factor.");
+  econ.def("capital_recovery_factor", &capital_recovery_factor, py::arg("discount_rate"), py::arg("life_years"),
+           "i (1+i)^n / ((1+i)^n - 1) [1/year]; 1/n at i = 0.");
+
   // ---- the oil balance (MODEL §8), for direct use and for the reference tests
   py::module_ oil = m.def_submodule("oil", "The oil balance of one segment of constant rates (MODEL §8).");
   py::enum_<BaseNumberMethod>(oil, "BaseNumberMethod", "Base-number titration methods (ASTM D2896, D4739).")
