@@ -142,11 +142,14 @@ extern const Command run_command{
     "comparisons. Overlays apply to every case.\n\n"
     "  --out FOLDER   also write FOLDER/summary.json (every figure, units in the key names) and\n"
     "                 FOLDER/trajectories.csv (TBN, TAN, SAN, oxidation, nitration against hours per\n"
-    "                 variant); for a fleet, FOLDER/fleet-summary.json and fleet-summary.csv (one row\n"
-    "                 per case and variant) and NAME.summary.json and NAME.trajectories.csv per case\n"
-    "                 (NAME: the case file's name). Written to a new folder and swapped in whole: a\n"
-    "                 failed run leaves an existing FOLDER as it was, and a folder acidload did not\n"
-    "                 write is never replaced.\n"
+    "                 variant), and a .acidload-results marker: FOLDER is acidload's own. A new or\n"
+    "                 empty folder, or a results folder of an earlier run, is written; any other\n"
+    "                 folder, one holding files acidload did not write, and the case's own folder\n"
+    "                 are refused (exit code 3) and left as they were. Written to a new folder and\n"
+    "                 swapped in: a failed, interrupted or killed run leaves the previous result.\n"
+    "                 For a fleet: FOLDER/fleet-summary.json and fleet-summary.csv (one row per case\n"
+    "                 and variant) and NAME.summary.json and NAME.trajectories.csv per case (NAME: the\n"
+    "                 case file's name), all in the one folder, swapped in whole.\n"
     "  --threads N    threads for a fleet (default: one per core)\n",
     run};
 
