@@ -19,7 +19,7 @@ namespace fs = std::filesystem;
 
 struct RunOptions {
   std::vector<std::string> cases;  // files or folders
-  std::string out, threads;
+  std::string out, threads, summary_csv;
   std::vector<std::string> overlays;
 };
 
@@ -30,6 +30,7 @@ RunOptions parse(const std::vector<std::string>& args) {
       .values("--overlay", o.overlays, "FILE")
       .value("--out", o.out, "FOLDER")
       .value("--threads", o.threads, "N")
+      .value("--summary-csv", o.summary_csv, "FILE")
       .parse(args);
   return o;
 }
@@ -124,7 +125,9 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
   const int threads = o.threads.empty() ? 0 : static_cast<int>(count_option(o.threads, "--threads", 1, 1024));
   const std::vector<std::string> files = case_files(o.cases);
   if (files.size() == 1 && o.cases.size() == 1 && files.front() == o.cases.front())
-    return run_case(out, acidload::io::load_case(files.front(), o.overlays), o.out);
+    return run_case(out, acidload::io::load_case(files.front(), o.overlays), o.out, o.summary_csv);
+  if (!o.summary_csv.empty())
+    throw UsageError("--summary-csv takes one CASE; a fleet's table is fleet-summary.csv in its --out folder");
   return run_fleet(out, files, o, threads);
 }
 
@@ -132,7 +135,7 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
 
 extern const Command run_command{
     "run", "run CASE...", "run a case (or a fleet of cases) and print the comparison (and write result files)",
-    "usage: acidload run CASE... [--overlay FILE]... [--out FOLDER] [--threads N]\n\n"
+    "usage: acidload run CASE... [--overlay FILE]... [--out FOLDER] [--summary-csv FILE] [--threads N]\n\n"
     "Runs every variant of the case file CASE and prints a comparison: acid into the oil by species,\n"
     "the initial TBN fall, the drain interval and the limit that ends it (or 'not reached'), TBN, TAN\n"
     "and SAN there, and the exhaust sulfuric-acid dew point.\n\n"
@@ -150,6 +153,8 @@ extern const Command run_command{
     "                 For a fleet: FOLDER/fleet-summary.json and fleet-summary.csv (one row per case\n"
     "                 and variant) and NAME.summary.json and NAME.trajectories.csv per case (NAME: the\n"
     "                 case file's name), all in the one folder, swapped in whole.\n"
+    "  --summary-csv FILE  also write the comparison table as CSV: one row per variant and charge\n"
+    "                 (charges numbered from 1), units in the header; written atomically (one CASE).\n"
     "  --threads N    threads for a fleet (default: one per core)\n",
     run};
 
