@@ -438,6 +438,19 @@ UncertaintySettings read_uncertainty(const Reader& r, const Node& u) {
     };
     UncertainInput x;
     x.key = key;
+    {  // refused draws are shown in the unit the first figure was written in
+      const Node* first = item.find(dist == "normal" ? "mean" : dist == "lognormal" ? "median" : "low");
+      const std::string u = first ? unit_written(first->scalar) : "";
+      if (pk.type == KeyType::contaminant) {
+        x.unit = "ppmv";
+      } else if (!u.empty() || kind == Kind::fraction) {
+        x.unit = u.empty() ? "" : u;
+        x.shown_at_zero = from_core_unit(kind, u, 0);
+        x.shown_per_core = from_core_unit(kind, u, 1) - x.shown_at_zero;
+      }
+      const Mark m = item.mark;
+      x.where = r.doc(item).file + ":" + std::to_string(m.line) + ":" + std::to_string(m.column);
+    }
     if (dist == "normal") x.distribution = {Distribution::Kind::normal, value("mean", kind), value("sd", spread), 0};
     else if (dist == "lognormal") x.distribution = {Distribution::Kind::lognormal, value("median", kind), value("sigma-log", bare), 0};
     else if (dist == "uniform") x.distribution = {Distribution::Kind::uniform, value("low", kind), value("high", kind), 0};
