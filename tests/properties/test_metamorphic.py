@@ -19,7 +19,16 @@ import pytest
 from hypothesis import HealthCheck, assume, given, settings
 from hypothesis import strategies as st
 
-from conftest import need, need_acidload
+import importlib.util
+import pathlib
+
+# the Python suite's helpers (need, need_acidload), loaded under their own name so that this folder
+# and tests/python can run in one pytest call
+_spec = importlib.util.spec_from_file_location(
+    "acidload_suite_helpers", pathlib.Path(__file__).resolve().parents[1] / "python" / "conftest.py")
+_helpers = importlib.util.module_from_spec(_spec)
+_spec.loader.exec_module(_helpers)
+need, need_acidload = _helpers.need, _helpers.need_acidload
 
 acidload = need_acidload()
 yaml = need("yaml")
