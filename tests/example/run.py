@@ -109,7 +109,7 @@ with tempfile.TemporaryDirectory() as tmp:
     r = run("run", "cases/demo-site.yaml", "--out", str(blocker))
     if r.returncode == 0 or blocker.read_text() != "keep me":
         fail("an output path that is a file was overwritten")
-    if any(p.name.startswith(".blocker") for p in tmp.iterdir()):
+    if any(p.name.startswith(".acidload-tmp-") for p in tmp.iterdir()):
         fail("a failed write left a temporary folder behind")
     checks += 2
 

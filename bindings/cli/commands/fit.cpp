@@ -17,7 +17,7 @@ FitOptions parse(const std::vector<std::string>& args) {
 int run(const std::vector<std::string>& args, std::FILE* out) {
   const FitOptions o = parse(args);
   const FitRun r = fit_case(o);
-  if (!o.write_overlay.empty()) acidload::io::write_overlay(o.write_overlay, r.fit, o.case_file, o.lab);
+  if (!o.write_overlay.empty()) acidload::io::write_overlay(o.write_overlay, r.fit, o.case_file, o.lab, o.overlays);
   print_fit(out, *r.variant, r.fit);
   if (!o.write_overlay.empty())
     std::fprintf(out, "\nOverlay written to %s: acidload run %s --overlay %s\n", o.write_overlay.c_str(),
