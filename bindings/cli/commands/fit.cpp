@@ -38,7 +38,9 @@ extern const Command fit_command{
     "precision, bounded parameters in log/logit space). Prints estimates with standard errors, their\n"
     "correlations, the residual of every reading, the reduced chi-square and flags for outliers and\n"
     "lab changes. A fit the data cannot identify is refused with the reason (exit code 3).\n"
-    "  --write-overlay FILE  write the estimates as an overlay for 'acidload run CASE --overlay FILE'\n",
+    "  --write-overlay FILE  write the estimates as an overlay for 'acidload run CASE --overlay FILE';\n"
+    "                        refused for the files the fit read and for an existing file that is not\n"
+    "                        an overlay acidload wrote (exit code 3)\n",
     run};
 
 }  // namespace acidload_cli

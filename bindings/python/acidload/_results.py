@@ -19,7 +19,7 @@ TRAJECTORY_UNITS: Dict[str, str] = {
     "oil_hours": "h",           # since the last oil change
     "calendar_hours": "h",      # since the start of the record
     "starts": "-",              # engine starts since the start of the record
-    "charge": "-",              # which oil charge (0 = the one the record starts with)
+    "charge": "-",              # which oil charge (1 = the one the record starts with, as trajectories.csv)
     "tbn": "mg KOH/g",          # by the limits' method
     "tbn_d2896": "mg KOH/g",
     "tbn_d4739": "mg KOH/g",

@@ -143,7 +143,7 @@ py::dict trajectory_arrays(const CaseRun& run, std::size_t i) {
   {
     py::array_t<int> a(static_cast<py::ssize_t>(n));
     int* d = a.mutable_data();
-    for (std::size_t k = 0; k < n; ++k) d[k] = t[k].charge;
+    for (std::size_t k = 0; k < n; ++k) d[k] = t[k].charge + 1;  // from 1, as trajectories.csv
     out["charge"] = a;
   }
   column("tbn", [&](const TrajectoryPoint& p) { return limit_method == BaseNumberMethod::d2896 ? p.tbn_d2896 : p.tbn_d4739; });

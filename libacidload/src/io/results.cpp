@@ -127,7 +127,8 @@ std::string trajectories_csv(const std::vector<VariantSummary>& rows) {
        "tan_mg_koh_per_g,san_mg_koh_per_g,oxidation_a_per_cm,nitration_a_per_cm,oil_mass_kg\n";
   for (const VariantSummary& v : rows)
     for (const TrajectoryPoint& p : v.run.trajectory)
-      o << csv_field(v.name) << ',' << p.charge << ',' << num(p.engine_hours) << ',' << num(p.oil_hours) << ','
+      o << csv_field(v.name) << ',' << p.charge + 1 << ','  // charges from 1, as in the console and lab files
+        << num(p.engine_hours) << ',' << num(p.oil_hours) << ','
         << num(p.calendar_hours) << ',' << num(p.tbn_d2896) << ',' << num(p.tbn_d4739) << ',' << num(p.tan) << ','
         << num(p.san) << ',' << num(p.state.oxidation) << ',' << num(p.state.nitration) << ',' << num(p.state.mass) << '\n';
   return o.str();
