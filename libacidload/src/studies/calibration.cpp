@@ -6,6 +6,7 @@
 #include <optional>
 #include <algorithm>
 #include <cmath>
+#include <optional>
 #include <limits>
 
 #include "acidload/core/error.hpp"
@@ -212,6 +213,12 @@ struct Problem {
       else if (rd) J.col(j) = (r0 - *rd) / h;
     }
     return J;
+  }
+  // A refusal naming the parameter, the value the fit reached and the range the model accepts.
+  FitRefusedError stepped_out(Eigen::Index j, const InputError& e) const {
+    return FitRefusedError("cannot fit " + s.parameters[static_cast<std::size_t>(j)] + ": the fit reached " + e.key() +
+                           " = " + e.value() + ", outside what the model accepts (" + e.expected() +
+                           "); fix the parameter or fit fewer at once");
   }
 };
 

@@ -111,6 +111,22 @@ int charge_count(const EngineCase& c) {
     for (const OilEvent& e : c.record[i].events) n += e.kind == OilEvent::Kind::oil_change;
   return n;
 }
+// A draw the model refuses, named by the input, its distribution and the value in the user's unit.
+InputError refused_draw(const UncertainInput& in, int draw, double drawn, const InputError& e) {
+  static const char* const kinds[] = {"normal", "lognormal", "uniform", "triangular"};
+  const auto shown = [&](double v) {
+    return format_value(in.shown_at_zero + v * in.shown_per_core) + (in.unit.empty() ? "" : " " + in.unit);
+  };
+  const Distribution& d = in.distribution;
+  std::string dist = std::string(kinds[static_cast<int>(d.kind)]) + "(" + shown(d.a) + ", ";
+  dist += d.kind == Distribution::Kind::lognormal ? format_value(d.b) : shown(d.b);
+  if (d.kind == Distribution::Kind::triangular) dist += ", " + shown(d.c);
+  dist += ")";
+  return InputError("uncertainty input " + in.key + (in.where.empty() ? "" : " (" + in.where + ")"),
+                    shown(drawn) + " in draw " + std::to_string(draw + 1),
+                    "draws the model accepts (" + e.expected() + "): the " + dist +
+                        " distribution reaches past it; narrow it or use a bounded one (uniform, triangular)");
+}
 }  // namespace
 
 MonteCarloResult monte_carlo(const EngineCase& c0, const std::vector<UncertainInput>& inputs, int draws,
@@ -175,7 +191,11 @@ MonteCarloResult monte_carlo(const EngineCase& c_in, const std::vector<Uncertain
                         : info.bound == Bound::positive ? (v > 0 ? v : 1e-9)
                                                         : v;
       if (in != v) clipped[static_cast<std::size_t>(i)] = 1;  // outside the range: clipped into it, counted
-      set_parameter(x, inputs[k].key, in);
+      try {
+        set_parameter(x, inputs[k].key, in);
+      } catch (const InputError& e) {
+        throw refused_draw(inputs[k], i, in, e);
+      }
     }
   };
   const auto one = [&](int i) {
