@@ -5,6 +5,7 @@
   X(check)                       \
   X(run)                         \
   X(solve)                       \
+  X(costs)                       \
   X(convert)                     \
   X(fit)                         \
   X(forecast)                    \

@@ -40,7 +40,7 @@ std::string csv_field(const std::string& s) {
 }
 }  // namespace
 
-std::string summary_json(const CaseFile& c, const std::vector<VariantSummary>& rows) {
+std::string summary_json(const CaseFile& c, const std::vector<VariantSummary>& rows, const EconomicsResults* economics) {
   std::ostringstream j;
   j << "{\n  \"acidload-version\": " << quote(version()) << ",\n  \"case-file\": " << quote(c.file)
     << ",\n  \"case\": " << quote(c.title) << ",\n  \"note\": "
@@ -103,7 +103,9 @@ std::string summary_json(const CaseFile& c, const std::vector<VariantSummary>& r
     j << "      \"so3-share\": " << num(v.so3_share) << ",\n      \"so3-share-equilibrium-bound\": " << num(v.so3_share_bound)
       << ",\n      \"engine-hours\": " << num(v.run.engine_hours) << "\n    }";
   }
-  j << "\n  ]\n}\n";
+  j << "\n  ]";
+  if (economics) j << ",\n  \"economics\": " << economics_json(*economics, 2);
+  j << "\n}\n";
   return j.str();
 }
 
@@ -119,9 +121,10 @@ std::string trajectories_csv(const std::vector<VariantSummary>& rows) {
   return o.str();
 }
 
-void write_results(const std::string& folder, const CaseFile& c, const std::vector<VariantSummary>& rows) {
+void write_results(const std::string& folder, const CaseFile& c, const std::vector<VariantSummary>& rows,
+                   const EconomicsResults* economics) {
   namespace fs = std::filesystem;
-  const std::string json = summary_json(c, rows), csv = trajectories_csv(rows);  // everything before touching disk
+  const std::string json = summary_json(c, rows, economics), csv = trajectories_csv(rows);  // everything before touching disk
   const fs::path target = fs::absolute(folder);
   std::random_device rd;
   const std::string tag = std::to_string(rd() % 1000000);

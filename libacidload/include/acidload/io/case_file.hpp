@@ -8,6 +8,7 @@
 #include <vector>
 
 #include "acidload/studies/calibration.hpp"
+#include "acidload/studies/economics.hpp"
 #include "acidload/studies/monte_carlo.hpp"
 #include "acidload/studies/whatif.hpp"
 
@@ -31,6 +32,9 @@ struct CaseFile {
   std::vector<std::string> overlays;   //!< overlay files applied, in order
   int format_version = case_format_version;  //!< as written in the file
   UncertaintySettings uncertainty;           //!< the `uncertainty` section, if any
+  //! One per variant, in order, when the case has an `economics` section (else empty): the variant's
+  //! raw-gas engine case, its scrubbing train and the prices. (`variants` hold the gas behind the train.)
+  std::vector<CostCase> costs;
 };
 
 //! Reads a case file. Overlays (files of the same format holding any subset of its sections,

@@ -93,6 +93,14 @@ CostCase with_outlet_level(const CostCase& c, std::size_t stage, double outlet_p
 //! Total per MWh at a level.
 double total_per_mwh_at(const CostCase& c, std::size_t stage, double outlet_ppmv);
 
+//! The range a cheapest-level question searches by default: for a media bed from 1.5 times what the
+//! fresh bed lets through (at least 0.5 ppmv) to 0.95 of the stage's mean inlet; for a fixed stage from
+//! 0 to its mean inlet [ppmv dry].
+struct LevelRange {
+  double low = 0, high = 0;
+};
+LevelRange default_level_range(const CostCase& c, std::size_t stage);
+
 struct CheapestLevel {
   bool found = false;
   std::size_t stage = 0;
