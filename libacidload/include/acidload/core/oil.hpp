@@ -1,5 +1,5 @@
 #pragma once
-// The oil balance (MODEL §8): reactive base, free strong acid, organic acids, oxidation, nitration,
+// The oil balance (docs/model.md §8): reactive base, free strong acid, organic acids, oxidation, nitration,
 // additive acidity and neutralised salts, solved in closed form over a segment of constant rates.
 #include <array>
 
