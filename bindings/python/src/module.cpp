@@ -507,6 +507,35 @@ PYBIND11_MODULE(_core, m) {
         "Reads a case from YAML text; relative file names (a record CSV) resolve against base_dir.");
   m.def("section_keys", [](const std::string& s) { return io::section_keys(s); }, py::arg("section"),
         "The keys of a case-file section ('' for the top level).");
+  m.def(
+      "case_keys",
+      [] {
+        static const char* const types[] = {"quantity", "contaminant", "word", "flag", "text",
+                                            "section", "list", "map", "special"};
+        py::list out;
+        for (const io::CaseKey& k : io::case_keys()) {
+          py::dict d;
+          d["path"] = k.path;
+          d["section"] = k.section();
+          d["key"] = k.key();
+          d["type"] = types[static_cast<int>(k.type)];
+          d["kind"] = k.type == io::KeyType::quantity ? py::str(std::string(io::kind_id(k.kind))) : py::str("");
+          d["kind_name"] = k.type == io::KeyType::quantity ? py::str(std::string(io::kind_name(k.kind))) : py::str("");
+          d["range"] = k.type == io::KeyType::quantity ? py::str(k.range_text()) : py::str("");
+          d["unit"] = k.unit;
+          d["default"] = k.default_text;
+          d["doc"] = k.doc;
+          d["calibratable"] = k.calibratable;
+          d["field"] = k.field;
+          d["alternative"] = k.alternative;
+          d["words"] = k.words;
+          out.append(d);
+        }
+        return out;
+      },
+      "The registry of case keys (acidload/io/keys.hpp), one dict per key: path, section, key, type, kind "
+      "(the schema's $defs name), kind_name, range (in the documented unit), unit, default, doc, calibratable, "
+      "field, alternative, words.");
 
   // ---- runs
   py::class_<CaseRun>(m, "CaseRun", "Every variant of a case, run.")
