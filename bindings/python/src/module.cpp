@@ -598,6 +598,7 @@ PYBIND11_MODULE(_core, m) {
           return std::make_pair(totals, items);
         }, py::arg("case"), py::arg("variant"), py::arg("stage"), py::arg("levels_ppmv"),
         "Totals per MWh and the items per MWh (levels x items) at each outlet (changeout) level (GIL released).");
+  m.def("price_keys", []() { return price_keys(); }, "The economics keys an uncertainty input may vary.");
   m.def("cost_items", []() {
           std::vector<std::string> n;
           for (CostItem i : all_cost_items) n.emplace_back(name(i));
@@ -799,7 +800,7 @@ PYBIND11_MODULE(_core, m) {
         "sigma of ln; uniform: low, high; triangular: low, mode, high); identical for any thread count.");
   m.def("case_uncertainty", [](const io::CaseFile& f) {
     py::list out;
-    for (const auto& x : f.uncertainty.inputs) {
+    for (const auto& x : without_prices(f.uncertainty.inputs)) {  // prices: cost_monte_carlo
       const char* kinds[] = {"normal", "lognormal", "uniform", "triangular"};
       out.append(py::make_tuple(x.key, kinds[static_cast<int>(x.distribution.kind)], x.distribution.a, x.distribution.b,
                                 x.distribution.c));

@@ -210,6 +210,35 @@ EngineCase build(Reader& r, const Node& root, const std::string& name) {
   return c;
 }
 
+// A variant's scrubbing train and prices, from its merged tree: the engine then runs on the gas behind
+// the train; with prices (`priced`: the base has an economics section), its cost case keeps the raw gas.
+void scrub_and_price(Reader& r, const Node& tree, EngineCase& c, CaseFile& out, bool priced) {
+  std::vector<TrainStage> train;
+  double step = 24;
+  const Node* sn = tree.find("scrubbing");
+  if (sn) train = detail::read_scrubbing(r, *sn, step);
+  if (priced) {
+    CostCase cc;
+    cc.engine = c;
+    cc.train = train;
+    cc.step = step;
+    detail::read_economics(r, *tree.find("economics"), cc, out.sensitivity_step);
+    out.costs.push_back(std::move(cc));
+  }
+  if (train.empty()) return;
+  try {
+    c.record = scrub(c, train, step).record;
+  } catch (const InputError& e) {
+    // a changeout level the fresh bed cannot hold: at that stage's changeout-at
+    if (const Node* st = sn->find("stages"))
+      for (const Node& item : st->items)
+        if (const Node* at = item.find("changeout-at"))
+          if (const Node* nm = item.find("name"); nm && e.key().find("." + nm->scalar + ".") != std::string::npos)
+            r.fail(*at, at->scalar, e.expected());
+    r.fail(*sn, describe(*sn), e.key() + ": " + e.expected());
+  }
+}
+
 std::shared_ptr<Document> parse_into(Reader& r, std::string_view text, const std::string& file) {
   auto d = std::make_shared<Document>(parse_document(text, file));
   detail::set_source(d->root, static_cast<int>(r.docs.size()));
@@ -271,7 +300,9 @@ CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::
     base_name = r.text(*b);
     if (base_name.empty()) r.fail(*b, "", "a name that is not empty");
   }
+  const bool priced = root.find("economics") != nullptr;
   out.variants.push_back(build(r, root, base_name));
+  scrub_and_price(r, root, out.variants.back(), out, priced);
   if (const Node* vs = root0.find("variants")) {
     if (vs->type != Node::Type::sequence) r.fail(*vs, "", "a list of variants, each with a 'name'");
     if (vs->items.size() > max_variants)
@@ -287,9 +318,12 @@ CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::
       const std::string name = r.text(*n);
       if (name.empty()) r.fail(*n, "", "a variant name that is not empty");
       if (!names.insert(name).second) r.fail(*n, name, "a variant name not used before");
+      if (const Node* e = v.find("economics"); e && !priced)
+        r.fail(*e, describe(*e), "an 'economics' section in the base case first (a variant may change its prices)");
       Node merged = root;
       detail::merge_layer(merged, without(v, {"name"}));
       out.variants.push_back(build(r, merged, name));
+      scrub_and_price(r, merged, out.variants.back(), out, priced);
       segments += out.variants.back().record.size();
       if (segments > max_segments_in_all)
         r.fail(*n, name, "variants whose records hold at most " + std::to_string(max_segments_in_all) +

@@ -456,6 +456,13 @@ void set_price(CostCase& c, std::string_view key, double v) {
   }
 }
 
+std::vector<UncertainInput> without_prices(const std::vector<UncertainInput>& inputs) {
+  std::vector<UncertainInput> out;
+  for (const UncertainInput& in : inputs)
+    if (std::find(price_keys().begin(), price_keys().end(), in.key) == price_keys().end()) out.push_back(in);
+  return out;
+}
+
 CostMonteCarlo cost_monte_carlo(const std::vector<CostCase>& cases, const std::vector<UncertainInput>& inputs, int draws,
                                 std::uint64_t seed, int threads) {
   check::in_range("draws", draws, 1, 1e7, "");

@@ -46,6 +46,7 @@ struct CaseFile {
   //! One per variant, in order, when the case has an `economics` section (else empty): the variant's
   //! raw-gas engine case, its scrubbing train and the prices. (`variants` hold the gas behind the train.)
   std::vector<CostCase> costs;
+  double sensitivity_step = 0.2;  //!< `economics.sensitivity-step`: each price moved by this share [-]
 };
 
 //! Reads a case file. Every key is read through the registry (keys.hpp). Overlays (files of the same format holding any subset of its sections,

@@ -140,6 +140,8 @@ struct CostMonteCarlo {
 //! The economics keys an uncertainty input may vary, in the section's units (prices per core unit).
 const std::vector<std::string>& price_keys();
 void set_price(CostCase& c, std::string_view key, double value);
+//! The inputs that are no prices (what the drain-interval Monte Carlo varies).
+std::vector<UncertainInput> without_prices(const std::vector<UncertainInput>& inputs);
 CostMonteCarlo cost_monte_carlo(const std::vector<CostCase>& cases, const std::vector<UncertainInput>& inputs,
                                 int draws, std::uint64_t seed, int threads = 0);
 
