@@ -13,6 +13,15 @@ using namespace acidload;
 
 namespace {
 double c_of(double kelvin) { return kelvin - constants::zero_celsius; }
+// A name in a table column of `width` characters: longer names are cut with "…" so the columns
+// stay aligned (the full name is in summary.json, trajectories.csv and acidload check).
+std::string in_column(const std::string& name, std::size_t width) {
+  std::size_t chars = 0, cut = name.size();
+  for (std::size_t i = 0; i < name.size(); ++i)
+    if ((static_cast<unsigned char>(name[i]) & 0xC0) != 0x80 && ++chars == width) cut = i;
+  if (chars <= width) return name + std::string(width - chars, ' ');
+  return name.substr(0, cut) + "…";
+}
 const char* method_name(BaseNumberMethod m) { return m == BaseNumberMethod::d2896 ? "D2896" : "D4739"; }
 }  // namespace
 
@@ -61,8 +70,8 @@ void print_comparison(std::FILE* out, const io::CaseFile& c, const std::vector<V
     const std::string interval =
         v.charge.first ? std::to_string(static_cast<long>(v.charge.drain_interval + 0.5)) + " h" : "not reached";
     const std::string limit = v.charge.first ? std::string(name(*v.charge.first)) : "-";
-    std::fprintf(out, "%-31s %5.2f %5.2f %5.2f %5.2f %5.2f %6.3f %8.3f %11s  %-10s %5.2f %5.2f %5.2f %6.1f\n",
-                 v.name.c_str(), v.inflow_koh.sulfuric, v.inflow_koh.sulfurous_fresh, v.inflow_koh.hydrochloric,
+    std::fprintf(out, "%s %5.2f %5.2f %5.2f %5.2f %5.2f %6.3f %8.3f %11s  %-10s %5.2f %5.2f %5.2f %6.1f\n",
+                 in_column(v.name, 31).c_str(), v.inflow_koh.sulfuric, v.inflow_koh.sulfurous_fresh, v.inflow_koh.hydrochloric,
                  v.inflow_koh.hydrofluoric, v.inflow_koh.nitric, v.sulfur_share_to_oil * 100, -v.initial_tbn_rate * 100,
                  interval.c_str(), limit.c_str(), v.tbn_end, v.tan_end, v.san_end,
                  v.dew_points.sulfuric > 0 ? c_of(v.dew_points.sulfuric) : 0.0);
@@ -76,6 +85,9 @@ void print_comparison(std::FILE* out, const io::CaseFile& c, const std::vector<V
       }
   }
   const LimitSettings& l = c.variants.front().model.limits;
+  std::fprintf(out, "\nUnits: acid into the oil in g KOH/h; S to oil %% = share of the fuel's sulfur; TBN fall in mg KOH/g\n"
+                    "per 100 h at the start (summary.json gives it per hour and negative, as initial-tbn-rate-mg-koh-per-g-per-h,\n"
+                    "and the sulfur share as a fraction); TBN, TAN, SAN in mg KOH/g; dew point in degC.\n");
   std::fprintf(out, "\nTBN by %s at the drain interval (or at the end of the record). SO2 uptake shown for fresh oil.\n",
                method_name(l.tbn_method));
 }

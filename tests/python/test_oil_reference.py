@@ -167,7 +167,7 @@ def test_demo_case_trajectory_with_floor_crossing_and_san():
     beta = 0.2
     state = ref.State(mass=720e-3 * 880, base=5.4, additive_acidity=1.5)
     hours = tr["oil_hours"]
-    assert np.all(tr["charge"] == 0) and np.all(np.diff(hours) > 0)
+    assert np.all(tr["charge"] == 1) and np.all(np.diff(hours) > 0)
     crossings = []
     for i in range(1, len(hours)):
         res = ref.integrate(v.rates, k_ref, state, hours[i] - hours[i - 1])

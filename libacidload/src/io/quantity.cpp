@@ -181,7 +181,11 @@ std::string expectation(Kind k) {
     case Kind::number: return number_form;
     case Kind::money: return "an amount of money: a bare number in the case's currency (45000)";
     case Kind::mass_ratio: return "a mass ratio: a bare number or with the unit kg/kg (0.2 kg/kg)";
-    default: return "a " + std::string(i.name) + " with one of the units: " + join(i.names);
+    default: {
+      const std::string n(i.name);
+      const bool vowel = !n.empty() && std::string("aeiou").find(n[0]) != std::string::npos;
+      return (vowel ? "an " : "a ") + n + " with one of the units: " + join(i.names);
+    }
   }
 }
 
