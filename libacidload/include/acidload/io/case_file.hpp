@@ -3,6 +3,7 @@
 // calibratable parameters, the limits, an operating record, and named variants to compare.
 // The format is documented key by key in docs/case-format.md and as a JSON Schema in
 // docs/case-format.schema.json.
+#include <map>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -47,6 +48,11 @@ struct CaseFile {
   //! raw-gas engine case, its scrubbing train and the prices. (`variants` hold the gas behind the train.)
   std::vector<CostCase> costs;
   double sensitivity_step = 0.2;  //!< `economics.sensitivity-step`: each price moved by this share [-]
+  //! Per variant (parallel to `variants`): each "section.key" the files set ("fuel.h2s", "oil.volume")
+  //! and the file that set it last (the case file or an overlay); a key not listed took its default.
+  std::vector<std::map<std::string, std::string>> key_sources;
+  //! Per variant: the "section.key"s its own entry under `variants` sets (empty for the base).
+  std::vector<std::vector<std::string>> variant_keys;
 };
 
 //! Reads a case file. Every key is read through the registry (keys.hpp). Overlays (files of the same format holding any subset of its sections,
