@@ -8,6 +8,7 @@
 #include "acidload/studies/parameters.hpp"
 
 #include <optional>
+#include "acidload/studies/economics.hpp"
 
 namespace acidload_cli {
 namespace {
@@ -45,8 +46,10 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
   const int threads = o.threads.empty() ? 0 : static_cast<int>(count_option(o.threads, "--threads", 1, 256));
   const io::CaseFile file = io::load_case(o.case_file, o.overlays);
   const EngineCase& c = pick_variant(file, o.variant);
-  if (file.uncertainty.inputs.empty() && o.lab.empty())
-    throw InputError("uncertainty", "(no section)", "an 'uncertainty' section with inputs in " + o.case_file + ", or --lab FILE",
+  // prices (economics.*) are for `costs --monte-carlo`; the drain interval does not depend on them
+  const std::vector<UncertainInput> inputs = without_prices(file.uncertainty.inputs);
+  if (inputs.empty() && o.lab.empty())
+    throw InputError("uncertainty", "(no section)", "an 'uncertainty' section with inputs other than prices in " + o.case_file + ", or --lab FILE",
                      InputWhere{o.case_file, 1, 1, ""});
   if (o.lab.empty() && !o.parameters.empty()) throw UsageError("uncertainty --parameters needs --lab FILE");
   std::optional<FitResult> fit;
@@ -59,8 +62,8 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
   const std::uint64_t used_seed = seed ? *seed : file.uncertainty.seed;
   const int n = draws ? static_cast<int>(*draws) : file.uncertainty.draws;
   const ProgressLine progress("uncertainty: " + std::to_string(n) + " draws");
-  const MonteCarloResult r = monte_carlo(c, file.uncertainty.inputs, fit ? &*fit : nullptr, !o.first_only, n, used_seed, threads);
-  print_monte_carlo(out, c, file.uncertainty.inputs, r, used_seed);
+  const MonteCarloResult r = monte_carlo(c, inputs, fit ? &*fit : nullptr, !o.first_only, n, used_seed, threads);
+  print_monte_carlo(out, c, inputs, r, used_seed);
   print_caution(out);
   return exit_ok;
 }
