@@ -53,6 +53,7 @@ struct Runner {
     p.tbn_d4739 = tbn(state, charge.oil, BaseNumberMethod::d4739);
     p.tan = acidload::tan(state, charge.oil);
     p.san = san(state);
+    p.viscosity_rise = acidload::viscosity_rise(state, charge.oil);
     result.trajectory.push_back(p);
   }
 
@@ -139,6 +140,8 @@ struct Runner {
       const OilState before = state;
       const SegmentOutcome out = advance(state, k, r, dt, result.ledger);
       if (out.floor_reached_at >= 0 && current().floor_reached_at < 0) current().floor_reached_at = oil_h + out.floor_reached_at;
+      if (out.antioxidant_spent_at >= 0 && current().antioxidant_spent_at < 0)
+        current().antioxidant_spent_at = oil_h + out.antioxidant_spent_at;
       done += dt;
       engine_h += dt;
       oil_h += dt;
@@ -186,7 +189,7 @@ RunResult simulate(const OilCharge& charge, const ModelParameters& model, const 
   r.calendar_hours = run.calendar_h;
   r.starts = run.starts;
   const Segment* tail = run.last_segment ? &*run.last_segment : nullptr;
-  if (tail && !r.charges.back().first && charge.continuous_makeup && tail->oil_consumption > 0) {
+  if (tail && !r.charges.back().oil_limit_reached() && charge.continuous_makeup && tail->oil_consumption > 0) {
     const OilRates rates = segment_rates(*tail, charge, model);
     r.steady_state = steady_state(run.state, run.k, rates);
   }
