@@ -299,7 +299,7 @@ void read_model(const Reader& r, const Node& m, ModelParameters& p, OilPropertie
   f("capture-so2", t.capture_so2);
   f("capture-no2", t.capture_no2);
   k("wet-so2-factor", Kind::number, t.wet_so2_factor);
-  k("wetness-scale", Kind::temperature_change, t.wetness_scale);
+  if (const Node* n = m.find("wetness-scale")) t.wetness_width = 2 * std::log(9.0) * r.q(*n, Kind::temperature_change);  // old form: the logistic scale
   k("warm-up-time", Kind::duration, t.warmup_hours);
   if (const Node* n = m.find("oxidation-law"))
     o.kind = r.word(*n, {"doubling", "arrhenius"}) == "doubling" ? OxidationLaw::Kind::doubling : OxidationLaw::Kind::arrhenius;
