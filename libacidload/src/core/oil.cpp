@@ -325,6 +325,7 @@ void advance_piece(OilState& s, Regime g, const Context& c, const Equations& e, 
                               ? R * t + c.k.organic_neutralised_share * c.organic * IM + so2
                               : c.makeup_base * t;
   ledger.acid_entered += R * t + c.organic * IM + so2;
+  ledger.sulfurous_taken_up += so2;
   ledger.acid_removed += cons * (sa.integral + w.integral);
   s.mass = c.mass.at(t);
   s.base = b.y;

@@ -106,6 +106,7 @@ struct OilLedger {
   double base_consumed = 0;     //!< reactive base used up neutralising acid
   double acid_entered = 0;      //!< strong acid, SO2 and organic acid that entered the oil
   double acid_removed = 0;      //!< free acid carried out with consumed or drained oil
+  double sulfurous_taken_up = 0;  //!< of the acid entered, SO2 taken up by the reactive base (2 equivalents per S)
 };
 
 //! What the oil did during a segment.

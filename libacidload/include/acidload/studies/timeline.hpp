@@ -72,6 +72,9 @@ struct ChargeSummary {
   std::array<LimitReading, limit_count> at_end{};  //!< readings at the first limit, or at the end of the charge
   double floor_reached_at = -1;         //!< oil hours the reactive base reached its floor, −1 if not [h]
   double antioxidant_spent_at = -1;     //!< oil hours the antioxidant reserve ran out, −1 if not [h]
+  //! Share of the fuel sulfur that reached the oil, averaged over the charge up to its first limit (or its
+  //! end): SO2 uptake falls as the base is used, so this is below the fresh-oil share [-]; −1 without sulfur.
+  double sulfur_share_to_oil_average = -1;
   //! Whether an oil-condition limit ended the charge (false: none within the planned maximum hours).
   bool oil_limit_reached() const { return first && is_oil_condition(*first); }
 };
