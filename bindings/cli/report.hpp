@@ -6,6 +6,8 @@
 
 #include "acidload/io/case_file.hpp"
 #include "acidload/studies/calibration.hpp"
+#include "acidload/studies/forecast.hpp"
+#include "acidload/studies/monte_carlo.hpp"
 #include "acidload/studies/whatif.hpp"
 
 namespace acidload_cli {

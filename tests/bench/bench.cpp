@@ -20,6 +20,7 @@
 #include "acidload/acidload.hpp"
 #include "acidload/core/rates.hpp"
 #include "acidload/studies/calibration.hpp"
+#include "acidload/studies/monte_carlo.hpp"
 
 using namespace acidload;
 using clock_type = std::chrono::steady_clock;

@@ -158,6 +158,68 @@ with tempfile.TemporaryDirectory() as tmp:
     if one.returncode != 0 or one.stdout != two.stdout:
         fail(f"uncertainty with 1 and 2 threads differ or failed: {one.stderr[:200]}")
 
+# The exit-code rule (README "Using the program", bindings/cli/cli.cpp): 2 when the command line
+# cannot be parsed, 3 when a file or a well-formed value is not acceptable — every command, and for
+# each an option it does not take. A failing command writes nothing to standard output.
+D, H, L = "cases/demo-site.yaml", "cases/demo-site-history.yaml", "cases/demo-site-lab.csv"
+P = "model.liner-uptake"
+exit_rule = [
+    # check
+    (["check", D, "--draws", "5"], 2), (["check", D, "--lab", "x"], 2), (["check", D, "--for", "h2s"], 2),
+    (["check"], 2), (["check", D, D], 2), (["check", ""], 2), (["check", D, "--overlay"], 2),
+    (["check", D, "--overlay", ""], 2), (["check", "no-such-file.yaml"], 3), (["check", "cases"], 3),
+    # run
+    (["run", D, "--out", ""], 2), (["run", D, "--draws", "5"], 2), (["run", D, "--out"], 2),
+    (["run", D, "--variant", "x"], 2), (["run", "no-such-file.yaml"], 3),
+    # solve
+    (["solve", D, "--target", "4000 h"], 2), (["solve", D, "--for", "h2s"], 2),
+    (["solve", D, "--for", "wind", "--target", "4000 h"], 2), (["solve", D, "--for", "h2s", "--target", "abc"], 2),
+    (["solve", D, "--for", "h2s", "--target", "4000 parsecs"], 2), (["solve", D, "--for", "h2s", "--target", "-5 h"], 3),
+    (["solve", D, "--for", "h2s", "--target", "0 h"], 3),
+    (["solve", D, "--for", "jacket-water-out", "--target", "4000 h", "--range", "-300 degC", "100 degC"], 3),
+    (["solve", D, "--for", "jacket-water-out", "--target", "4000 h", "--range", "1 K", "100 degC"], 3),
+    (["solve", D, "--for", "jacket-water-out", "--target", "4000 h", "--range", "warm", "100 degC"], 2),
+    (["solve", D, "--for", "h2s", "--target", "4000 h", "--range", "0 ppmv"], 2),
+    (["solve", D, "--for", "h2s", "--target", "4000 h", "--range", "0 furlongs", "5 ppmv"], 2),
+    (["solve", D, "--for", "h2s", "--target", "4000 h", "--range", "800 ppmv", "0 ppmv"], 3),
+    (["solve", D, "--for", "h2s", "--target", "4000 h", "--variant", "no such variant"], 3),
+    (["solve", D, "--for", "h2s", "--target", "4000 h", "--draws", "5"], 2),
+    (["solve", D, "--for", "h2s", "--target", "4000 h", "--target", "5000 h"], 2),
+    # convert
+    (["convert", "300 ppmv"], 2), (["convert", "--case", D], 2), (["convert", "300 ppmv", "--case", D, "--out", "x"], 2),
+    (["convert", "lots", "--case", D], 3), (["convert", "300 ppmv", "--case", D, "--as", "unobtainium"], 3),
+    (["convert", "300 ppmv", "--case", "no-such-file.yaml"], 3),
+    # fit and forecast
+    (["fit", H, "--parameters", P], 2), (["fit", H, "--lab", L], 2), (["fit", H, "--lab", L, "--parameters", P, "--draws", "5"], 2),
+    (["fit", H, "--lab", L, "--parameters", ","], 2), (["fit", H, "--lab", L, "--parameters", "model.no-such-key"], 3),
+    (["fit", H, "--lab", "no-such-file.csv", "--parameters", P], 3),
+    (["forecast", H, "--lab", L], 2), (["forecast", H, "--lab", L, "--parameters", P, "--write-overlay", "x.yaml"], 2),
+    (["forecast", H, "--lab", "no-such-file.csv", "--parameters", P], 3),
+    # uncertainty
+    (["uncertainty", H, "--draws", "1.5"], 2), (["uncertainty", H, "--seed", "2.5"], 2), (["uncertainty", H, "--draws", "many"], 2),
+    (["uncertainty", H, "--draws", "1e400"], 2), (["uncertainty", H, "--out", "x"], 2), (["uncertainty", H, "--draws", "0"], 3),
+    (["uncertainty", H, "--draws", "100000000"], 3), (["uncertainty", H, "--threads", "-5"], 3),
+    (["uncertainty", D], 3),
+    # demo
+    (["demo", D], 2), (["demo", "--overlay", D], 2),
+]
+for args, code in exit_rule:
+    r = run(*args)
+    checks += 1
+    if r.returncode != code or (code and r.stdout) or (code and "acidload:" not in r.stderr):
+        fail(f"acidload {args}: exit {r.returncode}, expected {code}; stdout {r.stdout[:80]!r}; stderr {r.stderr[:200]!r}")
+for args, option in ((["check", D, "--draws", "5"], "--draws"), (["run", D, "--variant", "x"], "--variant"),
+                     (["demo", "--overlay", D], "--overlay"), (["run", D, "--out", ""], "--out")):
+    r = run(*args)
+    checks += 1
+    if f"'{option}'" not in r.stderr and f"{option} ''" not in r.stderr:
+        fail(f"acidload {args}: the message does not name {option}: {r.stderr[:200]!r}")
+# every help text states the exit codes; the main help the whole rule
+r = run("--help")
+checks += 1
+if "2  the command line cannot be parsed" not in r.stdout or "3  a file or a well-formed value" not in r.stdout:
+    fail("acidload --help does not state the exit-code rule")
+
 r = run("--version")
 cmake = (root / "CMakeLists.txt").read_text()
 import re

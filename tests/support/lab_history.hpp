@@ -6,6 +6,7 @@
 #include <vector>
 
 #include "acidload/studies/calibration.hpp"
+#include "acidload/studies/monte_carlo.hpp"
 #include "sanity_case.hpp"
 
 namespace acidload_test {

@@ -7,6 +7,8 @@
 #include "../support/lab_history.hpp"
 #include "acidload/core/error.hpp"
 #include "acidload/studies/calibration.hpp"
+#include "acidload/studies/forecast.hpp"
+#include "acidload/studies/monte_carlo.hpp"
 
 using namespace acidload;
 using acidload_test::history_case;
@@ -186,4 +188,34 @@ TEST_CASE("Monte Carlo: identical percentiles with 1 and 2 threads; samplers and
   CHECK(std::fabs(tri / n - 3.0) < 0.01);  // mean of a triangular = (a + b + c)/3
   CHECK(uniform01(1, 2, 3) == uniform01(1, 2, 3));
   CHECK(uniform01(1, 2, 3) != uniform01(1, 3, 2));
+}
+
+TEST_CASE("Monte Carlo's early stop per draw gives what a full run of each draw gives") {
+  // each draw stops once its interval and first free acid are known; a plain run of the same draw
+  // (the same counter-based numbers, no stop, every limit watched) must give the same two figures
+  EngineCase c = history_case();
+  c.record = {acidload_test::sanity_segment(8000)};
+  const std::vector<UncertainInput> in = {{"fuel.h2s", {Distribution::Kind::lognormal, 300, 0.3, 0}},
+                                          {"oil.fresh-tbn", {Distribution::Kind::normal, 6.0, 0.2, 0}}};
+  const int draws = 60;
+  const MonteCarloResult mc = monte_carlo(c, in, draws, 11, 1);
+  int with_san = 0;
+  for (int i = 0; i < draws; ++i) {
+    EngineCase x = c;
+    for (std::size_t k = 0; k < in.size(); ++k)
+      set_parameter(x, in[k].key, sample(in[k].distribution, uniform01(11, i, 2 * k), uniform01(11, i, 2 * k + 1)));
+    const RunResult r = simulate(x.charge, x.model, x.record, x.options);
+    const ChargeSummary& ch = r.charges.front();
+    const double interval = ch.first ? ch.drain_interval : x.model.limits.max_hours;
+    const double san = ch.reached_at[static_cast<std::size_t>(Limit::san)];
+    CHECK(mc.drain_interval[static_cast<std::size_t>(i)] == doctest::Approx(interval).epsilon(1e-10));
+    if (san >= 0) {
+      ++with_san;
+      CHECK(mc.first_san[static_cast<std::size_t>(i)] == doctest::Approx(san).epsilon(1e-10));
+    } else {
+      CHECK(std::isinf(mc.first_san[static_cast<std::size_t>(i)]));
+    }
+  }
+  CHECK(with_san > 0);          // the check covers draws that stop at the first free acid…
+  CHECK(with_san < draws);      // …and draws that run to the cap without it
 }

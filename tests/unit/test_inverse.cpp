@@ -77,3 +77,25 @@ TEST_CASE("with_h2s keeps the gas summing to one") {
   CHECK(h[Gas::H2S] == 1e-3);
   CHECK(h[Gas::CH4] / h[Gas::CO2] == doctest::Approx(g[Gas::CH4] / g[Gas::CO2]).epsilon(1e-14));
 }
+
+TEST_CASE("a threaded sweep gives the answers of single runs, whatever the thread count") {
+  const EngineCase c = sanity();
+  std::vector<double> h2s;
+  for (int i = 0; i < 41; ++i) h2s.push_back(25.0 * i);
+  const std::vector<double> one = sweep_drain_interval(c, Lever::h2s_ppmv_dry, h2s.data(), h2s.size(), 1);
+  const std::vector<double> two = sweep_drain_interval(c, Lever::h2s_ppmv_dry, h2s.data(), h2s.size(), 2);
+  const std::vector<double> three = sweep_drain_interval(c, Lever::h2s_ppmv_dry, h2s.data(), h2s.size(), 3);
+  CHECK(one == two);
+  CHECK(one == three);
+  for (std::size_t i = 0; i < h2s.size(); i += 10)
+    CHECK(one[i] == drain_interval(with_lever(c, Lever::h2s_ppmv_dry, h2s[i])));
+  // the lowest refused element is named, whichever thread met it first
+  std::vector<double> bad = h2s;
+  bad[37] = -1, bad[23] = -5;
+  try {
+    sweep_drain_interval(c, Lever::h2s_ppmv_dry, bad.data(), bad.size(), 2);
+    FAIL("a negative H2S was accepted");
+  } catch (const InputError& e) {
+    CHECK(std::string(e.what()).find("element 23 of the sweep") != std::string::npos);
+  }
+}

@@ -128,3 +128,37 @@ TEST_CASE("read_csv: a missing file names it; a real file reads") {
   CHECK_THROWS_AS(read_csv(path, 5), InputError);
   std::remove(path.c_str());
 }
+
+TEST_CASE("a huge cell gives a message of bounded size, its start and length shown, the caret still placed") {
+  // a 3 MB cell holding a quote: refused at the quote; the message shows neither the whole cell
+  // nor the whole line (a 30 MB cell once gave a 90 MB message)
+  const std::string cell(3'000'000, 'x');
+  const InputError e = csv_error("hours,h2s\n1," + cell + "\"y\n");
+  const std::string m = e.what();
+  CHECK(m.size() < 1000);
+  CHECK(contains(m, "r.csv:2:3000003"));
+  CHECK(contains(m, "bytes in all)"));
+  // the caret stands under the quote in the window shown: the window's text ends "x\"y"
+  const auto lines_start = m.find("\n  ");
+  REQUIRE(lines_start != std::string::npos);
+  const std::string shown = m.substr(lines_start + 3, m.find('\n', lines_start + 3) - lines_start - 3);
+  const std::string caret = m.substr(m.rfind('\n') + 3);
+  REQUIRE(caret.size() >= 1);
+  // the caret column in the shown line (count characters: "…" is one)
+  std::size_t chars = 0, at = 0;
+  for (; at < shown.size() && chars < caret.size() - 1; ++at)
+    if ((static_cast<unsigned char>(shown[at]) & 0xC0) != 0x80) ++chars;
+  while (at < shown.size() && (static_cast<unsigned char>(shown[at]) & 0xC0) == 0x80) ++at;
+  CHECK(shown.substr(at, 1) == "\"");
+}
+
+TEST_CASE("one quantity in two columns (other units) is refused at the second header cell") {
+  const CsvTable t = parse_csv("hours [h],h2s [ppmv],h2s [mg/Nm3]\n1,2,3\n", "r.csv");
+  try {
+    named_columns(t, {"hours", "h2s"}, "record column");
+    FAIL("two h2s columns accepted");
+  } catch (const InputError& e) {
+    CHECK(contains(e.what(), "r.csv:1:22"));
+    CHECK(contains(e.what(), "also column 2"));
+  }
+}

@@ -23,7 +23,7 @@ from ._errors import Error, FitRefusedError, InputError, NoAnswerError, NotModel
 from ._gas import CONCENTRATION_UNITS, accepted_units, convert, molar_mass, molar_volume, parse_quantity
 from ._results import TRAJECTORY_UNITS, Result, VariantResult, run
 from ._studies import LEVERS, InverseAnswer, drain_interval, solve_for_interval
-from . import oil, so3, water
+from . import economics, oil, scrubber, so3, water
 
 #: The version of the library, the program and this package (defined once, in CMakeLists.txt).
 __version__: str = _core.version()
@@ -40,5 +40,5 @@ __all__ = [
     # errors
     "Error", "InputError", "NotModelledError", "NoAnswerError", "FitRefusedError",
     # physics from the core
-    "molar_mass", "molar_volume", "convert", "parse_quantity", "accepted_units", "CONCENTRATION_UNITS", "water", "so3", "oil",
+    "molar_mass", "molar_volume", "convert", "parse_quantity", "accepted_units", "CONCENTRATION_UNITS", "water", "so3", "oil", "scrubber", "economics",
 ]

@@ -121,7 +121,21 @@ class _OilModule:
     def tan(self, state: _OilState, oil: _OilProperties) -> float: ...
     def san(self, state: _OilState) -> float: ...
 
+class _ScrubberModule:
+    def thomas_steepness(self, width: float) -> float: ...
+    def breakthrough_share(self, fed_share: float, steepness: float) -> float: ...
+    def captured_share(self, fed_share: float, steepness: float) -> float: ...
+    def bed_outlet_ratio(self, fed_share: float, efficiency: float, steepness: float) -> float: ...
+    def fed_share_at_outlet_ratio(self, ratio: float, efficiency: float, steepness: float) -> float: ...
+    def iron_oxide_theoretical_capacity(self) -> float: ...  # [kg S/kg Fe2O3]
+    def caustic_per_sulfur(self) -> float: ...  # [kg NaOH/kg S]
+
+class _EconomicsModule:
+    def capital_recovery_factor(self, discount_rate: float, life_years: float) -> float: ...  # [1/year]
+
 water: _WaterModule
+scrubber: _ScrubberModule
+economics: _EconomicsModule
 so3: _So3Module
 oil: _OilModule
 
@@ -153,7 +167,7 @@ class CaseRun:
 
 def run_case(case: CaseFile) -> CaseRun: ...
 def drain_interval(case: EngineCase) -> float: ...  # [h]
-def sweep_drain_interval(case: EngineCase, lever: str, values: npt.ArrayLike) -> npt.NDArray[np.float64]: ...
+def sweep_drain_interval(case: EngineCase, lever: str, values: npt.ArrayLike, threads: int = 0) -> npt.NDArray[np.float64]: ...
 
 class InverseAnswer:
     found: bool
@@ -163,6 +177,8 @@ class InverseAnswer:
     interval_at_high: float  # [h]
     reason: str
     evaluations: int
+
+def default_search(case: EngineCase, lever: str) -> Tuple[float, float, float]: ...  # (low, high, tolerance), core unit
 
 def solve_for_interval(case: EngineCase, lever: str, target_hours: float, low: float, high: float,
                        tolerance: float) -> InverseAnswer: ...

@@ -18,7 +18,6 @@ class _Lever:
     unit: str        # the Python keyword's unit
     scale: float     # core value = keyword value · scale + offset
     offset: float
-    tolerance: float  # default tolerance of an inverse answer, in the keyword's unit (as the program's solve)
 
     def to_core(self, v):
         return np.asarray(v, dtype=float) * self.scale + self.offset
@@ -29,10 +28,10 @@ class _Lever:
 
 #: The levers, by keyword: the keyword names the lever and its unit.
 LEVERS: Dict[str, _Lever] = {
-    "h2s_ppmv": _Lever("h2s", "ppmv (dry)", 1.0, 0.0, 0.01),
-    "fresh_tbn_mg_koh_per_g": _Lever("fresh-tbn", "mg KOH/g", 1.0, 0.0, 1e-4),
-    "jacket_water_out_c": _Lever("jacket-water-out", "degC", 1.0, _core.ZERO_CELSIUS, 1e-3),
-    "oil_volume_l": _Lever("oil-volume", "L", 1e-3, 0.0, 1e-3),
+    "h2s_ppmv": _Lever("h2s", "ppmv (dry)", 1.0, 0.0),
+    "fresh_tbn_mg_koh_per_g": _Lever("fresh-tbn", "mg KOH/g", 1.0, 0.0),
+    "jacket_water_out_c": _Lever("jacket-water-out", "degC", 1.0, _core.ZERO_CELSIUS),
+    "oil_volume_l": _Lever("oil-volume", "L", 1e-3, 0.0),
 }
 
 
@@ -93,19 +92,24 @@ def solve_for_interval(case: Union[Case, Variant], *, target_h: float, variant: 
         acidload.solve_for_interval(case, target_h=4000, h2s_ppmv=(0, 800))
         acidload.solve_for_interval(case, target_h=2000, oil_volume_l=(300, 3000))
 
-    ``tolerance`` is in the lever's unit (default as the program's ``solve``: 0.01 ppmv, 1e-4 mg KOH/g,
-    0.001 K, 0.001 L). "No answer in the range" is an answer: ``found`` is False and ``reason`` says
-    why; nothing is extrapolated.
+    A lever given as ``None`` (``h2s_ppmv=None``) searches the library's default range, the one the
+    program's ``solve`` uses. ``tolerance`` is in the lever's unit (default: the library's, as the
+    program's ``solve``: 0.01 ppmv, 1e-4 mg KOH/g, 0.001 K, 0.001 L). "No answer in the range" is an
+    answer: ``found`` is False and ``reason`` says why; nothing is extrapolated.
     """
     ec = _engine_case(case, variant)
     k, lv, rng = _one_lever(lever, "solve_for_interval()")
-    try:
-        low, high = (float(x) for x in rng)
-    except (TypeError, ValueError):
-        raise TypeError(f"{k}= takes a range (low, high) in {lv.unit}") from None
-    tol = lv.tolerance if tolerance is None else float(tolerance)
+    d_low, d_high, d_tol = _core.default_search(ec, lv.core_name)  # core units
+    if rng is None:
+        low, high = lv.from_core(d_low), lv.from_core(d_high)
+    else:
+        try:
+            low, high = (float(x) for x in rng)
+        except (TypeError, ValueError):
+            raise TypeError(f"{k}= takes a range (low, high) in {lv.unit}, or None for the default range") from None
+    tol_core = d_tol if tolerance is None else float(tolerance) * lv.scale
     a = _core.solve_for_interval(ec, lv.core_name, float(target_h), float(lv.to_core(low)), float(lv.to_core(high)),
-                                 tol * lv.scale)
+                                 tol_core)
     return InverseAnswer(found=a.found, lever=k, unit=lv.unit, value=lv.from_core(a.value) if a.found else None,
                          target_h=float(target_h), interval_at_value_h=a.interval_at_value if a.found else None,
                          range=(low, high), interval_at_low_h=a.interval_at_low, interval_at_high_h=a.interval_at_high,

@@ -17,6 +17,8 @@
 #include "acidload/io/quantity.hpp"
 #include "acidload/io/results.hpp"
 #include "acidload/studies/calibration.hpp"
+#include "acidload/studies/forecast.hpp"
+#include "acidload/studies/monte_carlo.hpp"
 #include "acidload/studies/inverse.hpp"
 
 namespace py = pybind11;
@@ -64,8 +66,7 @@ void translate(std::exception_ptr p) {
 
 // ---- levers and units ------------------------------------------------------------------------
 Lever lever_from(const std::string& text) {
-  for (Lever l : {Lever::h2s_ppmv_dry, Lever::fresh_tbn, Lever::jacket_water_out, Lever::oil_volume})
-    if (text == name(l)) return l;
+  if (const std::optional<Lever> l = lever_named(text)) return *l;
   throw InputError("lever", text, "one of h2s, fresh-tbn, jacket-water-out, oil-volume");
 }
 
@@ -172,23 +173,16 @@ py::dict rates_dict(const OilRates& r) {
 // ---- sweeps: the loop in C++, the GIL released ------------------------------------------------
 using InArray = py::array_t<double, py::array::c_style | py::array::forcecast>;
 
-py::array_t<double> sweep_drain_interval(const EngineCase& c, const std::string& lever, const InArray& values) {
+py::array_t<double> sweep_for_python(const EngineCase& c, const std::string& lever, const InArray& values, int threads) {
   const Lever l = lever_from(lever);
-  const py::ssize_t n = values.size();
+  if (threads < 0) throw InputError("threads", std::to_string(threads), "0 (every core) or a positive thread count");
   py::array_t<double> out(values.request().shape);
-  const double* in = values.data();
-  double* o = out.mutable_data();
+  std::vector<double> r;
   {
     py::gil_scoped_release release;
-    for (py::ssize_t i = 0; i < n; ++i) {
-      try {
-        o[i] = drain_interval(with_lever(c, l, in[i]));
-      } catch (const InputError& e) {  // name the element of the sweep that was refused
-        throw InputError(e.key(), e.value(), e.expected() + " (element " + std::to_string(i) + " of the sweep)",
-                         e.where());
-      }
-    }
+    r = acidload::sweep_drain_interval(c, l, values.data(), static_cast<std::size_t>(values.size()), threads);
   }
+  std::copy(r.begin(), r.end(), out.mutable_data());
   return out;
 }
 
@@ -319,6 +313,25 @@ PYBIND11_MODULE(_core, m) {
   so3.def("equilibrium_so3_share", &so3::equilibrium_so3_share, py::arg("temperature_k"), py::arg("o2_fraction"),
           py::arg("total_pressure_pa"),
           "Equilibrium SO3/(SO2 + SO3) [mol/mol] at T [K], O2 mole fraction [mol/mol] and total pressure [Pa].");
+
+  // ---- scrubber beds (Thomas breakthrough) and cost arithmetic, for direct use and the reference tests
+  py::module_ scrub = m.def_submodule("scrubber", "Media beds by the Thomas breakthrough form, throughput variable.");
+  scrub.def("thomas_steepness", &thomas_steepness, py::arg("width"),
+            "beta = 2 ln 9 / width [-]; width: share of the bed life from 10 % to 90 % breakthrough.");
+  scrub.def("breakthrough_share", &breakthrough_share, py::arg("fed_share"), py::arg("steepness"),
+            "F(phi) = 1/(1 + exp(beta (1 - phi))) [-]; phi = sulfur fed / (q0 M).");
+  scrub.def("captured_share", &captured_share, py::arg("fed_share"), py::arg("steepness"),
+            "G(phi) = integral of 1 - F from 0 to phi: sulfur held as a share of q0 M [-].");
+  scrub.def("bed_outlet_ratio", &bed_outlet_ratio, py::arg("fed_share"), py::arg("efficiency"), py::arg("steepness"),
+            "Outlet over inlet H2S, (1 - eta) + eta F(phi) [-].");
+  scrub.def("fed_share_at_outlet_ratio", &fed_share_at_outlet_ratio, py::arg("ratio"), py::arg("efficiency"),
+            py::arg("steepness"), "phi at which the outlet ratio is reached [-] (InputError outside the fresh bed's range).");
+  scrub.def("iron_oxide_theoretical_capacity", &iron_oxide_theoretical_capacity,
+            "3 M_S / M_Fe2O3 [kg S per kg Fe2O3] (Fe2O3 + 3 H2S -> Fe2S3 + 3 H2O).");
+  scrub.def("caustic_per_sulfur", &caustic_per_sulfur, "2 M_NaOH / M_S [kg NaOH per kg S] (H2S + 2 NaOH -> Na2S + 2 H2O).");
+  py::module_ econ = m.def_submodule("economics", "Cost arithmetic: the capital recovery factor.");
+  econ.def("capital_recovery_factor", &capital_recovery_factor, py::arg("discount_rate"), py::arg("life_years"),
+           "i (1+i)^n / ((1+i)^n - 1) [1/year]; 1/n at i = 0.");
 
   // ---- the oil balance (MODEL §8), for direct use and for the reference tests
   py::module_ oil = m.def_submodule("oil", "The oil balance of one segment of constant rates (MODEL §8).");
@@ -491,8 +504,10 @@ PYBIND11_MODULE(_core, m) {
           return drain_interval(c);
         },
         py::arg("case"), "The drain interval of a variant [h]; the hours cap when no other limit is reached.");
-  m.def("sweep_drain_interval", &sweep_drain_interval, py::arg("case"), py::arg("lever"), py::arg("values"),
-        "Drain interval [h] for each value of one lever (core unit), computed in C++ with the GIL released.");
+  m.def("sweep_drain_interval", &sweep_for_python, py::arg("case"), py::arg("lever"), py::arg("values"),
+        py::arg("threads") = 0,
+        "Drain interval [h] for each value of one lever (core unit), computed in C++ with the GIL released, on "
+        "`threads` threads (0 = every core; the answers are the same for any count).");
   py::class_<InverseAnswer>(m, "InverseAnswer", "The answer of solve_for_interval, in the lever's core unit.")
       .def_readonly("found", &InverseAnswer::found)
       .def_readonly("value", &InverseAnswer::value, "in the lever's core unit")
@@ -501,6 +516,14 @@ PYBIND11_MODULE(_core, m) {
       .def_readonly("interval_at_high", &InverseAnswer::interval_at_high, "[h]")
       .def_readonly("reason", &InverseAnswer::reason)
       .def_readonly("evaluations", &InverseAnswer::evaluations);
+  m.def("default_search",
+        [](const EngineCase& c, const std::string& lever) {
+          const LeverSearch s = default_search(c, lever_from(lever));
+          return py::make_tuple(s.low, s.high, s.tolerance);
+        },
+        py::arg("case"), py::arg("lever"),
+        "(low, high, tolerance) in the lever's core unit: where solve searches when no range is given "
+        "(acidload::default_search, the same defaults as the program's solve).");
   m.def("solve_for_interval",
         [](const EngineCase& c, const std::string& lever, double target, double low, double high, double tolerance) {
           const Lever l = lever_from(lever);

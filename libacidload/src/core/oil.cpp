@@ -167,6 +167,35 @@ double phi2(double x) {
   return (x - 1 + std::exp(-x)) / (x * x);
 }
 
+// E(x) and φ2(x), remembered for the last few arguments: within a segment most states share one
+// exponent (−k·t of the makeup), so of the ~10 evaluations per segment only ~3 differ, and equal
+// steps of equal rates (detection steps) repeat them all. Pure: the same argument gives the same
+// bits; per thread, so Monte Carlo threads do not share it.
+template <int N>
+struct Memo {
+  double x[N], y[N];
+  int turn = 0;
+  Memo() {
+    for (int i = 0; i < N; ++i) x[i] = std::numeric_limits<double>::quiet_NaN(), y[i] = 0;
+  }
+  template <class F>
+  double operator()(double arg, F f) {
+    for (int i = 0; i < N; ++i)
+      if (arg == x[i]) return y[i];
+    turn = (turn + 1) % N;
+    x[turn] = arg;
+    return y[turn] = f(arg);
+  }
+};
+double E_of(double x) {
+  thread_local Memo<4> m;
+  return m(x, expm1_over_x);
+}
+double phi2_of(double x) {
+  thread_local Memo<3> m;
+  return m(x, phi2);
+}
+
 // y(t) alone, where the integral is not needed (the crossing search).
 double value(const Linear& e, double y0, const Mass& m, double t);
 
@@ -177,7 +206,7 @@ Solution solve(const Linear& e, double y0, const Mass& m, double t) {
     const double A = m.c == 0 ? e.a0 + e.a1 / m.m0 : e.a0;
     const double L = m.c == 0 ? e.l0 + e.l1 / m.m0 : e.l0;
     const double slope = A - L * y0;
-    return {y0 + slope * t * expm1_over_x(-L * t), y0 * t + slope * t * t * phi2(L * t)};
+    return {y0 + slope * t * E_of(-L * t), y0 * t + slope * t * t * phi2_of(L * t)};
   }
   // falling mass, l0 = 0 (no makeup): with m = M/M0, L = ln m, g = l1/c, T_M = M0/c,
   // y = y0 m^g + a0 T_M (m^g − m)/(1 − g) + (a1/c)(1 − m^g)/g, in stable divided-difference form.
@@ -197,7 +226,7 @@ Solution solve(const Linear& e, double y0, const Mass& m, double t) {
 double value(const Linear& e, double y0, const Mass& m, double t) {
   if (m.c == 0) {
     const double A = e.a0 + e.a1 / m.m0, L = e.l0 + e.l1 / m.m0;
-    return y0 + (A - L * y0) * t * expm1_over_x(-L * t);
+    return y0 + (A - L * y0) * t * E_of(-L * t);
   }
   return solve(e, y0, m, t).y;
 }

@@ -11,8 +11,9 @@ double oil_consumption(double specific, double power) {
   return specific * power * constants::seconds_per_hour;
 }
 
-OilRates oil_rates(const Transfer& t, const OxidationLaw& law, double sump_T, double consumption, bool continuous) {
-  validate(law);
+OilRates oil_rates(const Transfer& t, const OxidationLaw& law, double sump_T, double consumption, bool continuous,
+                   bool check_law) {
+  if (check_law) validate(law);
   check::in_range("engine.oil-temperature", sump_T, 273.15, 423.15, "K");
   OilRates r;
   r.strong_acid = t.inflow.strong_koh();

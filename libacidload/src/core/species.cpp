@@ -123,7 +123,14 @@ constexpr std::string_view acid_formulas[] = {"H2SO4", "HCl", "HF", "HNO3"};
 
 std::string_view formula_text(Gas g) { return gas_formulas[static_cast<std::size_t>(g)]; }
 const Formula& formula(Gas g) { return gas_formula_table()[static_cast<std::size_t>(g)]; }
-double molar_mass(Gas g) { return molar_mass(formula(g)); }
+double molar_mass(Gas g) {
+  static const std::array<double, gas_count> m = [] {  // summed once over the elements
+    std::array<double, gas_count> t{};
+    for (std::size_t i = 0; i < gas_count; ++i) t[i] = molar_mass(formula(static_cast<Gas>(i)));
+    return t;
+  }();
+  return m[static_cast<std::size_t>(g)];
+}
 
 Gas gas_from_formula(std::string_view text) {
   for (std::size_t i = 0; i < gas_count; ++i)
@@ -134,7 +141,15 @@ Gas gas_from_formula(std::string_view text) {
 }
 
 std::string_view formula_text(Acid a) { return acid_formulas[static_cast<std::size_t>(a)]; }
-double molar_mass(Acid a) { return molar_mass(formula_text(a)); }
+double molar_mass(Acid a) {
+  // parsed once: the hot path (acid inflow as KOH, every segment) asks for these constantly
+  static const std::array<double, 4> m = [] {
+    std::array<double, 4> t{};
+    for (std::size_t i = 0; i < t.size(); ++i) t[i] = molar_mass(acid_formulas[i]);
+    return t;
+  }();
+  return m[static_cast<std::size_t>(a)];
+}
 
 double koh_equivalents(Acid a) {
   switch (a) {
@@ -146,7 +161,10 @@ double koh_equivalents(Acid a) {
   return 0;
 }
 
-double koh_molar_mass() { return molar_mass("KOH"); }
+double koh_molar_mass() {
+  static const double m = molar_mass("KOH");  // parsed once (thread-safe static), not per segment
+  return m;
+}
 
 double mg_koh_per_mg(Acid a) { return koh_equivalents(a) * koh_molar_mass() / molar_mass(a); }
 

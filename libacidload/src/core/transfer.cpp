@@ -119,9 +119,9 @@ double warmup_liner_extra(double dew, double js, double jr, double tw, double ri
   return sum;
 }
 
-Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParameters& p) {
+Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParameters& p, bool check_parameters) {
   validate(op);
-  validate(p);
+  if (check_parameters) validate(p);
   Transfer t;
   t.fuel_flow = op.fuel_flow;
   t.sulfur_flow = fuel.sulfur() * op.fuel_flow;

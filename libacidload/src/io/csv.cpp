@@ -179,6 +179,8 @@ class Parser {
                         std::to_string(it->second) + ")");
     }
     t_.header = cells;
+    t_.header_line = line;
+    t_.header_columns = cols;
     header_line_ = line;
   }
 
@@ -261,8 +263,16 @@ NamedColumns named_columns(const CsvTable& t, const std::vector<std::string>& al
       const std::string cl = closest(h, allowed);
       std::string all;
       for (const auto& x : allowed) all += (all.empty() ? "" : ", ") + x;
-      throw d.error(Mark{t.lines.empty() ? 1 : t.lines.front() - 1, 1}, what, t.header[c],
+      throw d.error(Mark{t.header_line > 0 ? t.header_line : 1, c < t.header_columns.size() ? t.header_columns[c] : 1}, what, t.header[c],
                     "a column among: " + all + (cl.empty() ? "" : " (closest: '" + cl + "')"));
+    }
+    const int col = c < t.header_columns.size() ? t.header_columns[c] : 1;
+    const auto twice = std::find(out.names.begin(), out.names.end(), h);
+    if (twice != out.names.end()) {
+      const std::size_t first = static_cast<std::size_t>(twice - out.names.begin());
+      throw d.error(Mark{t.header_line, col}, what, t.header[c],
+                    "each quantity in one column only: '" + h + "' is also column " + std::to_string(first + 1) +
+                        " ('" + t.header[first] + "')");
     }
     out.names.push_back(h);
     out.units.push_back(unit);

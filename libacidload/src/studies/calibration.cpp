@@ -4,7 +4,6 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
-#include <thread>
 
 #include "acidload/core/error.hpp"
 
@@ -99,9 +98,17 @@ std::vector<SampleResidual> predict(const EngineCase& c, const std::vector<LabSa
   std::vector<SampleResidual> out;
   for (std::size_t i = 0; i < samples.size(); ++i) {
     const LabSample& s = samples[i];
+    // the last point of the sample's charge at its time: engine hours never fall along the
+    // trajectory, so a binary search finds the points at that time (not a scan per sample)
+    const double tol = 1e-6 * (1 + times[i]);
+    const auto past = std::upper_bound(r.trajectory.begin(), r.trajectory.end(), times[i] + tol,
+                                       [](double t, const TrajectoryPoint& q) { return t < q.engine_hours; });
     const TrajectoryPoint* p = nullptr;
-    for (const TrajectoryPoint& q : r.trajectory)
-      if (q.charge == s.charge && std::fabs(q.engine_hours - times[i]) < 1e-6 * (1 + times[i])) p = &q;
+    for (auto q = past; q != r.trajectory.begin() && std::fabs((q - 1)->engine_hours - times[i]) < tol; --q)
+      if ((q - 1)->charge == s.charge) {
+        p = &*(q - 1);
+        break;
+      }
     if (!p) throw Error("internal: no trajectory point at the sample " + s.where);
     const auto add = [&](const char* reading, double measured, double predicted, bool censored, BaseNumberMethod mth) {
       SampleResidual x;
@@ -295,186 +302,5 @@ FitResult calibrate(const EngineCase& c, const std::vector<LabSample>& samples, 
   return out;
 }
 
-// ---- forecast -------------------------------------------------------------------------------
-
-namespace {
-std::array<double, limit_count> remaining_hours(const EngineCase& c) {
-  EngineCase x = c;
-  Segment future = x.record.back();
-  future.events.clear();
-  future.hours = x.model.limits.max_hours;
-  future.starts = x.record.back().hours > 0 ? x.record.back().starts / x.record.back().hours * future.hours : 0;
-  future.calendar_hours = -1;
-  x.record.push_back(future);
-  RunOptions o;
-  o.output_interval = 0;
-  const RunResult r = simulate(x.charge, x.model, x.record, o);
-  const ChargeSummary& ch = r.charges.back();
-  const double at_end = ch.oil_hours - future.hours;  // oil hours at the end of the record
-  std::array<double, limit_count> out{};
-  for (std::size_t k = 0; k < limit_count; ++k)
-    out[k] = ch.reached_at[k] >= 0 ? ch.reached_at[k] - at_end : std::numeric_limits<double>::infinity();
-  return out;
-}
-}  // namespace
-
-std::vector<LimitForecast> forecast(const FitResult& fit) {
-  const EngineCase& c = fit.fitted;
-  const std::array<double, limit_count> t0 = remaining_hours(c);
-  const std::size_t p = fit.parameters.size();
-  std::vector<std::array<double, limit_count>> grad(p);
-  for (std::size_t j = 0; j < p; ++j) {
-    const ParameterInfo& info = parameter(fit.parameters[j].key);
-    const double phi = fit.parameters[j].fit_estimate, h = 1e-4 * std::max(1.0, std::fabs(phi));
-    EngineCase a = c, b = c;
-    set_parameter(a, info.key, from_fit_space(info.bound, phi + h));
-    set_parameter(b, info.key, from_fit_space(info.bound, phi - h));
-    const auto ta = remaining_hours(a), tb = remaining_hours(b);
-    for (std::size_t k = 0; k < limit_count; ++k) grad[j][k] = (ta[k] - tb[k]) / (2 * h);
-  }
-  std::vector<LimitForecast> out;
-  for (std::size_t k = 0; k < limit_count; ++k) {
-    LimitForecast f;
-    f.limit = all_limits[k];
-    f.reached = std::isfinite(t0[k]);
-    f.remaining = t0[k];
-    if (f.reached && t0[k] <= 0) {
-      f.already = true;
-      f.remaining = f.low = f.high = 0;
-    } else if (f.reached) {
-      double var = 0;
-      for (std::size_t i = 0; i < p; ++i)
-        for (std::size_t j = 0; j < p; ++j)
-          if (std::isfinite(grad[i][k]) && std::isfinite(grad[j][k])) var += grad[i][k] * fit.covariance[i][j] * grad[j][k];
-      const double half = 1.6448536269514722 * std::sqrt(std::max(0.0, var));  // 90 %: z(0.95)
-      f.low = std::max(0.0, t0[k] - half);
-      f.high = t0[k] + half;
-    }
-    out.push_back(f);
-  }
-  return out;
-}
-
-// ---- Monte Carlo ----------------------------------------------------------------------------
-
-double uniform01(std::uint64_t seed, std::uint64_t draw, std::uint64_t dim) {
-  // SplitMix64 finaliser (Steele, Lea & Flood 2014) of a counter built from (seed, draw, dimension)
-  std::uint64_t z = seed * 0x9E3779B97F4A7C15ull + draw * 0xD1B54A32D192ED03ull + dim * 0x8CB92BA72F3D8DD7ull;
-  for (int round = 0; round < 2; ++round) {
-    z += 0x9E3779B97F4A7C15ull;
-    z = (z ^ (z >> 30)) * 0xBF58476D1CE4E5B9ull;
-    z = (z ^ (z >> 27)) * 0x94D049BB133111EBull;
-    z ^= z >> 31;
-  }
-  return (static_cast<double>(z >> 11) + 0.5) * (1.0 / 9007199254740992.0);  // (0, 1), 53 bits
-}
-
-double sample(const Distribution& d, double u1, double u2) {
-  constexpr double two_pi = 6.283185307179586;
-  switch (d.kind) {
-    case Distribution::Kind::normal: return d.a + d.b * std::sqrt(-2 * std::log(u1)) * std::cos(two_pi * u2);
-    case Distribution::Kind::lognormal: return d.a * std::exp(d.b * std::sqrt(-2 * std::log(u1)) * std::cos(two_pi * u2));
-    case Distribution::Kind::uniform: return d.a + (d.b - d.a) * u1;
-    case Distribution::Kind::triangular: {
-      const double lo = d.a, mode = d.b, hi = d.c, fc = (mode - lo) / (hi - lo);
-      return u1 < fc ? lo + std::sqrt(u1 * (hi - lo) * (mode - lo)) : hi - std::sqrt((1 - u1) * (hi - lo) * (hi - mode));
-    }
-  }
-  return 0;
-}
-
-double percentile(std::vector<double> v, double p) {
-  if (v.empty()) throw InputError("percentile", "(no values)", "at least one value");
-  check::in_range("percentile", p, 0.0, 100.0, "%");
-  std::sort(v.begin(), v.end());
-  const double h = (static_cast<double>(v.size()) - 1) * p / 100;
-  const std::size_t lo = static_cast<std::size_t>(std::floor(h));
-  const std::size_t hi = std::min(lo + 1, v.size() - 1);
-  if (!std::isfinite(v[hi]) || !std::isfinite(v[lo])) return v[hi] == v[lo] ? v[lo] : std::numeric_limits<double>::infinity();
-  return v[lo] + (h - static_cast<double>(lo)) * (v[hi] - v[lo]);
-}
-
-namespace {
-// The first charge as it ran, continued under its last conditions up to the hours cap: the drain
-// interval of a record with oil changes is that of its first charge, not cut short by the change.
-EngineCase first_charge_to_cap(const EngineCase& c) {
-  EngineCase x = c;
-  x.record.clear();
-  double hours = 0;
-  for (std::size_t i = 0; i < c.record.size(); ++i) {
-    bool change = false;
-    for (const OilEvent& e : c.record[i].events) change |= e.kind == OilEvent::Kind::oil_change;
-    if (change && i > 0) break;
-    x.record.push_back(c.record[i]);
-    hours += c.record[i].hours;
-  }
-  if (hours < c.model.limits.max_hours) {
-    Segment more = x.record.back();
-    more.events.clear();
-    more.starts = more.hours > 0 ? more.starts / more.hours * (c.model.limits.max_hours - hours) : 0;
-    more.hours = c.model.limits.max_hours - hours;
-    more.calendar_hours = -1;
-    x.record.push_back(more);
-  }
-  return x;
-}
-}  // namespace
-
-MonteCarloResult monte_carlo(const EngineCase& c0, const std::vector<UncertainInput>& inputs, int draws,
-                             std::uint64_t seed, int threads) {
-  check::in_range("draws", draws, 1, 1e7, "");
-  for (const UncertainInput& in : inputs) {
-    parameter(in.key);
-    const Distribution& d = in.distribution;
-    const bool ok = d.kind == Distribution::Kind::normal ? d.b >= 0
-                    : d.kind == Distribution::Kind::lognormal ? d.a > 0 && d.b >= 0
-                    : d.kind == Distribution::Kind::uniform ? d.a < d.b
-                                                            : d.a <= d.b && d.b <= d.c && d.a < d.c;
-    if (!ok) throw InputError("uncertain " + in.key, "(distribution)", "a distribution with consistent parameters");
-  }
-  const EngineCase c = first_charge_to_cap(c0);
-  MonteCarloResult out;
-  out.draws = draws;
-  out.drain_interval.assign(static_cast<std::size_t>(draws), 0);
-  out.first_san.assign(static_cast<std::size_t>(draws), 0);
-  const auto one = [&](int i) {
-    EngineCase x = c;
-    for (std::size_t k = 0; k < inputs.size(); ++k) {
-      const double u1 = uniform01(seed, static_cast<std::uint64_t>(i), 2 * k);
-      const double u2 = uniform01(seed, static_cast<std::uint64_t>(i), 2 * k + 1);
-      set_parameter(x, inputs[k].key, sample(inputs[k].distribution, u1, u2));
-    }
-    RunOptions o = x.options;
-    o.output_interval = 0;
-    o.keep_segment_ends = false;  // no trajectory is needed, only the limits
-    const RunResult r = simulate(x.charge, x.model, x.record, o);
-    const ChargeSummary& ch = r.charges.front();
-    out.drain_interval[static_cast<std::size_t>(i)] = ch.first ? ch.drain_interval : x.model.limits.max_hours;
-    const double san = ch.reached_at[static_cast<std::size_t>(Limit::san)];
-    out.first_san[static_cast<std::size_t>(i)] = san >= 0 ? san : std::numeric_limits<double>::infinity();
-  };
-  int n = threads > 0 ? threads : static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
-  n = std::min(n, draws);
-  std::vector<std::thread> pool;
-  std::vector<std::exception_ptr> errors(static_cast<std::size_t>(n));
-  for (int t = 0; t < n; ++t)
-    pool.emplace_back([&, t] {
-      try {
-        for (int i = t; i < draws; i += n) one(i);  // each draw's numbers depend on its index only
-      } catch (...) {
-        errors[static_cast<std::size_t>(t)] = std::current_exception();
-      }
-    });
-  for (auto& th : pool) th.join();
-  for (auto& e : errors)
-    if (e) std::rethrow_exception(e);
-  out.interval_p10 = percentile(out.drain_interval, 10);
-  out.interval_p50 = percentile(out.drain_interval, 50);
-  out.interval_p90 = percentile(out.drain_interval, 90);
-  out.san_p10 = percentile(out.first_san, 10);
-  out.san_p50 = percentile(out.first_san, 50);
-  out.san_p90 = percentile(out.first_san, 90);
-  return out;
-}
 
 }  // namespace acidload

@@ -2,7 +2,11 @@
 
 #include <boost/math/tools/toms748_solve.hpp>
 #include <cmath>
+#include <algorithm>
+#include <atomic>
 #include <cstdint>
+#include <exception>
+#include <thread>
 
 #include "acidload/core/error.hpp"
 
@@ -16,6 +20,30 @@ std::string_view name(Lever l) {
     case Lever::oil_volume: return "oil-volume";
   }
   return "?";
+}
+
+std::optional<Lever> lever_named(std::string_view word) {
+  for (Lever l : {Lever::h2s_ppmv_dry, Lever::fresh_tbn, Lever::jacket_water_out, Lever::oil_volume})
+    if (name(l) == word) return l;
+  return std::nullopt;
+}
+
+LeverSearch default_search(const EngineCase& c, Lever l) {
+  // The ranges cover the plants the program is meant for (common practice, no source); the
+  // tolerances are far below what the inputs are known to.
+  switch (l) {
+    case Lever::h2s_ppmv_dry: return {0, 3000, 0.01};  // ppmv dry
+    case Lever::fresh_tbn: {                           // mg KOH/g: from just above what the oil cannot give up
+      const OilProperties& o = c.charge.oil;
+      return {o.base_floor + o.weak_base(o.fresh_tbn_method) + 0.01, 30, 1e-4};
+    }
+    case Lever::jacket_water_out: return {333.15, 393.15, 1e-3};  // K: 60 to 120 degC
+    case Lever::oil_volume: {                                     // m3: a tenth to ten times the case's
+      const double v = lever_value(c, l);
+      return {0.1 * v, 10 * v, 1e-6};
+    }
+  }
+  return {};
 }
 
 EngineCase with_lever(const EngineCase& c, Lever l, double v) {
@@ -62,6 +90,44 @@ double drain_interval(const EngineCase& c) {
   const RunResult r = simulate(c.charge, c.model, c.record, o);
   const ChargeSummary& ch = r.charges.front();
   return ch.first ? ch.drain_interval : c.model.limits.max_hours;
+}
+
+std::vector<double> sweep_drain_interval(const EngineCase& c, Lever l, const double* values, std::size_t n, int threads) {
+  std::vector<double> out(n, 0.0);
+  std::size_t workers = threads > 0 ? static_cast<std::size_t>(threads) : std::max(1u, std::thread::hardware_concurrency());
+  workers = std::max<std::size_t>(1, std::min(workers, n));
+  constexpr std::size_t block = 16;  // values handed out at a time
+  std::atomic<std::size_t> next{0};
+  std::atomic<std::size_t> first_bad{n};  // lowest refused element so far; later ones are skipped
+  std::vector<std::exception_ptr> errors(n == 0 ? 0 : (n + block - 1) / block);
+  const auto work = [&] {
+    for (std::size_t b; (b = next.fetch_add(block)) < n;) {
+      for (std::size_t i = b; i < std::min(n, b + block); ++i) {
+        if (i > first_bad.load()) break;
+        try {
+          out[i] = drain_interval(with_lever(c, l, values[i]));
+        } catch (const InputError& e) {  // name the element of the sweep that was refused
+          errors[b / block] = std::make_exception_ptr(
+              InputError(e.key(), e.value(), e.expected() + " (element " + std::to_string(i) + " of the sweep)", e.where()));
+        } catch (...) {
+          errors[b / block] = std::current_exception();
+        }
+        if (errors[b / block]) {
+          for (std::size_t f = first_bad.load(); i < f && !first_bad.compare_exchange_weak(f, i);) {}
+          break;
+        }
+      }
+    }
+  };
+  if (workers == 1) {
+    work();
+  } else {
+    std::vector<std::thread> pool;
+    for (std::size_t t = 0; t < workers; ++t) pool.emplace_back(work);
+    for (auto& th : pool) th.join();
+  }
+  if (first_bad.load() < n) std::rethrow_exception(errors[first_bad.load() / block]);
+  return out;
 }
 
 InverseAnswer solve_for_interval(const EngineCase& c, Lever lever, double target, double lo, double hi, double tol) {

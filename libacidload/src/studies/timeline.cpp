@@ -1,6 +1,8 @@
 #include "acidload/studies/timeline.hpp"
 
 #include <cmath>
+#include <cstring>
+#include <type_traits>
 
 #include "acidload/core/error.hpp"
 #include "acidload/core/rates.hpp"
@@ -18,6 +20,39 @@ OilRates segment_rates(const Segment& s, const OilCharge& charge, const ModelPar
 
 namespace {
 
+// Bitwise equality of two plain structs: equal bits give equal results, so a repeat may reuse
+// them (conservative: -0 against +0, or differing padding, only cost a recomputation).
+template <class T>
+bool same_bits(const T& a, const T& b) {
+  static_assert(std::is_trivially_copyable_v<T>, "compared bit by bit");
+  return std::memcmp(&a, &b, sizeof(T)) == 0;
+}
+
+// The rates of the last operating state, reused while the state repeats (a record often holds
+// long runs of identical rows); the model's constant parameters were validated once by simulate().
+struct RateCache {
+  bool valid = false;
+  FuelGas fuel;
+  Operation op;
+  double oil_temperature = 0, oil_consumption = 0;
+  Transfer transfer;
+  OilRates rates;
+
+  const OilRates& of(const Segment& s, const OilCharge& charge, const ModelParameters& model) {
+    Operation op2 = s.operation;
+    op2.starts_per_hour = s.hours > 0 ? s.starts / s.hours : 0;
+    if (valid && same_bits(op2, op) && same_bits(s.fuel, fuel) && s.oil_temperature == oil_temperature &&
+        s.oil_consumption == oil_consumption)
+      return rates;
+    valid = false;
+    transfer = acidload::transfer(s.fuel, op2, model.transfer, false);
+    rates = oil_rates(transfer, model.oxidation, s.oil_temperature, s.oil_consumption, charge.continuous_makeup, false);
+    fuel = s.fuel, op = op2, oil_temperature = s.oil_temperature, oil_consumption = s.oil_consumption;
+    valid = true;
+    return rates;
+  }
+};
+
 struct Runner {
   const OilCharge& charge;
   const ModelParameters& model;
@@ -27,7 +62,8 @@ struct Runner {
   OilState state;
   double engine_h = 0, oil_h = 0, calendar_h = 0, starts = 0;
   int charge_index = 0;
-  std::optional<Segment> last_segment;  // kept for the steady state
+  RateCache cache{};
+  bool any_segment = false;             // the last segment's rates (in the cache) give the steady state
   double fuel_s = 0, oil_s = 0;         // fuel sulfur and sulfur to the oil of the current charge up to its first limit [mol]
   double since_output = 0;              // hours since the last output point
 
@@ -76,16 +112,33 @@ struct Runner {
     for (Limit l : all_limits) {
       const auto i = static_cast<std::size_t>(l);
       if (c.reached_at[i] >= 0) continue;
+      if (opt.stop_when_interval_and_san_known && c.first && l != Limit::san) continue;  // not asked for
       if (!read_limit(l, model.limits, charge.oil, state, oil_h).reached) continue;
-      // bisection on the exact solution: not reached at lo, reached at hi
+      // Illinois (regula falsi) on the exact solution's margin to the limit: not reached at lo,
+      // reached at hi; a bisection step whenever the secant falls outside the bracket
+      const LimitReading at_start = read_limit(l, model.limits, charge.oil, before, oil_h - dt);
       double lo = 0, hi = dt;
-      if (read_limit(l, model.limits, charge.oil, before, oil_h - dt).reached) hi = 0;
-      for (int it = 0; it < 200 && hi - lo > 1e-13 * (1 + oil_h); ++it) {
-        const double mid = 0.5 * (lo + hi);
+      double m_lo = at_start.margin(), m_hi = read_limit(l, model.limits, charge.oil, state, oil_h).margin();
+      if (at_start.reached) hi = 0;
+      int side = 0;
+      const double width = 1e-13 * (1 + oil_h);  // the time is located to this [h]
+      for (int it = 0; it < 200 && hi - lo > width; ++it) {
+        double t = m_lo > m_hi ? lo + (hi - lo) * m_lo / (m_lo - m_hi) : 0.5 * (lo + hi);
+        if (!(t > lo && t < hi) || it % 8 == 7) t = 0.5 * (lo + hi);  // a bisection now and then bounds the steps
+        if (it == 0 && m_lo == 0) t = lo + width;  // at the limit already (free acid from nil): just after?
         OilState x = before;
         OilLedger scratch;
-        advance(x, k, r, mid, scratch);
-        if (read_limit(l, model.limits, charge.oil, x, oil_h - dt + mid).reached) hi = mid; else lo = mid;
+        advance(x, k, r, t, scratch);
+        const LimitReading at = read_limit(l, model.limits, charge.oil, x, oil_h - dt + t);
+        if (at.reached) {
+          hi = t, m_hi = at.margin();
+          if (side == -1) m_lo /= 2;
+          side = -1;
+        } else {
+          lo = t, m_lo = at.margin();
+          if (side == 1) m_hi /= 2;
+          side = 1;
+        }
       }
       c.reached_at[i] = oil_h - dt + hi;
     }
@@ -133,14 +186,30 @@ struct Runner {
     record_point();
   }
 
+  bool done_with_first_charge() const {
+    const ChargeSummary& c = result.charges.front();
+    if (opt.stop_at_first_limit) return c.first.has_value();
+    if (opt.stop_when_interval_and_san_known)
+      return c.first && (c.reached_at[static_cast<std::size_t>(Limit::san)] >= 0 ||
+                         !model.limits.enabled[static_cast<std::size_t>(Limit::san)]);
+    return false;
+  }
+
+  // The first limit is known and only the first free strong acid is still watched: strong acid is
+  // nil and stays nil while the base keeps above its floor (it forms only at the floor).
+  bool only_san_left() const {
+    return opt.stop_when_interval_and_san_known && charge_index == 0 && result.charges.front().first &&
+           state.strong_acid == 0;
+  }
+
   void run_segment(const Segment& s, bool first) {
     check::non_negative("segment.hours", s.hours);
     check::non_negative("segment.starts", s.starts);
     for (const OilEvent& e : s.events) apply(e);
-    Transfer t;
-    const OilRates r = segment_rates(s, charge, model, &t);
-    if (first) result.first_transfer = t, result.first_rates = r;
-    last_segment = s;
+    const OilRates r = cache.of(s, charge, model);
+    if (first) result.first_transfer = cache.transfer, result.first_rates = r;
+    const Transfer& t = cache.transfer;  // this segment's, for the charge averages
+    any_segment = true;
     const double cal = s.calendar_hours < 0 ? s.hours : s.calendar_hours;
     if (cal < s.hours) throw InputError("segment.calendar-hours", format_value(cal), "at least the running hours " + format_value(s.hours));
     double done = 0;
@@ -151,6 +220,15 @@ struct Runner {
       if (dt <= 0) dt = std::fmin(s.hours - done, opt.output_interval);
       const OilState before = state;
       const double so2_before = result.ledger.sulfurous_taken_up;
+      if (only_san_left()) {  // the rest of the segment in one step, if no free acid can appear in it
+        double rest = s.hours - done;
+        if (opt.output_interval > 0) rest = std::fmin(rest, std::fmax(opt.output_interval - since_output, dt));
+        OilState x = state;
+        OilLedger l = result.ledger;
+        const SegmentOutcome o = advance(x, k, r, rest, l);
+        if (o.floor_reached_at < 0 && x.strong_acid == 0) dt = rest;  // the base stayed above its floor
+        else if (o.floor_reached_at > dt) dt = o.floor_reached_at;    // no free acid before the floor
+      }
       const SegmentOutcome out = advance(state, k, r, dt, result.ledger);
       const double so2_mol = (result.ledger.sulfurous_taken_up - so2_before) / (2 * koh_molar_mass() * 1e3);
       const bool counting = !current().first;
@@ -172,7 +250,7 @@ struct Runner {
         since_output = 0;
         if (done < s.hours || !opt.keep_segment_ends) record_point();
       }
-      if (opt.stop_at_first_limit && result.charges.front().first) return;
+      if (done_with_first_charge()) return;
     }
     if (opt.keep_segment_ends) record_point();
   }
@@ -186,19 +264,19 @@ RunResult simulate(const OilCharge& charge, const ModelParameters& model, const 
   check::positive("oil.mass", charge.mass);
   check::in_range("oil.residual-share", charge.residual_share, 0.0, 0.9, "(share)");
   validate(model.limits);
+  validate(model.transfer);  // constant over the run: validated once here, not per segment
+  validate(model.oxidation);
   Runner run{charge, model, options, balance_constants(charge.oil), {}, start ? *start : fresh_oil(charge.oil, charge.mass)};
   run.result.initial = run.state;
   run.open_charge(start_oil_hours);
   run.record_point();
-  std::optional<Segment> last;
   bool first = true;
   while (const Segment* s = next()) {
     run.run_segment(*s, first);
     first = false;
-    if (!options.keep_segment_ends) last = *s;
-    if (options.stop_at_first_limit && run.result.charges.front().first) break;
+    if (run.done_with_first_charge()) break;
   }
-  if (!options.keep_segment_ends && last && (run.result.trajectory.empty() ||
+  if (!options.keep_segment_ends && run.any_segment && (run.result.trajectory.empty() ||
                                              run.result.trajectory.back().engine_hours != run.engine_h))
     run.record_point();  // the end of the record is always kept
   run.close_charge();
@@ -207,11 +285,9 @@ RunResult simulate(const OilCharge& charge, const ModelParameters& model, const 
   r.engine_hours = run.engine_h;
   r.calendar_hours = run.calendar_h;
   r.starts = run.starts;
-  const Segment* tail = run.last_segment ? &*run.last_segment : nullptr;
-  if (tail && !r.charges.back().oil_limit_reached() && charge.continuous_makeup && tail->oil_consumption > 0) {
-    const OilRates rates = segment_rates(*tail, charge, model);
-    r.steady_state = steady_state(run.state, run.k, rates);
-  }
+  if (run.any_segment && !r.charges.back().oil_limit_reached() && charge.continuous_makeup &&
+      run.cache.oil_consumption > 0)
+    r.steady_state = steady_state(run.state, run.k, run.cache.rates);  // under the last segment's rates
   return r;
 }
 

@@ -11,7 +11,8 @@ double oil_consumption(double specific_consumption, double electrical_power);
 
 //! The segment rates: acid inflow from the transfer, oxidation at the ring zone (sump oil
 //! temperature [K] + the law's offset), nitration from the NO2 taken up, consumption [kg/h].
+//! `check_law` false skips validate(law), for a caller that has validated it once for a whole record.
 OilRates oil_rates(const Transfer& t, const OxidationLaw& law, double sump_oil_temperature, double consumption,
-                   bool continuous_makeup);
+                   bool continuous_makeup, bool check_law = true);
 
 }  // namespace acidload

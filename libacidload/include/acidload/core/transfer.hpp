@@ -123,7 +123,8 @@ double warmup_liner_extra(double cylinder_dew_point, double jacket_start, double
                           double rise, double exponent, double load, double start_load_share, double ramp_hours,
                           double scale);
 
-//! The transfer of one operating state.
-Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParameters& p);
+//! The transfer of one operating state. `check_parameters` false skips validate(p), for a caller
+//! that has validated the parameters once for a whole record (the operation is always validated).
+Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParameters& p, bool check_parameters = true);
 
 }  // namespace acidload

@@ -8,6 +8,7 @@
 #include <vector>
 
 #include "acidload/studies/calibration.hpp"
+#include "acidload/studies/monte_carlo.hpp"
 #include "acidload/studies/whatif.hpp"
 
 namespace acidload::io {

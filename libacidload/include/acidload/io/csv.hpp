@@ -13,6 +13,8 @@ namespace acidload::io {
 struct CsvTable {
   std::string file;                              //!< as given
   std::vector<std::string> header;               //!< column names, trimmed
+  int header_line = 0;                           //!< 1-based file line of the header
+  std::vector<int> header_columns;               //!< 1-based character column of each header cell
   std::vector<std::vector<std::string>> rows;    //!< cells, trimmed; every row has header.size() cells
   std::vector<int> lines;                        //!< 1-based file line of each row
   std::vector<std::vector<int>> columns;         //!< 1-based character column where each cell starts
@@ -29,7 +31,7 @@ struct NamedColumns {
   std::vector<std::string> units;  //!< the units, "" where the header gives none
 };
 //! Splits every header; a name not in `allowed` throws at the header line, listing the names and
-//! the closest one. `what` names the table in the message ("record column", "lab column").
+//! the closest one; so does a name given twice, in other units ("h2s [ppmv]" and "h2s [mg/Nm3]"). `what` names the table in the message ("record column", "lab column").
 NamedColumns named_columns(const CsvTable& t, const std::vector<std::string>& allowed, const std::string& what);
 //! A cell as a scalar node (position, key path `path_prefix[row].name`); a bare number gets `unit`.
 Node cell_node(const CsvTable& t, std::size_t row, std::size_t col, const std::string& name, const std::string& unit,

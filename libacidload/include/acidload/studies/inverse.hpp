@@ -3,6 +3,8 @@
 // bracketing root-finding on the exact forward model. "No answer in the range" is an answer.
 #include <optional>
 #include <string>
+#include <string_view>
+#include <vector>
 
 #include "acidload/studies/whatif.hpp"
 
@@ -16,6 +18,16 @@ enum class Lever {
   oil_volume,         //!< oil in circulation at 15 °C [m³]
 };
 std::string_view name(Lever l);  //!< "h2s", "fresh-tbn", "jacket-water-out", "oil-volume"
+//! The lever name() calls `word`; nullopt for any other word.
+std::optional<Lever> lever_named(std::string_view word);
+
+//! Where an inverse question searches when no range is given, and to what tolerance, in the lever's
+//! unit: the one set of defaults of the program's `solve` and the Python package.
+struct LeverSearch {
+  double low = 0, high = 0;  //!< the range searched
+  double tolerance = 0;      //!< of the answer
+};
+LeverSearch default_search(const EngineCase& c, Lever l);
 
 //! The case with one lever set to `value` (in the lever's unit).
 EngineCase with_lever(const EngineCase& c, Lever l, double value);
@@ -24,6 +36,11 @@ double lever_value(const EngineCase& c, Lever l);
 
 //! The drain interval of a case [h]; the hours cap when no limit other than the cap is reached.
 double drain_interval(const EngineCase& c);
+
+//! drain_interval() of the case with the lever at each of `n` values [h], on `threads` threads
+//! (0 = every core). Each value is its own run, so the answers are identical whatever the thread
+//! count. A refused value throws the InputError of the lowest refused element, naming its index.
+std::vector<double> sweep_drain_interval(const EngineCase& c, Lever l, const double* values, std::size_t n, int threads = 0);
 
 struct InverseAnswer {
   bool found = false;         //!< a value in [low, high] meets the target

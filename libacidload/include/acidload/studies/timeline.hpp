@@ -83,6 +83,10 @@ struct RunOptions {
   double output_interval = 0;   //!< trajectory points at least this often [h]; 0 = segment ends only
   double detection_step = 25;   //!< limits are checked at least this often inside long segments [h]
   bool stop_at_first_limit = false;  //!< end the run when the first charge reaches its first limit
+  bool stop_when_interval_and_san_known = false;  //!< end the run when the first charge has reached its
+                                     //!< first limit and free strong acid (SAN) too (or the SAN limit is off);
+                                     //!< after its first limit, only SAN is watched (other limits' times
+                                     //!< are then not located; for Monte Carlo, which reports these two)
   bool keep_segment_ends = true;     //!< a trajectory point at every segment end (off: only every
                                      //!< output_interval, at events and at the end — for long records)
 };

@@ -1,0 +1,96 @@
+#pragma once
+// The acidload program's shell: exit codes, the command table and a small option parser each command
+// uses for its own options struct. No physics here; commands call the library and print.
+#include <cstdint>
+#include <cstdio>
+#include <stdexcept>
+#include <string>
+#include <vector>
+
+#include "acidload/io/case_file.hpp"
+#include "acidload/io/quantity.hpp"
+
+namespace acidload_cli {
+
+// ---- exit codes: one rule for every command (shown in --help and README.md) -------------------
+constexpr int exit_ok = 0;
+constexpr int exit_usage = 2;      //!< the command line cannot be parsed
+constexpr int exit_bad_input = 3;  //!< a file or a well-formed value that is not acceptable
+constexpr int exit_internal = 4;   //!< a bug in acidload
+extern const char* const exit_code_help;
+
+//! The command line cannot be parsed (exit code 2).
+struct UsageError : std::runtime_error {
+  using std::runtime_error::runtime_error;
+};
+//! --help was given after a command.
+struct HelpRequested {};
+
+//! One command of the program. To add one: a file in commands/ defining `const Command NAME_command`
+//! and one line in commands/list.hpp.
+struct Command {
+  const char* name;      //!< as typed: "run"
+  const char* synopsis;  //!< for the main help: "run CASE"
+  const char* summary;   //!< one line for the main help
+  const char* help;      //!< the command's --help text (starts with "usage: acidload NAME")
+  //! Runs the command on the arguments after its name, printing its result to `out` (which the
+  //! program copies to standard output only when the command succeeds).
+  int (*run)(const std::vector<std::string>& args, std::FILE* out);
+};
+const std::vector<const Command*>& commands();
+
+//! The options of one command, bound to the fields of that command's options struct. Anything the
+//! command does not declare is refused (UsageError naming it). Values may start with '-' (for
+//! '-5 degC'); `--opt=value` works; `--` ends the options.
+class Options {
+ public:
+  explicit Options(const char* command) : command_(command) {}
+  //! A positional argument (required unless `optional`).
+  Options& positional(const char* name, std::string& into, bool optional = false);
+  //! `--name VALUE`, at most once.
+  Options& value(const char* option, std::string& into, const char* meta);
+  //! `--name VALUE`, any number of times.
+  Options& values(const char* option, std::vector<std::string>& into, const char* meta);
+  //! `--name A B`, at most once.
+  Options& pair(const char* option, std::string& a, std::string& b, const char* meta);
+  //! `--name` without a value.
+  Options& flag(const char* option, bool& into);
+  //! Parses; throws HelpRequested on --help/-h, UsageError on anything the command does not take.
+  void parse(const std::vector<std::string>& args);
+
+ private:
+  struct Spec {
+    std::string name, meta;
+    int arity;  // 0 flag, 1 value, 2 pair
+    bool repeat;
+    std::string* one = nullptr;
+    std::string* two = nullptr;
+    std::vector<std::string>* many = nullptr;
+    bool* set = nullptr;
+    bool seen = false;
+  };
+  struct Positional {
+    std::string name;
+    std::string* into;
+    bool optional;
+  };
+  std::string taken() const;
+  std::string command_;
+  std::vector<Spec> specs_;
+  std::vector<Positional> positionals_;
+};
+
+// ---- values from the command line ----------------------------------------------------------
+//! A quantity option ("4000 h"): a value that does not parse is a UsageError (2); one that parses
+//! but lies outside what the kind allows (e.g. '-300 degC') is an InputError (3).
+double quantity_option(const std::string& text, acidload::io::Kind k, const char* option);
+//! A whole-number option: digits (or an exponent form of a whole number); a fraction or other text
+//! is a UsageError (2); a whole number outside [lo, hi] is an InputError (3).
+std::uint64_t count_option(const std::string& text, const char* option, double lo, double hi);
+//! The variant named (the first when `name` is empty); an InputError (3) listing the case's
+//! variants when there is none of that name.
+const acidload::EngineCase& pick_variant(const acidload::io::CaseFile& c, const std::string& name);
+//! A comma-separated list ("a,b,c"), empty items dropped.
+std::vector<std::string> split_list(const std::string& text);
+
+}  // namespace acidload_cli

@@ -1,0 +1,36 @@
+#include "run_case.hpp"
+
+#include <chrono>
+#include <unistd.h>
+
+#include "../cli.hpp"
+#include "../report.hpp"
+#include "acidload/io/results.hpp"
+#include "acidload/studies/whatif.hpp"
+
+namespace acidload_cli {
+
+int run_case(std::FILE* out, const acidload::io::CaseFile& c, const std::string& out_folder) {
+  using clock = std::chrono::steady_clock;
+  const auto start = clock::now();
+  const bool terminal = isatty(STDERR_FILENO);
+  bool shown = false;
+  std::vector<acidload::VariantSummary> rows;
+  for (std::size_t i = 0; i < c.variants.size(); ++i) {
+    if (terminal && std::chrono::duration<double>(clock::now() - start).count() > 1.0) {
+      std::fprintf(stderr, "\racidload: running variant %zu of %zu …", i + 1, c.variants.size());
+      shown = true;
+    }
+    rows.push_back(acidload::summarize(c.variants[i]));
+  }
+  if (shown) std::fprintf(stderr, "\r%60s\r", "");
+  if (!out_folder.empty()) acidload::io::write_results(out_folder, c, rows);
+  print_comparison(out, c, rows);
+  if (!out_folder.empty())
+    std::fprintf(out, "\nResults written to %s/summary.json and %s/trajectories.csv\n", out_folder.c_str(),
+                 out_folder.c_str());
+  print_caution(out);
+  return exit_ok;
+}
+
+}  // namespace acidload_cli

@@ -1,0 +1,122 @@
+// acidload solve CASE --for LEVER --target HOURS: the lever value that gives a target drain interval.
+#include "../cli.hpp"
+#include "../report.hpp"
+#include "acidload/acidload.hpp"
+#include "acidload/io/document.hpp"
+#include "acidload/studies/inverse.hpp"
+
+namespace acidload_cli {
+namespace {
+
+struct SolveOptions {
+  std::string case_file, lever, target, low, high, variant;
+  std::vector<std::string> overlays;
+};
+
+SolveOptions parse(const std::vector<std::string>& args) {
+  SolveOptions o;
+  Options("solve")
+      .positional("CASE", o.case_file)
+      .value("--for", o.lever, "LEVER")
+      .value("--target", o.target, "HOURS")
+      .pair("--range", o.low, o.high, "LOW HIGH")
+      .value("--variant", o.variant, "NAME")
+      .values("--overlay", o.overlays, "FILE")
+      .parse(args);
+  if (o.lever.empty()) throw UsageError("solve needs --for h2s|fresh-tbn|jacket-water-out|oil-volume");
+  if (o.target.empty()) throw UsageError("solve needs --target, e.g. --target '4000 h'");
+  return o;
+}
+
+// An H2S figure for --range in any contaminant unit and basis ('0 ppmv', '50 ppmv wet', '700 mg/Nm3'),
+// as ppmv dry in the gas of the case's first segment (the lever's unit).
+double h2s_ppmv_dry(const std::string& text, const acidload::EngineCase& c) {
+  using namespace acidload;
+  io::Document doc;
+  doc.file = "(command line)";
+  doc.lines = {text};
+  io::Node n;
+  n.type = io::Node::Type::scalar;
+  n.scalar = text;
+  n.mark = {1, 1};
+  n.path = "--range";
+  Concentration given;
+  try {
+    given = io::concentration(doc, n, Basis::dry);
+  } catch (const InputError& e) {
+    throw UsageError("--range '" + text + "' for h2s: " + e.expected());
+  }
+  const Segment& s = c.record.front();
+  const GasContext ctx = context(s.fuel, s.operation.fuel_flow);
+  const double m = molar_mass(Gas::H2S);
+  return from_wet_mole_fraction(to_wet_mole_fraction(given, m, ctx), ConcentrationUnit::ppmv, Basis::dry, m, ctx);
+}
+
+int run(const std::vector<std::string>& args, std::FILE* out) {
+  using namespace acidload;
+  const SolveOptions o = parse(args);
+  const std::optional<Lever> lever = lever_named(o.lever);
+  if (!lever) throw UsageError("--for '" + o.lever + "': one of h2s, fresh-tbn, jacket-water-out, oil-volume");
+  const double target = quantity_option(o.target, io::Kind::duration, "--target");
+  if (!(target > 0)) throw InputError("--target", o.target, "a drain interval above 0 h");
+  const io::CaseFile file = io::load_case(o.case_file, o.overlays);
+  const EngineCase& c = pick_variant(file, o.variant);
+  // How the lever is read and shown: its kind on the command line and its unit in the answer.
+  io::Kind kind = io::Kind::number;
+  double shown_offset = 0, shown_scale = 1;
+  const char* unit = "";
+  switch (*lever) {
+    case Lever::h2s_ppmv_dry: unit = "ppmv dry"; break;
+    case Lever::fresh_tbn: kind = io::Kind::acid_number, unit = "mg KOH/g"; break;
+    case Lever::jacket_water_out: kind = io::Kind::temperature, unit = "degC", shown_offset = -273.15; break;
+    case Lever::oil_volume: kind = io::Kind::volume, unit = "L", shown_scale = 1e3; break;
+  }
+  LeverSearch search = default_search(c, *lever);
+  if (!o.low.empty()) {
+    if (*lever == Lever::h2s_ppmv_dry) {
+      search.low = h2s_ppmv_dry(o.low, c);
+      search.high = h2s_ppmv_dry(o.high, c);
+    } else {
+      search.low = quantity_option(o.low, kind, "--range");
+      search.high = quantity_option(o.high, kind, "--range");
+    }
+  }
+  const InverseAnswer r = solve_for_interval(c, *lever, target, search.low, search.high, search.tolerance);
+  const auto show = [&](double v) { return (v + shown_offset) * shown_scale; };
+  std::fprintf(out, "%s — variant '%s': %s for a drain interval of %.0f h\n", file.title.c_str(), c.name.c_str(),
+               o.lever.c_str(), target);
+  std::fprintf(out, "range searched: %.4g to %.4g %s (interval %.0f h and %.0f h at its ends)\n", show(search.low),
+               show(search.high), unit, r.interval_at_low, r.interval_at_high);
+  if (r.found)
+    std::fprintf(out, "answer: %.4f %s — the model run at the answer gives %.1f h (%d runs)\n", show(r.value), unit,
+                 r.interval_at_value, r.evaluations);
+  else if (target >= c.model.limits.max_hours)
+    std::fprintf(out, "no answer: %s\n", r.reason.c_str());
+  else
+    std::fprintf(out,
+                 "no answer in the range: the interval is %.0f h at %.4g %s and %.0f h at %.4g %s, both %s the target\n",
+                 r.interval_at_low, show(search.low), unit, r.interval_at_high, show(search.high), unit,
+                 r.interval_at_low > target ? "above" : "below");
+  print_caution(out);
+  return exit_ok;
+}
+
+}  // namespace
+
+extern const Command solve_command{
+    "solve", "solve CASE", "an inverse question: the H2S, fresh TBN, jacket water or oil volume for a target interval",
+    "usage: acidload solve CASE --for LEVER --target HOURS [--range LOW HIGH] [--variant NAME] [--overlay FILE]...\n\n"
+    "Finds the value of one lever at which the drain interval equals the target, by bracketing\n"
+    "root-finding on the forward model, and checks it by running the model at the answer.\n"
+    "LEVER and its unit:\n"
+    "  h2s                highest H2S [ppmv, dry] that still reaches the target (default range 0 to 3000 ppmv)\n"
+    "  fresh-tbn          fresh-oil TBN needed [mg KOH/g] (default range: just above the floor to 30 mg KOH/g)\n"
+    "  jacket-water-out   lowest jacket-water outlet temperature [degC] (default range 60 to 120 degC)\n"
+    "  oil-volume         oil in circulation needed [L] (default range: a tenth to ten times the case's)\n"
+    "HOURS as '4000 h'. LOW and HIGH with units, e.g. --range '0 ppmv' '800 ppmv'; for h2s any\n"
+    "contaminant unit and basis ('50 ppmv wet', '700 mg/Nm3'), converted to ppmv dry in the gas of\n"
+    "the variant's first segment.\n"
+    "'No answer in the range' is a plain answer: the model is not extrapolated.\n",
+    run};
+
+}  // namespace acidload_cli

@@ -1,0 +1,45 @@
+#pragma once
+// Monte Carlo over uncertain inputs, with the project's counter-based random stream and percentiles.
+#include <cstdint>
+#include <string>
+#include <vector>
+
+#include "acidload/studies/whatif.hpp"
+
+namespace acidload {
+
+//! An uncertain input for Monte Carlo.
+struct Distribution {
+  enum class Kind { normal, lognormal, uniform, triangular };
+  Kind kind = Kind::normal;
+  double a = 0, b = 0, c = 0;  //!< normal: mean, sd; lognormal: median, σ of ln; uniform: low, high; triangular: low, mode, high
+};
+struct UncertainInput {
+  std::string key;  //!< from parameter_table()
+  Distribution distribution;
+};
+
+//! The project's counter-based random stream: a uniform in (0, 1) for (seed, draw, dimension),
+//! the same whatever the order or thread it is asked in (SplitMix64 finaliser of the counter).
+double uniform01(std::uint64_t seed, std::uint64_t draw, std::uint64_t dimension);
+//! A draw of the distribution from two uniforms of the stream (Box–Muller for the normal ones,
+//! inverse CDF for the others).
+double sample(const Distribution& d, double u1, double u2);
+//! Percentile p ∈ [0, 100] of values, linear interpolation between order statistics
+//! (the definition numpy's percentile uses by default).
+double percentile(std::vector<double> values, double p);
+
+struct MonteCarloResult {
+  int draws = 0;
+  std::vector<double> drain_interval;  //!< per draw [h]; the hours cap where no limit is reached
+  std::vector<double> first_san;       //!< per draw, oil hours of the first free strong acid [h]; +∞ if none
+  double interval_p10 = 0, interval_p50 = 0, interval_p90 = 0;  //!< [h]
+  double san_p10 = 0, san_p50 = 0, san_p90 = 0;                 //!< [h], +∞ where more than that share has none
+};
+//! Monte Carlo over the inputs: each draw's values from the counter-based stream, so the result is
+//! identical for any number of threads (0 = every core). The drain interval is that of the first
+//! charge of the record, continued under its last conditions up to the hours cap.
+MonteCarloResult monte_carlo(const EngineCase& c, const std::vector<UncertainInput>& inputs, int draws,
+                             std::uint64_t seed, int threads = 0);
+
+}  // namespace acidload
