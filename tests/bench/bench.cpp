@@ -27,7 +27,7 @@ using clock_type = std::chrono::steady_clock;
 
 namespace {
 
-// The engine of the benchmarks: the model description's sanity case (invented operating data).
+// The engine of the benchmarks: the sanity case of docs/model.md §5.5 (invented operating data).
 FuelGas gas(double h2s_ppmv) {
   FuelAnalysis a;
   a.main[static_cast<std::size_t>(Gas::CH4)] = 0.5;

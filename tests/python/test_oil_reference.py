@@ -1,6 +1,6 @@
 """acidload's exact oil balance against an independent SciPy integration of the same model.
 
-Reference: tests/reference/python/oil_reference.py — the balance of MODEL.md §8 written as ODEs in the
+Reference: tests/reference/python/oil_reference.py — the balance of docs/model.md §8 written as ODEs in the
 concentrations and integrated by scipy.integrate.solve_ivp (DOP853, rtol 1e-12) with events for the
 floor crossing (b = b_min) and the clearing of free acid (s = 0); it does not call acidload.
 Tolerance 1e-7 relative (the integrator is good to about 1e-10; 1e-7 is the bar the C++ Odeint

@@ -42,7 +42,7 @@ def test_water_saturation_outside_region_4_is_an_input_error():
 
 # ---- periodictable: formula masses -----------------------------------------------------------------
 
-# Widths of the IUPAC 2011 standard-atomic-weight intervals (Pure Appl. Chem. 83(2), 2011; REFERENCES.md)
+# Widths of the IUPAC 2011 standard-atomic-weight intervals (Pure Appl. Chem. 83(2), 2011; docs/references.md [IUPAC2011])
 # [g/mol]; F and K have single values (PAC 88(3), 2016; uncertainty 6e-9 and 1e-4).
 IUPAC_INTERVAL_WIDTH = {"H": 1.00811 - 1.00784, "C": 12.0116 - 12.0096, "N": 14.00728 - 14.00643,
                         "O": 15.99977 - 15.99903, "S": 32.076 - 32.059, "Cl": 35.457 - 35.446,
@@ -170,7 +170,7 @@ def test_h2s_ppm_to_mg_per_m3_at_25_degc_against_pint_and_niosh():
     want = (Q(1, "ppm") * Q(1, "atm") / (Q(1, "molar_gas_constant") * Q(25, "degC").to("K"))
             * Q(M, "kg/mol")).to("mg/m**3").magnitude  # pint
     assert got == pytest.approx(want, rel=REL_R)
-    assert got == pytest.approx(1.39, abs=0.005)  # NIOSH: 1 ppm ≈ 1.39 mg/m3 at 25 °C (REFERENCES.md, derived)
+    assert got == pytest.approx(1.39, abs=0.005)  # NIOSH: 1 ppm ≈ 1.39 mg/m3 at 25 °C (docs/references.md [NIOSH-H2S], derived)
 
 
 # ---- Cantera: SO2 + 1/2 O2 = SO3 ---------------------------------------------------------------------
@@ -199,7 +199,7 @@ def test_so3_kp_against_cantera_nasa_polynomials():
         # Cantera's SO3 polynomial is from the 1965 JANAF edition ("J 9/65"), acidload's data from the
         # 1998 edition (Chase): ΔG° differs by up to ~60 J/mol, 0.6–0.8 % in Kp. Tolerance 1.5 %.
         assert kp == pytest.approx(kp_ref, rel=0.015), f"Kp({T} K): acidload {kp}, Cantera nasa_gas.yaml {kp_ref}"
-    # Kp ≈ 1.8 bar^-1/2 at 1000 K (REFERENCES.md, derived from JANAF data)
+    # Kp ≈ 1.8 bar^-1/2 at 1000 K (docs/references.md [JANAF1998], derived from JANAF data)
     assert acidload.so3.kp(1000.0) == pytest.approx(1.8, rel=0.02)
 
 

@@ -12,7 +12,7 @@
 using namespace acidload;
 
 TEST_CASE("ISO 6976 net calorific value of methane and H2S") {
-  // net = gross − n_H2O·L, ISO 6976:2016 values [derived in REFERENCES.md from seen values]
+  // net = gross − n_H2O·L, ISO 6976:2016 values, docs/references.md [ISO6976] [derived from seen values]
   REFERENCE_CHECK("CH4 net CV 15 degC", net_molar_heating_value(Gas::CH4, CombustionReference::t15) * 1e-3, 802.65, absolute, 0.006, "kJ/mol", "ISO 6976:2016 [derived]");
   REFERENCE_CHECK("CH4 net CV 25 degC", net_molar_heating_value(Gas::CH4, CombustionReference::t25) * 1e-3, 802.55, absolute, 0.006, "kJ/mol", "ISO 6976:2016 [derived]");
   REFERENCE_CHECK("H2S net CV 15 degC", net_molar_heating_value(Gas::H2S, CombustionReference::t15) * 1e-3, 517.95, absolute, 0.006, "kJ/mol", "ISO 6976:2016 [derived]");
@@ -33,21 +33,21 @@ TEST_CASE("methane: stoichiometric dry air") {
   FuelGas ch4;
   ch4.x[static_cast<std::size_t>(Gas::CH4)] = 1;
   const Combustion c = burn(ch4, {1.0, 0.0}, 0.0);
-  REFERENCE_CHECK("CH4 stoichiometric air, molar", c.air, 9.548, absolute, 5e-4, "mol/mol", "2/0.20946 [derived, REFERENCES.md]");
+  REFERENCE_CHECK("CH4 stoichiometric air, molar", c.air, 9.548, absolute, 5e-4, "mol/mol", "2/0.20946, docs/references.md [USSA1976] [derived]");
   double m_air = 0;
   for (Gas g : all_gases) m_air += c.air_moles[static_cast<std::size_t>(g)] * molar_mass(g);
-  REFERENCE_CHECK("CH4 stoichiometric air, mass", m_air / molar_mass(Gas::CH4), 17.24, absolute, 0.005, "kg/kg", "[derived, REFERENCES.md]");
+  REFERENCE_CHECK("CH4 stoichiometric air, mass", m_air / molar_mass(Gas::CH4), 17.24, absolute, 0.005, "kg/kg", "docs/references.md [USSA1976] [derived]");
   REFERENCE_CHECK("CH4 stoichiometric air, textbook", m_air / molar_mass(Gas::CH4), 17.2, absolute, 0.06, "kg/kg", "textbook value, from memory");
   CHECK(c.products[static_cast<std::size_t>(Gas::O2)] == doctest::Approx(0).scale(1));
 }
 
-TEST_CASE("sanity case: fuel flow and sulfur as in the model description") {
+TEST_CASE("sanity case: fuel flow and sulfur as in docs/model.md §5.5") {
   const FuelGas gas = acidload_test::sanity_gas();
   const Operation op = acidload_test::sanity_operation(gas);
   const double nm3 = op.fuel_flow * molar_volume(ReferenceState::normal());
-  // MODEL §8: ≈ 503 Nm³/h and ≈ 6.7 mol/h of sulfur (hand calculation with CH4 LHV ≈ 802.6 kJ/mol)
+  // docs/model.md §5.5: ≈ 503 Nm³/h and ≈ 6.7 mol/h of sulfur (hand calculation with CH4 LHV ≈ 802.6 kJ/mol)
   REFERENCE_CHECK("sanity fuel flow", nm3, 503, absolute, 1.5, "Nm3/h", "1 MW/(0.4 · 0.5 · 802.65 kJ/mol) · V_m [derived]");
-  REFERENCE_CHECK("sanity sulfur flow", gas.sulfur() * op.fuel_flow, 6.7, absolute, 0.05, "mol/h", "MODEL §8 [derived]");
+  REFERENCE_CHECK("sanity sulfur flow", gas.sulfur() * op.fuel_flow, 6.7, absolute, 0.05, "mol/h", "docs/model.md §5.5 [derived]");
 }
 
 TEST_CASE("sanity case: defaults put 0.1-0.5 % of fuel sulfur into the oil") {
@@ -55,10 +55,10 @@ TEST_CASE("sanity case: defaults put 0.1-0.5 % of fuel sulfur into the oil") {
   const Transfer t = transfer(gas, acidload_test::sanity_operation(gas), {});
   const double share = t.sulfur_share_to_oil(1.0);
   INFO("share of fuel S into the oil: " << share);
-  // 0.1–0.5 % of fuel sulfur: half TBN in 500–2000 h (from memory, MODEL §8)
+  // 0.1–0.5 % of fuel sulfur: half TBN in 500–2000 h (from memory, docs/model.md §5.5)
   CHECK(share >= 0.001);
   CHECK(share <= 0.005);
-  // the SO3 of 1 % blow-by at ε = 2 % is only ≈ 0.02 % of fuel S (MODEL §5, arithmetic)
+  // the SO3 of 1 % blow-by at ε = 2 % is only ≈ 0.014 % of fuel S (docs/model.md §5.5, arithmetic)
   REFERENCE_CHECK("blow-by SO3 share of fuel S", t.inflow.sulfuric_blowby / t.sulfur_flow, 0.01 * 0.02 * 0.7, relative, 0.02, "-", "1 % blow-by × 70 % burnt × ε 2 % [derived]");
 }
 

@@ -36,28 +36,28 @@ TEST_CASE("sulfuric-acid dew points: hand calculations from the published equati
   // ZareNezhad at the same point: 150 - 53.71471 + 37.45293 + 8.12730 = 141.86552 °C.
   REFERENCE_CHECK("H2SO4 dew point, ZareNezhad, 100/0.01 mmHg",
                   dew_point::sulfuric_zarenezhad(100 * mmhg, 0.01 * mmhg), 141.8655 + c0, absolute, 0.002,
-                  "K", "hand calculation from ZareNezhad 2009's equation as in REFERENCES.md [derived]");
+                  "K", "hand calculation from ZareNezhad 2009's equation, docs/references.md [ZareNezhad2009] [derived]");
   // Okkes at 0.1 atm H2O, 1e-6 atm SO3: 203.25 - 27.6 - 64.98 + 1.06 * 2^2.19 (= 4.837176)
   // = 115.50718 °C.
   REFERENCE_CHECK("H2SO4 dew point, Okkes, 0.1/1e-6 atm", dew_point::sulfuric_okkes(0.1 * atm, 1e-6 * atm),
                   115.5072 + c0, absolute, 0.002, "K",
-                  "hand calculation from Okkes 1987's equation as in REFERENCES.md [derived]");
+                  "hand calculation from Okkes 1987's equation, docs/references.md [Okkes1987] [derived]");
 }
 
 TEST_CASE("sulfuric-acid dew points at 10 vol % H2O, 10 ppmv SO3, 1 atm") {
-  // REFERENCES.md gives these to 0.1 K [derived]; recomputed here by an independent script:
+  // docs/references.md [DewPointComparison] gives these to 0.1 K [derived]; recomputed here by an independent script:
   // VB 137.326, ZareNezhad 136.404, Okkes 133.254 °C. Tolerance 0.05 K: the rounding of one decimal.
   const double pw = 0.10 * atm, ps = 10e-6 * atm;
   REFERENCE_CHECK("H2SO4 dew point VB 10 %/10 ppmv", dew_point::sulfuric_verhoff_banchero(pw, ps) - c0,
-                  137.3, absolute, 0.05, "degC", "REFERENCES.md, from Verhoff & Banchero 1974 [derived]");
+                  137.3, absolute, 0.05, "degC", "docs/references.md [DewPointComparison], from Verhoff & Banchero 1974 [derived]");
   REFERENCE_CHECK("H2SO4 dew point ZareNezhad 10 %/10 ppmv", dew_point::sulfuric_zarenezhad(pw, ps) - c0,
-                  136.4, absolute, 0.05, "degC", "REFERENCES.md, from ZareNezhad 2009 [derived]");
+                  136.4, absolute, 0.05, "degC", "docs/references.md [DewPointComparison], from ZareNezhad 2009 [derived]");
   REFERENCE_CHECK("H2SO4 dew point Okkes 10 %/10 ppmv", dew_point::sulfuric_okkes(pw, ps) - c0, 133.3,
-                  absolute, 0.05, "degC", "REFERENCES.md, from Okkes 1987 [derived]");
+                  absolute, 0.05, "degC", "docs/references.md [DewPointComparison], from Okkes 1987 [derived]");
 }
 
 TEST_CASE("sulfuric-acid correlations agree over 5-15 % H2O and 1-50 ppmv SO3 at 1 atm") {
-  // REFERENCES.md [derived]: VB and ZareNezhad within 3 K, VB and Okkes within 9 K.
+  // docs/references.md [DewPointComparison] [derived]: VB and ZareNezhad within 3 K, VB and Okkes within 9 K.
   double worst_zn = 0, worst_ok = 0;
   for (double h = 0.05; h <= 0.15 + 1e-9; h += 0.005)
     for (double s = 1; s <= 50 + 1e-9; s += 1) {
@@ -67,9 +67,9 @@ TEST_CASE("sulfuric-acid correlations agree over 5-15 % H2O and 1-50 ppmv SO3 at
       worst_ok = std::max(worst_ok, std::fabs(vb - dew_point::sulfuric_okkes(pw, ps)));
     }
   REFERENCE_CHECK("max |VB - ZareNezhad| over the grid", worst_zn, 0.0, absolute, 3.0, "K",
-                  "REFERENCES.md [derived]");
+                  "docs/references.md [DewPointComparison] [derived]");
   REFERENCE_CHECK("max |VB - Okkes| over the grid", worst_ok, 0.0, absolute, 9.0, "K",
-                  "REFERENCES.md [derived]");
+                  "docs/references.md [DewPointComparison] [derived]");
 }
 
 TEST_CASE("Kiang: HCl dew point") {
@@ -104,10 +104,10 @@ TEST_CASE("SO3 thermochemistry reproduces the JANAF values") {
 }
 
 TEST_CASE("SO2 + 1/2 O2 = SO3: Kp and directions") {
-  // Kp(1000 K) ≈ 1.8 bar^-1/2 (REFERENCES.md [derived from JANAF]); the data give 1.806.
+  // Kp(1000 K) ≈ 1.8 bar^-1/2 (docs/references.md [JANAF1998], derived from JANAF); the data give 1.806.
   // Tolerance 0.05: half the last digit given.
   REFERENCE_CHECK("Kp SO2 oxidation 1000 K", so3::kp(1000.0), 1.8, absolute, 0.05, "bar^-0.5",
-                  "REFERENCES.md [derived from JANAF]");
+                  "docs/references.md [JANAF1998] [derived]");
   // The reaction is exothermic, so Kp falls with temperature (Le Chatelier).
   for (double T = 400; T < 3000; T += 100) {
     INFO("T = " << T);

@@ -1,5 +1,5 @@
 // The oxidation law: the doubling rule (common practice, no source) and the Arrhenius law with the
-// activation energy that rule implies (REFERENCES.md: ≈ 74 kJ/mol at 80 °C, 82 at 100 °C, 91 at
+// activation energy that rule implies (docs/references.md [OxidationDoubling]: ≈ 74 kJ/mol at 80 °C, 82 at 100 °C, 91 at
 // 120 °C [derived]) — a check of the Arrhenius implementation against those derived figures.
 #include "../support/reference_check.hpp"
 
@@ -18,7 +18,7 @@ TEST_CASE("Arrhenius activation energy that doubles the rate per 10 K") {
     const double T = 273.15 + celsius[i];
     const double ea = constants::molar_gas_constant * std::log(2.0) / (1 / T - 1 / (T + 10));
     REFERENCE_CHECK("E_a doubling per 10 K", ea, expected[i], relative, 0.01, "J/mol",
-                    "REFERENCES.md [derived], rounded to 1 kJ/mol");
+                    "docs/references.md [OxidationDoubling] [derived], rounded to 1 kJ/mol");
     OxidationLaw law;
     law.kind = OxidationLaw::Kind::arrhenius;
     law.activation_energy = ea;

@@ -1,5 +1,5 @@
 #pragma once
-// The sanity case of the model description (§8): a 1 MW electrical engine at 40 % efficiency on a
+// The sanity case of docs/model.md §5.5: a 1 MW electrical engine at 40 % efficiency on a
 // 50 % methane / 50 % CO2 gas with 300 ppmv H2S, λ 1.8, 600 L of TBN-6 oil, makeup 0.2 g/kWh.
 // Invented operating data for tests; nothing here is a measurement.
 #include "acidload/core/fuel.hpp"

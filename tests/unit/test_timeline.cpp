@@ -26,7 +26,7 @@ TEST_CASE("sanity case: a drain interval ended by the TBN limit within 500-2000 
   MESSAGE("first limit: " << std::string(name(*c.first)) << " at " << c.drain_interval << " h");
   CHECK(c.drain_interval > 500);
   CHECK(c.drain_interval < 2000);
-  // MODEL §8: half TBN in roughly 500–2000 h (from memory)
+  // docs/model.md §5.5: half TBN in roughly 500–2000 h (from memory)
   const double half_tbn = c.reached_at[static_cast<std::size_t>(Limit::tbn_fall)];
   CHECK(half_tbn > 500);
   CHECK(half_tbn < 2000);

@@ -126,7 +126,7 @@ TEST_CASE("mg KOH/g round trip and g KOH/kg") {
 
 // ---- fractions and contaminant figures -------------------------------------------------------
 TEST_CASE("mole fractions: ppmv = 1e-6 mol/mol, mol % = 1e-2 mol/mol") {
-  CHECK(close(u::to_core(450.0 * u::ppmv), 4.5e-4));       // MODEL §2: ppmv = mole fraction × 1e6
+  CHECK(close(u::to_core(450.0 * u::ppmv), 4.5e-4));       // docs/model.md §2.5: ppmv = mole fraction × 1e6
   CHECK(close(u::to_core(52.0 * u::mole_percent), 0.52));  // definition of per cent
   CHECK(close(u::to_core(0.1 * u::mass_percent), 1e-3));   // definition of per cent
   CHECK(close(u::to_core(25.0 * u::ppmw), 2.5e-5));        // definition: ppmw = mass fraction × 1e6
@@ -154,7 +154,7 @@ TEST_CASE("concentrations") {
       u::concentration(120.0 * u::mg_per_normal_m3, Basis::dry, ReferenceState::standard());
   CHECK(close(c.value, 120.0 * 273.15 / 288.15));
 
-  // mg/Nm³ = ppmv × M / V_m[L/mol] (MODEL §2): the mg/Nm³ figure of 450 ppmv H2S is the same gas.
+  // mg/Nm³ = ppmv × M / V_m[L/mol] (docs/model.md §2.5): the mg/Nm³ figure of 450 ppmv H2S is the same gas.
   const double m_h2s = molar_mass(Gas::H2S);  // [kg/mol]
   const double mg_per_nm3 = 450.0 * (m_h2s * 1e3) / (u::normal_molar_volume * 1e3);
   GasContext gas;  // normal reference, dry gas

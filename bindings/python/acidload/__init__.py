@@ -19,6 +19,7 @@ not replace, the engine maker's and oil supplier's limits and lab analysis.
 from . import _core
 from ._case import KEYWORDS, Case, Variant, case, case_from_dict, load_case, load_case_text
 from ._calibration import PARAMETERS, Fit, fit, fit_residuals, forecast, monte_carlo, read_lab
+from ._fleet import FLEET_COLUMNS, CaseOutcome, FleetResult, monte_carlo_many, run_many
 from ._errors import Error, FitRefusedError, InputError, NoAnswerError, NotModelledError
 from ._gas import CONCENTRATION_UNITS, accepted_units, convert, molar_mass, molar_volume, parse_quantity
 from ._results import TRAJECTORY_UNITS, Result, VariantResult, run
@@ -35,6 +36,8 @@ __all__ = [
     # runs and studies
     "run", "Result", "VariantResult", "TRAJECTORY_UNITS", "drain_interval", "solve_for_interval",
     "InverseAnswer", "LEVERS",
+    # fleets: many cases on all cores or a Dask cluster
+    "run_many", "monte_carlo_many", "FleetResult", "CaseOutcome", "FLEET_COLUMNS",
     # calibration and uncertainty
     "read_lab", "fit", "Fit", "fit_residuals", "forecast", "monte_carlo", "PARAMETERS",
     # errors

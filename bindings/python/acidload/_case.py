@@ -56,10 +56,15 @@ class Case:
     run it with :func:`acidload.run` (or :meth:`run`).
     """
 
-    __slots__ = ("_file",)
+    __slots__ = ("_file", "_recipe")
 
-    def __init__(self, case_file: "_core.CaseFile") -> None:
+    def __init__(self, case_file: "_core.CaseFile", recipe: Optional[Tuple] = None) -> None:
         self._file = case_file
+        self._recipe = recipe  # how to read the case again (pickling, Dask workers): see _rebuild
+
+    def __reduce__(self):
+        # a Case pickles as its recipe (the file's path or the YAML text), never as C++ state
+        return (_rebuild, (_recipe_of(self),))
 
     @property
     def file(self) -> str:
@@ -119,14 +124,16 @@ def load_case(path: PathLike, overlays: Sequence[PathLike] = ()) -> Case:
     Raises :class:`acidload.InputError` with ``.file``, ``.line``, ``.column``, ``.key`` (the key path),
     ``.value`` and ``.expected`` — the same message the ``acidload`` program prints.
     """
-    return Case(_core.load_case(os.fspath(path), [os.fspath(o) for o in overlays]))
+    recipe = ("file", os.fspath(path), tuple(os.fspath(o) for o in overlays))
+    return Case(_core.load_case(recipe[1], list(recipe[2])), recipe)
 
 
 def load_case_text(text: str, *, file_name: str = "<text>", base_dir: PathLike = ".",
                    overlays: Sequence[PathLike] = ()) -> Case:
     """Reads a case from YAML text. ``file_name`` names it in error messages; relative file names in it
     (a record CSV) resolve against ``base_dir``. Errors as for :func:`load_case`."""
-    return Case(_core.load_case_text(text, file_name, os.fspath(base_dir), [os.fspath(o) for o in overlays]))
+    recipe = ("text", text, file_name, os.fspath(base_dir), tuple(os.fspath(o) for o in overlays))
+    return Case(_core.load_case_text(text, file_name, recipe[3], list(recipe[4])), recipe)
 
 
 def _from_dict_error(e: InputError, keywords: Optional[Dict[str, str]] = None) -> InputError:
@@ -159,17 +166,43 @@ def _load_dict(doc: Mapping[str, Any], base_dir: PathLike, keywords: Optional[Di
     text = _yaml.dump(doc)
     try:
         if base is None:
-            return Case(_core.load_case_text(text, DICT_SOURCE, os.fspath(base_dir), [os.fspath(o) for o in overlays]))
-        # keyword arguments over a case file: an overlay, merged over the base before its variants
-        with tempfile.TemporaryDirectory(prefix="acidload-") as tmp:
-            overlay = os.path.join(tmp, DICT_SOURCE)
-            with open(overlay, "w", encoding="utf-8") as f:
-                f.write(text)
-            return Case(_core.load_case(os.fspath(base), [os.fspath(o) for o in overlays] + [overlay]))
+            return load_case_text(text, file_name=DICT_SOURCE, base_dir=base_dir, overlays=overlays)
+        return _load_with_text_overlay(os.fspath(base), tuple(os.fspath(o) for o in overlays), text)
     except InputError as e:
         if e.file is not None and os.path.basename(e.file) == DICT_SOURCE:
             raise _from_dict_error(e, keywords) from None
         raise
+
+
+def _load_with_text_overlay(base: str, overlays: Tuple[str, ...], text: str) -> Case:
+    """Keyword arguments over a case file: their YAML text as a last overlay, merged over the base
+    before its variants (written to a private temporary file, removed after reading)."""
+    with tempfile.TemporaryDirectory(prefix="acidload-") as tmp:
+        overlay = os.path.join(tmp, DICT_SOURCE)
+        with open(overlay, "w", encoding="utf-8") as f:
+            f.write(text)
+        return Case(_core.load_case(base, list(overlays) + [overlay]), ("file+text", base, overlays, text))
+
+
+def _recipe_of(c: Case) -> Tuple:
+    """The recipe a case was read from; a Case made from a bare C++ CaseFile cannot be read again."""
+    if c._recipe is None:
+        raise TypeError("this Case was not read through acidload.load_case/load_case_text/case_from_dict/case, "
+                        "so it cannot be pickled or sent to another process")
+    return c._recipe
+
+
+def _rebuild(recipe: Tuple) -> Case:
+    """Reads a case again from its recipe: ("file", path, overlays), ("text", text, file name, base
+    folder, overlays) or ("file+text", path, overlays, keyword overlay text)."""
+    kind = recipe[0]
+    if kind == "file":
+        return load_case(recipe[1], recipe[2])
+    if kind == "text":
+        return load_case_text(recipe[1], file_name=recipe[2], base_dir=recipe[3], overlays=recipe[4])
+    if kind == "file+text":
+        return _load_with_text_overlay(recipe[1], tuple(recipe[2]), recipe[3])
+    raise ValueError(f"unknown case recipe {kind!r}")
 
 
 # ---- keyword arguments ------------------------------------------------------------------------------

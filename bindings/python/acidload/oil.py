@@ -1,4 +1,4 @@
-"""The oil balance of MODEL §8 for one segment of constant rates, solved exactly by acidload's core
+"""The oil balance of docs/model.md §8 for one segment of constant rates, solved exactly by acidload's core
 (closed form per regime: above the base floor, at the floor with free strong acid, at the floor with the
 organic acid limiting). Concentrations in mg KOH/g, time in h, mass in kg.
 

@@ -1,4 +1,4 @@
-"""Media beds by the Thomas breakthrough form in its throughput variable (docs/model.md, "Scrubbing").
+"""Media beds by the Thomas breakthrough form in its throughput variable (docs/model.md §18.1).
 
 ``F(phi) = 1 / (1 + exp(beta * (1 - phi)))`` with ``phi`` the sulfur fed over the bed's capacity
 ``q0 * M`` and ``beta = 2 ln 9 / width`` (width: share of the bed life from 10 % to 90 % breakthrough).

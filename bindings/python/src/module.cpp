@@ -333,8 +333,8 @@ PYBIND11_MODULE(_core, m) {
   econ.def("capital_recovery_factor", &capital_recovery_factor, py::arg("discount_rate"), py::arg("life_years"),
            "i (1+i)^n / ((1+i)^n - 1) [1/year]; 1/n at i = 0.");
 
-  // ---- the oil balance (MODEL §8), for direct use and for the reference tests
-  py::module_ oil = m.def_submodule("oil", "The oil balance of one segment of constant rates (MODEL §8).");
+  // ---- the oil balance (docs/model.md §8), for direct use and for the reference tests
+  py::module_ oil = m.def_submodule("oil", "The oil balance of one segment of constant rates (docs/model.md §8).");
   py::enum_<BaseNumberMethod>(oil, "BaseNumberMethod", "Base-number titration methods (ASTM D2896, D4739).")
       .value("D2896", BaseNumberMethod::d2896)
       .value("D4739", BaseNumberMethod::d4739);

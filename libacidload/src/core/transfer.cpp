@@ -71,7 +71,7 @@ AcidInflow::PerAcid AcidInflow::as_mass() const {
 }
 
 double AcidInflow::sulfurous_fresh_koh() const {
-  return 2 * sulfurous_fresh * koh_molar_mass() * 1e3;  // SO2 counts 2 equivalents (MODEL §2)
+  return 2 * sulfurous_fresh * koh_molar_mass() * 1e3;  // SO2 counts 2 equivalents (docs/model.md §2.4)
 }
 
 double liner_uptake_factor(double subcooling, double scale) {

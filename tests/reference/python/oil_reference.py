@@ -1,6 +1,6 @@
-"""An independent reference of acidload's oil balance (MODEL.md §8), integrated numerically with SciPy.
+"""An independent reference of acidload's oil balance (docs/model.md §8), integrated numerically with SciPy.
 
-Written from MODEL.md §8 and the state definitions of libacidload/include/acidload/core/oil.hpp, not
+Written from docs/model.md §8 and the state definitions of libacidload/include/acidload/core/oil.hpp, not
 from the library's closed forms, and it does not call acidload. The library solves each regime in
 closed form; here the same balance is stated as ordinary differential equations in the
 CONCENTRATIONS (mg KOH/g, A/cm; the C++ reference test tests/reference/test_oil_balance.cpp uses

@@ -32,7 +32,7 @@ struct Combustion {
   double wet_fraction(Gas g) const { return products[static_cast<std::size_t>(g)] / products_total(); }
 };
 
-//! O2 demand for complete combustion, S to SO2 (MODEL §4):
+//! O2 demand for complete combustion, S to SO2 (docs/model.md §4.1):
 //! 2·CH4 + 1.5·H2S + 0.5·H2 + 3.5·C2H6 + 5·C3H8 + S_other − ¼(Cl + F) − O2 [mol/mol fuel].
 double stoichiometric_o2(const FuelGas& fuel);
 //! Burns one mole of fuel with air: all S to SO2, of which a share `so3_share` [0–1] goes on to

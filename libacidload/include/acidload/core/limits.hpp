@@ -1,5 +1,5 @@
 #pragma once
-// Condemning limits and the drain interval (MODEL §9). Defaults are common practice, no single
+// Condemning limits and the drain interval (docs/model.md §9). Defaults are common practice, no single
 // source; the engine maker's and oil supplier's limits govern.
 #include <array>
 #include <cstddef>

@@ -1,7 +1,7 @@
 #pragma once
-// The oil balance (docs/model.md): reactive base, free strong acid, organic acids, oxidation, nitration,
-// additive acidity, neutralised salts and the antioxidant reserve, solved in closed form over a
-// segment of constant rates (each regime linear; the switches between regimes found exactly).
+// The oil balance (docs/model.md §8): reactive base, free strong acid, organic acids, oxidation, nitration,
+// additive acidity, neutralised salts and the antioxidant reserve, solved in closed form over a segment of
+// constant rates (each regime linear; the switches between regimes found exactly).
 #include <array>
 
 namespace acidload {

@@ -1,7 +1,7 @@
 #pragma once
 // Gas cleaning before the engine: a train of stages (iron-oxide and impregnated-carbon media beds,
 // biological removal, caustic scrubbing, a fixed-efficiency stage). A media bed loads by the Thomas
-// breakthrough form written in its throughput variable (docs/model.md, "Scrubbing"):
+// breakthrough form written in its throughput variable (docs/model.md §18.1):
 //   F(φ) = 1 / (1 + exp(β·(1 − φ))),   φ = sulfur fed to the bed / (q₀·M),   β = k_T·q₀·M / Q,
 // which is the logistic C/C₀ = 1/(1 + exp(k_T·q₀·M/Q − k_T·C₀·t)) of Thomas (J. Am. Chem. Soc. 66,
 // 1664, 1944) for a constant inlet, and stays exact when the inlet changes from segment to segment.

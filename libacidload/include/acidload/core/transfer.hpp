@@ -1,5 +1,5 @@
 #pragma once
-// The two paths of acid into the oil (MODEL §5): condensation on the cylinder liner, scraped into
+// The two paths of acid into the oil (docs/model.md §5): condensation on the cylinder liner, scraped into
 // the sump, and blow-by gas into the crankcase. Rates per hour for one operating state.
 #include <array>
 
@@ -8,8 +8,8 @@
 
 namespace acidload {
 
-//! The calibratable transfer parameters. Defaults reproduce MODEL §8's sanity range (0.1–0.5 % of
-//! fuel sulfur into the oil for a 1 MW engine at 300 ppmv H2S); fit them to lab data (§10).
+//! The calibratable transfer parameters. Defaults reproduce the sanity range of docs/model.md §5.5 (0.1–0.5 % of
+//! fuel sulfur into the oil for a 1 MW engine at 300 ppmv H2S); fit them to lab data (docs/model.md §12).
 struct TransferParameters {
   double so3_share = 0.02;              //!< ε, fuel S to SO3 in the cylinder [-]; 0.5–2.4 % measured (Cordtz 2013)
   double liner_uptake = 2.5e-4;         //!< λ_L, share of fuel S taken up by the liner per 10 K of subcooling [-]
@@ -63,7 +63,7 @@ struct AcidInflow {
   double hydrochloric = 0;        //!< HCl [mol/h]
   double hydrofluoric = 0;        //!< HF [mol/h]
   double nitric = 0;              //!< NO2 taken up, as HNO3 [mol/h]
-  double strong_koh() const;      //!< everything but SO2, as KOH [g KOH/h]: R_strong of MODEL §8
+  double strong_koh() const;      //!< everything but SO2, as KOH [g KOH/h]: R_strong of docs/model.md §5.4
   //! A figure per acid: H2SO4 (liner + blow-by SO3), SO2 at fresh oil, HCl, HF, HNO3.
   struct PerAcid {
     double sulfuric = 0, sulfurous_fresh = 0, hydrochloric = 0, hydrofluoric = 0, nitric = 0;
@@ -104,7 +104,7 @@ struct Transfer {
 };
 
 //! Smooth liner uptake factor g(Δ) = (ΔT_s/10 K)·ln(1 + e^{Δ/ΔT_s}): ~0 well above the dew point,
-//! ≈ Δ/10 K well below it (softplus; MODEL §5) [-].
+//! ≈ Δ/10 K well below it (softplus; docs/model.md §5.2) [-].
 double liner_uptake_factor(double subcooling, double scale);
 //! Crankcase wetness w = 1 − (1 − w_s)(1 − f_w): w_s = 1/(1 + e^{−2 ln 9 (T_dp − T_cold)/W}), the share of the
 //! wetted surface below the blow-by dew point when surface temperatures spread logistically over a 10–90 %
