@@ -30,6 +30,7 @@ int run_case(std::FILE* out, const acidload::io::CaseFile& c, const std::string&
     std::fprintf(out, "\nResults written to %s/summary.json and %s/trajectories.csv\n", out_folder.c_str(),
                  out_folder.c_str());
   print_caution(out);
+  print_oil_cautions(out, c);
   return exit_ok;
 }
 
