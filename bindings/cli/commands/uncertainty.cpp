@@ -30,7 +30,7 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
   const UncertaintyOptions o = parse(args);
   // The numbers are read before the case, so a malformed one is a usage error whatever the file holds.
   const std::optional<std::uint64_t> draws =
-      o.draws.empty() ? std::nullopt : std::optional(count_option(o.draws, "--draws", 1, 1e7));
+      o.draws.empty() ? std::nullopt : std::optional(count_option(o.draws, "--draws", 1, max_draws));
   const std::optional<std::uint64_t> seed =
       o.seed.empty() ? std::nullopt : std::optional(count_option(o.seed, "--seed", 0, 9e15));
   const int threads = o.threads.empty() ? 0 : static_cast<int>(count_option(o.threads, "--threads", 1, 256));

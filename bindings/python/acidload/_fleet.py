@@ -115,6 +115,18 @@ def _expand(cases: Union[CaseLike, Iterable[CaseLike]]) -> List[CaseLike]:
     return out
 
 
+def _loaded(c: CaseLike) -> Case:
+    if isinstance(c, Case):
+        return c
+    if isinstance(c, Mapping):
+        from ._case import case_from_dict
+
+        return case_from_dict(c)
+    from ._case import load_case
+
+    return load_case(c)
+
+
 def _recipe(c: CaseLike, portable: bool) -> Tuple:
     """What rebuilds the case on a worker. With ``portable``, a case file travels as its text (so the
     worker need not see the file itself; records still resolve against the file's folder)."""
@@ -137,10 +149,14 @@ def _recipe(c: CaseLike, portable: bool) -> Tuple:
 
 
 def _run_recipe(recipe: Tuple, trajectories: bool) -> CaseOutcome:
-    """Loads and runs one case (on a thread or a Dask worker); the C++ run releases the GIL."""
+    """Loads and runs one case on a Dask worker."""
+    return _run_case(_rebuild(recipe), trajectories)
+
+
+def _run_case(case: Case, trajectories: bool) -> CaseOutcome:
+    """Runs one loaded case (on a thread or a worker); reading, running and the summary release the GIL."""
     import json
 
-    case = _rebuild(recipe)
     run = _core.run_case(case._file)
     summary = json.loads(run.summary_json())
     traj = [dict(run.trajectory(i)) for i in range(len(run.names))] if trajectories else None
@@ -161,15 +177,13 @@ def run_many(cases: Union[CaseLike, Iterable[CaseLike]], *, client: Any = None, 
     if threads is not None and (isinstance(threads, bool) or not isinstance(threads, int) or threads < 1):
         raise InputError(f"run_many: threads = {threads!r}: expected a whole number of at least 1")
     items = _expand(cases)
-    recipes = [_recipe(c, portable=client is not None) for c in items]
     if client is None:
-        for r in recipes:  # read every case first: a mistake is reported before any case runs
-            _rebuild(r)
-        workers = threads or os.cpu_count() or 1
-        if workers == 1 or len(recipes) <= 1:
-            return FleetResult([_run_recipe(r, trajectories) for r in recipes])
-        with ThreadPoolExecutor(max_workers=min(workers, len(recipes))) as pool:
-            return FleetResult(list(pool.map(lambda r: _run_recipe(r, trajectories), recipes)))
+        workers = min(threads or os.cpu_count() or 1, max(1, len(items)))
+        # every case read first (on the threads too): a mistake is reported before any case runs
+        with ThreadPoolExecutor(max_workers=workers) as pool:
+            loaded = list(pool.map(_loaded, items))
+            return FleetResult(list(pool.map(lambda c: _run_case(c, trajectories), loaded)))
+    recipes = [_recipe(c, portable=True) for c in items]
     futures = client.map(_run_recipe, recipes, [trajectories] * len(recipes), pure=False)
     return FleetResult(client.gather(futures))
 
@@ -189,12 +203,15 @@ def monte_carlo_many(cases: Union[CaseLike, Iterable[CaseLike]], *, client: Any 
     stream, so the answer equals :func:`acidload.monte_carlo` run on each case alone."""
     if threads is not None and (isinstance(threads, bool) or not isinstance(threads, int) or threads < 1):
         raise InputError(f"monte_carlo_many: threads = {threads!r}: expected a whole number of at least 1")
-    recipes = [_recipe(c, portable=client is not None) for c in _expand(cases)]
+    items = _expand(cases)
     if client is None:
-        for r in recipes:
-            _rebuild(r)
-        with ThreadPoolExecutor(max_workers=max(1, min(threads or os.cpu_count() or 1, len(recipes)))) as pool:
-            return list(pool.map(lambda r: _monte_carlo_recipe(r, variant, draws, seed), recipes))
+        from ._calibration import monte_carlo
+
+        with ThreadPoolExecutor(max_workers=max(1, min(threads or os.cpu_count() or 1, len(items)))) as pool:
+            loaded = list(pool.map(_loaded, items))
+            return list(pool.map(lambda c: monte_carlo(c, draws=draws, seed=seed, threads=1, variant=variant),
+                                 loaded))
+    recipes = [_recipe(c, portable=True) for c in items]
     n = len(recipes)
     futures = client.map(_monte_carlo_recipe, recipes, [variant] * n, [draws] * n, [seed] * n, pure=False)
     return client.gather(futures)

@@ -483,13 +483,44 @@ PYBIND11_MODULE(_core, m) {
       .def_readonly("variants", &io::CaseFile::variants, "[0] is the base case")
       .def_readonly("overlays", &io::CaseFile::overlays, "overlay files applied, in order")
       .def_readonly("format_version", &io::CaseFile::format_version, "as written in the file");
+  // reading a case is pure C++ (about as long as running it): the GIL released, so fleets load on threads
   m.def("load_case", &io::load_case, py::arg("path"), py::arg("overlays") = std::vector<std::string>{},
+        py::call_guard<py::gil_scoped_release>(),
         "Reads a case file (and overlays merged over it). Raises InputError with file, line and column.");
   m.def("load_case_text", &io::load_case_text, py::arg("text"), py::arg("file_name"), py::arg("base_dir"),
-        py::arg("overlays") = std::vector<std::string>{},
+        py::arg("overlays") = std::vector<std::string>{}, py::call_guard<py::gil_scoped_release>(),
         "Reads a case from YAML text; relative file names (a record CSV) resolve against base_dir.");
   m.def("section_keys", [](const std::string& s) { return io::section_keys(s); }, py::arg("section"),
         "The keys of a case-file section ('' for the top level).");
+  m.def(
+      "case_keys",
+      [] {
+        static const char* const types[] = {"quantity", "contaminant", "word", "flag", "text",
+                                            "section", "list", "map", "special"};
+        py::list out;
+        for (const io::CaseKey& k : io::case_keys()) {
+          py::dict d;
+          d["path"] = k.path;
+          d["section"] = k.section();
+          d["key"] = k.key();
+          d["type"] = types[static_cast<int>(k.type)];
+          d["kind"] = k.type == io::KeyType::quantity ? py::str(std::string(io::kind_id(k.kind))) : py::str("");
+          d["kind_name"] = k.type == io::KeyType::quantity ? py::str(std::string(io::kind_name(k.kind))) : py::str("");
+          d["range"] = k.type == io::KeyType::quantity ? py::str(k.range_text()) : py::str("");
+          d["unit"] = k.unit;
+          d["default"] = k.default_text;
+          d["doc"] = k.doc;
+          d["calibratable"] = k.calibratable;
+          d["field"] = k.field;
+          d["alternative"] = k.alternative;
+          d["words"] = k.words;
+          out.append(d);
+        }
+        return out;
+      },
+      "The registry of case keys (acidload/io/keys.hpp), one dict per key: path, section, key, type, kind "
+      "(the schema's $defs name), kind_name, range (in the documented unit), unit, default, doc, calibratable, "
+      "field, alternative, words.");
 
   // ---- runs
   py::class_<CaseRun>(m, "CaseRun", "Every variant of a case, run.")
@@ -499,7 +530,7 @@ PYBIND11_MODULE(_core, m) {
         return n;
       })
       .def("summary_json", [](const CaseRun& r) { return io::summary_json(r.file, r.rows); },
-           "The summary as JSON text, exactly as 'acidload run --out' writes summary.json.")
+           py::call_guard<py::gil_scoped_release>(), "The summary as JSON text, exactly as 'acidload run --out' writes summary.json.")
       .def("trajectories_csv", [](const CaseRun& r) { return io::trajectories_csv(r.rows); },
            "The trajectories as CSV text, exactly as 'acidload run --out' writes trajectories.csv.")
       .def("trajectory", &trajectory_arrays, py::arg("index"), "The trajectory of variant `index` as numpy arrays.")

@@ -43,7 +43,7 @@ Combustion burn(const FuelGas& f, const Air& air, double so3_share) {
                            " < 1: rich combustion is not modelled (lean burn, lambda >= 1)");
   check::in_range("engine.excess-air-ratio", air.excess_air_ratio, 1.0, 10.0, "(lambda)");
   check::in_range("air.water-fraction", air.water_fraction, 0.0, 0.2, "mol/mol");
-  check::fraction("so3-share", so3_share);
+  check::fraction("model.so3-share", so3_share);
   Combustion c;
   c.o2_demand = stoichiometric_o2(f);
   if (!(c.o2_demand > 0))
@@ -92,7 +92,7 @@ double nox_at_actual_o2(double at_ref, double o2_actual, double o2_ref, double o
 double nox_per_mol_fuel(const Combustion& base, const NoxEmission& nox, double fuel_flow, double power) {
   check::non_negative("engine.nox", nox.value);
   if (nox.value == 0) return 0;
-  check::positive("fuel-flow", fuel_flow);
+  check::positive("engine.fuel-flow", fuel_flow);
   const double M = molar_mass(Gas::NO2);
   if (nox.unit == NoxEmission::Unit::g_per_kWh) {
     check::positive("engine.electrical-power", power);

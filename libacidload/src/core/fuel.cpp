@@ -32,7 +32,17 @@ GasContext context(const FuelGas& f, double molar_flow) {
 
 namespace {
 constexpr Gas main_species[] = {Gas::CH4, Gas::CO2, Gas::N2, Gas::O2, Gas::H2, Gas::C2H6, Gas::C3H8, Gas::Ar};
+
+
+InputError h2s_refused(double x_wet) {
+  const std::string shown = format_value(x_wet * 100) + " % of the wet gas";
+  if (x_wet >= 1)  // more H2S than gas: a unit or a decimal point is wrong
+    return InputError("fuel.h2s", shown, "a physically possible H2S content: less than 100 % of the gas (check the unit)");
+  return InputError("fuel.h2s", shown,
+                    "an H2S content below 20 % of the gas (the model's range: combustion and dew points are "
+                    "built for biogas and landfill gas, not for acid gas)");
 }
+}  // namespace
 
 FuelGas resolve(const FuelAnalysis& a) {
   validate(a.reference);
@@ -73,17 +83,18 @@ FuelGas resolve(const FuelAnalysis& a) {
       f.fluorine += xc * fm[Element::F];
     }
     const bool settled = pass > 0 && std::fabs(h2s_new - h2s) <= 1e-16 * (1 + h2s_new);
+    // the figure just converted is the one to check (checking the previous pass's value let any
+    // figure of 20 % or more through as zero)
+    if (!(h2s_new < max_h2s_fraction)) throw h2s_refused(h2s_new);
     h2s = h2s_new;
-    if (h2s >= 0.2) break;
     if (settled) break;
   }
-  if (f[Gas::H2S] >= 0.2)
-    throw InputError("fuel.h2s", format_value(f[Gas::H2S] * 1e6) + " ppmv", "an H2S content below 20 %");
   return f;
 }
 
 FuelGas with_h2s(const FuelGas& f, double x) {
-  check::in_range("fuel.h2s", x, 0.0, 0.199999, "mol/mol");
+  if (!(x >= 0)) check::non_negative("fuel.h2s", x);
+  if (!(x < max_h2s_fraction)) throw h2s_refused(x);
   FuelGas g = f;
   double main = 0;
   for (Gas s : main_species) main += f[s];

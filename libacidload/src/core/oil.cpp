@@ -18,32 +18,32 @@ double OilProperties::fresh_reactive_base() const { return fresh_tbn - weak_base
 
 void validate(const OilProperties& o) {
   check::in_range("oil.fresh-tbn", o.fresh_tbn, 0.5, 80.0, "mg KOH/g");
-  check::in_range("oil.weak-base-d2896", o.weak_base_d2896, 0.0, 10.0, "mg KOH/g");
-  check::in_range("oil.weak-base-d4739", o.weak_base_d4739, 0.0, 10.0, "mg KOH/g");
-  check::in_range("oil.base-floor", o.base_floor, 0.0, 40.0, "mg KOH/g");
+  check::in_range("model.weak-base-d2896", o.weak_base_d2896, 0.0, 10.0, "mg KOH/g");
+  check::in_range("model.weak-base-d4739", o.weak_base_d4739, 0.0, 10.0, "mg KOH/g");
+  check::in_range("model.base-floor", o.base_floor, 0.0, 40.0, "mg KOH/g");
   if (!(o.fresh_reactive_base() > o.base_floor))
-    throw InputError("oil.base-floor", format_value(o.base_floor),
+    throw InputError("model.base-floor", format_value(o.base_floor),
                      "a floor below the fresh oil's reactive base (" + format_value(o.fresh_reactive_base()) +
                          " mg KOH/g = fresh TBN less the method's weak base)");
   check::in_range("oil.fresh-tan", o.fresh_tan, 0.0, 20.0, "mg KOH/g");
-  check::in_range("oil.additive-depletion", o.additive_depletion, 0.0, 1.0, "1/h");
-  check::fraction("oil.salt-titration-share", o.salt_titration_share);
-  check::fraction("oil.organic-neutralised-share", o.organic_neutralised_share);
+  check::in_range("model.additive-depletion", o.additive_depletion, 0.0, 1.0, "1/h");
+  check::fraction("model.salt-titration-share", o.salt_titration_share);
+  check::fraction("model.organic-neutralised-share", o.organic_neutralised_share);
   check::in_range("oil.density", o.density_15, 600.0, 1200.0, "kg/m3");
   check::in_range("oil.viscosity-per-oxidation", o.viscosity_per_oxidation, 0.0, 1.0, "per A/cm");
   check::in_range("oil.viscosity-per-nitration", o.viscosity_per_nitration, 0.0, 1.0, "per A/cm");
 }
 
 void validate(const OxidationLaw& l) {
-  check::in_range("oxidation.rate", l.rate_at_reference, 0.0, 10.0, "A/cm per h");
-  check::in_range("oxidation.reference-temperature", l.reference_temperature, 273.15, 573.15, "K");
-  check::in_range("oxidation.doubling-interval", l.doubling_interval, 1.0, 50.0, "K");
-  check::in_range("oxidation.activation-energy", l.activation_energy, 1e3, 400e3, "J/mol");
-  check::in_range("oxidation.ring-zone-offset", l.ring_zone_offset, 0.0, 150.0, "K");
-  check::in_range("oxidation.organic-acid-yield", l.organic_acid_yield, 0.0, 5.0, "mg KOH/g per A/cm");
-  check::in_range("oxidation.nitration-yield", l.nitration_yield, 0.0, 1e6, "A/cm per mol/kg");
-  check::in_range("oxidation.induction-hours", l.induction_hours, 1.0, 1e6, "h");
-  check::in_range("oxidation.depleted-factor", l.depleted_factor, 1.0, 100.0, "(rate with the antioxidant spent over the protected rate)");
+  check::in_range("model.oxidation-rate", l.rate_at_reference, 0.0, 10.0, "A/cm per h");
+  check::in_range("model.oxidation-reference-temperature", l.reference_temperature, 273.15, 573.15, "K");
+  check::in_range("model.oxidation-doubling-interval", l.doubling_interval, 1.0, 50.0, "K");
+  check::in_range("model.activation-energy", l.activation_energy, 1e3, 400e3, "J/mol");
+  check::in_range("model.ring-zone-offset", l.ring_zone_offset, 0.0, 150.0, "K");
+  check::in_range("model.organic-acid-yield", l.organic_acid_yield, 0.0, 5.0, "mg KOH/g per A/cm");
+  check::in_range("model.nitration-yield", l.nitration_yield, 0.0, 1e6, "A/cm per mol/kg");
+  check::in_range("model.induction-hours", l.induction_hours, 1.0, 1e6, "h");
+  check::in_range("model.depleted-factor", l.depleted_factor, 1.0, 100.0, "(rate with the antioxidant spent over the protected rate)");
 }
 
 double oxidation_temperature_factor(const OxidationLaw& l, double T) {

@@ -14,7 +14,7 @@ double oil_consumption(double specific, double power) {
 OilRates oil_rates(const Transfer& t, const OxidationLaw& law, double sump_T, double consumption, bool continuous,
                    bool check_law) {
   if (check_law) validate(law);
-  check::in_range("engine.oil-temperature", sump_T, 273.15, 423.15, "K");
+  check::in_range("engine.oil-temperature", sump_T, constants::engine_temperature_min, constants::engine_temperature_max, "K");
   OilRates r;
   r.strong_acid = t.inflow.strong_koh();
   r.sulfurous_fresh = t.inflow.sulfurous_fresh_koh();

@@ -2,6 +2,7 @@
 
 #include <cmath>
 
+#include "acidload/core/constants.hpp"
 #include "acidload/core/dew_points.hpp"
 #include "acidload/core/error.hpp"
 #include "acidload/core/water.hpp"
@@ -13,34 +14,35 @@ constexpr std::size_t i(Gas g) { return static_cast<std::size_t>(g); }
 }  // namespace
 
 void validate(const TransferParameters& p) {
-  check::fraction("so3-share", p.so3_share);
-  check::in_range("liner-uptake", p.liner_uptake, 0.0, 0.1, "(share of fuel S per 10 K)");
-  check::positive("liner-subcooling-scale", p.liner_subcooling_scale);
-  check::in_range("liner-wall-rise", p.liner_wall_rise, 0.0, 200.0, "K");
-  check::in_range("liner-wall-rise-load-exponent", p.liner_wall_rise_load_exponent, 0.0, 3.0, "");
-  check::in_range("liner-pressure", p.liner_pressure, 1e5, 300e5, "Pa");
-  check::in_range("cylinder-dew-point-offset", p.cylinder_dew_point_offset, -100.0, 100.0, "K");
-  check::fraction("burnt-share-of-blow-by", p.burnt_share_of_blowby);
-  check::fraction("capture-so3", p.capture_so3);
-  check::fraction("capture-hcl", p.capture_hcl);
-  check::fraction("capture-hf", p.capture_hf);
-  check::fraction("capture-so2", p.capture_so2);
-  check::in_range("wet-so2-factor", p.wet_so2_factor, 1.0, 100.0, "");
-  check::in_range("wetness-width", p.wetness_width, 0.1, 100.0, "K");
-  check::in_range("warm-up-time", p.warmup_hours, 0.0, 24.0, "h");
-  check::fraction("warm-up-start-load", p.warmup_start_load);
-  check::in_range("load-ramp-time", p.load_ramp_hours, 0.0, 24.0, "h");
-  check::fraction("capture-no2", p.capture_no2);
+  check::fraction("model.so3-share", p.so3_share);
+  check::in_range("model.liner-uptake", p.liner_uptake, 0.0, 0.1, "(share of fuel S per 10 K)");
+  check::positive("model.liner-subcooling-scale", p.liner_subcooling_scale);
+  check::in_range("model.liner-wall-rise", p.liner_wall_rise, 0.0, 200.0, "K");
+  check::in_range("model.liner-wall-rise-load-exponent", p.liner_wall_rise_load_exponent, 0.0, 3.0, "");
+  check::in_range("model.liner-pressure", p.liner_pressure, 1e5, 300e5, "Pa");
+  check::in_range("model.cylinder-dew-point-offset", p.cylinder_dew_point_offset, -100.0, 100.0, "K");
+  check::fraction("model.burnt-share-of-blow-by", p.burnt_share_of_blowby);
+  check::fraction("model.capture-so3", p.capture_so3);
+  check::fraction("model.capture-hcl", p.capture_hcl);
+  check::fraction("model.capture-hf", p.capture_hf);
+  check::fraction("model.capture-so2", p.capture_so2);
+  check::in_range("model.wet-so2-factor", p.wet_so2_factor, 1.0, 100.0, "");
+  check::in_range("model.wetness-width", p.wetness_width, 0.1, 100.0, "K");
+  check::in_range("model.warm-up-time", p.warmup_hours, 0.0, 24.0, "h");
+  check::fraction("model.warm-up-start-load", p.warmup_start_load);
+  check::in_range("model.load-ramp-time", p.load_ramp_hours, 0.0, 24.0, "h");
+  check::fraction("model.capture-no2", p.capture_no2);
 }
 
 void validate(const Operation& op) {
-  check::non_negative("fuel-flow", op.fuel_flow);
+  check::non_negative("engine.fuel-flow", op.fuel_flow);
   check::non_negative("engine.electrical-power", op.electrical_power);
   check::in_range("engine.load", op.load, 0.05, 1.2, "(share of rated output)");
   check::fraction("engine.blow-by", op.blowby_share);
   check::non_negative("engine.blow-by-flow", op.blowby_flow);
-  check::in_range("engine.jacket-water-out", op.jacket_water_out, 273.15, 423.15, "K");
-  check::in_range("engine.coldest-crankcase-surface", op.coldest_crankcase_surface, 233.15, 423.15, "K");
+  check::in_range("engine.jacket-water-out", op.jacket_water_out, constants::engine_temperature_min, constants::engine_temperature_max, "K");
+  check::in_range("engine.coldest-crankcase-surface", op.coldest_crankcase_surface, constants::crankcase_surface_min,
+                   constants::engine_temperature_max, "K");
   check::in_range("engine.crankcase-pressure", op.crankcase_pressure, 5e4, 2e5, "Pa");
   check::in_range("engine.exhaust-pressure", op.exhaust_pressure, 5e4, 5e5, "Pa");
   check::in_range("engine.starts-per-hour", op.starts_per_hour, 0.0, 10.0, "1/h");
@@ -168,7 +170,7 @@ Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParame
                                                           : op.starts_per_hour * t.warmup_liner_per_start;
     t.inflow.sulfuric_warmup = std::fmax(0.0, p.liner_uptake * per_hour * t.sulfur_flow);
     if (t.liner_share + p.liner_uptake * std::fmax(0.0, per_hour) > 0.5)
-      throw InputError("liner-uptake", format_value(p.liner_uptake),
+      throw InputError("model.liner-uptake", format_value(p.liner_uptake),
                        "parameters that keep the liner uptake below half the fuel sulfur (it is " +
                            format_value(t.liner_share + p.liner_uptake * std::fmax(0.0, per_hour)) + ")");
   }
@@ -201,7 +203,7 @@ Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParame
   // r_SO2 = ṅ_SO2,bb · κ_SO2 · (b − b_min)/(b_fresh − b_min) · (1 + w (m_wet − 1)); here at fresh oil.
   t.inflow.sulfurous_fresh = t.blowby_burnt[i(Gas::SO2)] * p.capture_so2 * (1 + t.wetness * (p.wet_so2_factor - 1));
   if (t.inflow.sulfurous_fresh > t.blowby_burnt[i(Gas::SO2)])
-    throw InputError("capture-so2", format_value(p.capture_so2),
+    throw InputError("model.capture-so2", format_value(p.capture_so2),
                      "a capture share that, with the wet-crankcase factor, stays at most 1 (it is " +
                          format_value(p.capture_so2 * (1 + t.wetness * (p.wet_so2_factor - 1))) + ")");
   return t;

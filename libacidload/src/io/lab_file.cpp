@@ -93,12 +93,18 @@ std::vector<LabSample> read_lab_samples(const std::string& path) {
         Node n = node(col("san"));
         n.scalar = text + " mg KOH/g";
         s.san = quantity(d, n, Kind::acid_number);
+        if (!(*s.san > 0 && *s.san < 1e4))  // "<-1" or "<0" is no reporting limit
+          throw d.error(n, *v, "a reporting limit above 0, such as '<0.1'");
       } else {
         reading("san", Kind::acid_number, s.san);
         if (s.san && *s.san == 0) s.san_censored = true, s.san = 0.1;  // a reported 0 means "below 0.1"
       }
     }
-    if (cell("i-ph")) s.initial_ph = quantity(d, node(col("i-ph")), Kind::number);
+    if (cell("i-ph")) {
+      const Node n = node(col("i-ph"));
+      s.initial_ph = quantity(d, n, Kind::number);
+      if (!(*s.initial_ph >= 0 && *s.initial_ph <= 14)) throw d.error(n, n.scalar, "an initial pH from 0 to 14");
+    }
     reading("oxidation", Kind::oxidation, s.oxidation);
     reading("nitration", Kind::oxidation, s.nitration);
     if (!s.tbn && !s.tan && !s.san && !s.oxidation && !s.nitration)

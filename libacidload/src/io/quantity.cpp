@@ -263,6 +263,20 @@ bool parse_quantity_text(std::string_view text, Kind k, double& out, std::string
   return true;
 }
 
+double from_core_unit(Kind k, std::string_view unit, double core_value) {
+  const std::string u = normalize_unit(unit);
+  for (const auto& d : info(k).units)
+    if (d.name == u) return (core_value - d.offset) / d.factor;
+  return core_value;
+}
+
+std::string unit_written(std::string_view text) {
+  std::string_view number_text;
+  std::string rest, problem;
+  if (!split_value(text, number_text, rest, problem)) return {};
+  return rest;
+}
+
 double quantity(const Document& doc, const Node& node, Kind k) {
   if (node.type != Node::Type::scalar) throw doc.error(node, detail::describe(node), with_problem(k, not_scalar(node)));
   double v = 0;

@@ -33,6 +33,16 @@ inline std::string display_line(const std::vector<std::string>& lines, int line)
   return s;
 }
 
+//! Items joined with ", " (for "one of: …" lists in messages).
+inline std::string join(const std::vector<std::string>& items, std::string_view separator = ", ") {
+  std::string s;
+  for (std::size_t i = 0; i < items.size(); ++i) {
+    if (i) s += separator;
+    s += items[i];
+  }
+  return s;
+}
+
 //! A node as an error message shows its value: the scalar's text, or what kind of node it is.
 inline std::string describe(const Node& n) {
   switch (n.type) {

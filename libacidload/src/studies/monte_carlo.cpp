@@ -78,7 +78,7 @@ EngineCase first_charge_to_cap(const EngineCase& c) {
 
 MonteCarloResult monte_carlo(const EngineCase& c0, const std::vector<UncertainInput>& inputs, int draws,
                              std::uint64_t seed, int threads) {
-  check::in_range("draws", draws, 1, 1e7, "");
+  check::in_range("draws", draws, 1, max_draws, "");
   for (const UncertainInput& in : inputs) {
     parameter(in.key);
     const Distribution& d = in.distribution;

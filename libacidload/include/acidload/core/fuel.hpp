@@ -44,9 +44,14 @@ struct FuelGas {
   double sulfur() const;  //!< total S atoms per mole of wet gas (H2S + other) [mol/mol]
 };
 
+//! H2S at or above this wet mole fraction (20 %) is outside the model: it is built for biogas and
+//! landfill gas (typically below 1 %); a figure of 100 % or more is physically impossible.
+inline constexpr double max_h2s_fraction = 0.2;
+
 //! Resolves an analysis: normalises the main components, converts every contaminant figure to wet
 //! mole fractions (figures per MJ are solved together with the heating value they depend on).
-//! Throws InputError for negative or non-finite figures, or main components far from summing to 1.
+//! Throws InputError for negative or non-finite figures, main components far from summing to 1, or
+//! H2S of `max_h2s_fraction` or more (the converted figure itself, on every path: ppmv, mg/Nm³, wet).
 FuelGas resolve(const FuelAnalysis& a);
 
 //! The same gas with another H2S content [wet mol/mol]: the main components are rescaled to keep the

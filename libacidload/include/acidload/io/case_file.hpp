@@ -10,11 +10,22 @@
 #include "acidload/studies/calibration.hpp"
 #include "acidload/studies/monte_carlo.hpp"
 #include "acidload/studies/whatif.hpp"
+#include "acidload/io/keys.hpp"
 
 namespace acidload::io {
 
 //! The newest format version this reader knows. Files of every older version keep loading.
 inline constexpr int case_format_version = 1;
+
+//! Caps on the work one case may ask for, each refused up front with the key named (the reasons are
+//! in docs/case-format.md, "Limits on work"). Within them a run of one variant stays within about
+//! ten seconds of one core and a few hundred MB.
+inline constexpr double max_trajectory_points = 1e6;  //!< simulated hours ÷ output interval, per variant (~140 MB)
+inline constexpr double max_detection_steps = 5e6;    //!< simulated hours ÷ detection step, per variant
+inline constexpr double max_simulated_hours = 1e7;    //!< a record's running hours (1140 years)
+inline constexpr std::size_t max_record_rows = 1000000;     //!< segments of one record
+inline constexpr std::size_t max_variants = 10000;          //!< variants of one case
+inline constexpr std::size_t max_segments_in_all = 2000000; //!< record segments over all variants (~600 MB)
 
 //! The `uncertainty` section: inputs for Monte Carlo and its settings.
 struct UncertaintySettings {
@@ -33,15 +44,13 @@ struct CaseFile {
   UncertaintySettings uncertainty;           //!< the `uncertainty` section, if any
 };
 
-//! Reads a case file. Overlays (files of the same format holding any subset of its sections,
-//! typically `model:` from a calibration) are merged over the base in order, before the variants.
+//! Reads a case file. Every key is read through the registry (keys.hpp). Overlays (files of the same format holding any subset of its sections,
+//! typically `model:` from a calibration) are merged over the base in order, before the variants;
+//! a relative record file in an overlay resolves next to the overlay.
 //! Every mistake throws InputError naming the file, line, column, key, value and expectation.
 CaseFile load_case(const std::string& path, const std::vector<std::string>& overlays = {});
 //! The same from text; relative file names (a record CSV) resolve against `base_dir`.
 CaseFile load_case_text(std::string_view text, const std::string& file_name, const std::string& base_dir,
                         const std::vector<std::string>& overlays = {});
-
-//! The keys of each section, for the reference page and for tests.
-const std::vector<std::string>& section_keys(std::string_view section);
 
 }  // namespace acidload::io

@@ -50,6 +50,12 @@ Concentration concentration(const Document& doc, const Node& node, Basis default
 //! Parses a plain number (for CSV cells and bare values); throws the same errors.
 double number(const Document& doc, const Node& node);
 
+//! A value in the core unit expressed in `unit`, one of the kind's units ("" for a bare number,
+//! "%" for a fraction); an unknown unit gives the core value unchanged.
+double from_core_unit(Kind k, std::string_view unit, double core_value);
+//! The unit a value is written in, as the parser normalises it ("" for a bare number or bad text).
+std::string unit_written(std::string_view text);
+
 //! The same parsers on text alone, for CSV cells: return false with `why` filled when bad.
 bool parse_quantity_text(std::string_view text, Kind k, double& out, std::string& why);
 

@@ -8,6 +8,10 @@
 
 namespace acidload {
 
+//! The most draws one Monte Carlo run takes: about 2 min of one core for a single-segment case,
+//! about 3 h for a one-year hourly record (docs/case-format.md, "Limits on work").
+inline constexpr int max_draws = 1000000;
+
 //! An uncertain input for Monte Carlo.
 struct Distribution {
   enum class Kind { normal, lognormal, uniform, triangular };

@@ -1,0 +1,85 @@
+#pragma once
+// The case reader's shared state and its section readers (internal to acidload::io; not installed).
+// Every value is read through the key registry (keys.hpp): its kind, range and the message that
+// names the key as written and its position. Each node keeps the document it came from, so a value
+// merged in from an overlay or a variant is still reported at its own file, line and column.
+#include <map>
+#include <memory>
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "acidload/io/case_file.hpp"
+#include "acidload/io/document.hpp"
+#include "acidload/io/keys.hpp"
+#include "acidload/io/quantity.hpp"
+#include "acidload/studies/operation.hpp"
+
+namespace acidload::io::detail {
+
+struct Reader {
+  std::vector<std::shared_ptr<Document>> docs;
+  std::string base_dir;  //!< directory of the main case (relative file names in it resolve here)
+  //! Where each registry key of the variant being built was read: key path → node (for errors the
+  //! core raises later, which name the same key paths).
+  mutable std::map<std::string, const Node*, std::less<>> seen;
+
+  const Document& doc(const Node& n) const { return *docs.at(static_cast<std::size_t>(n.source)); }
+  //! The directory relative file names in this node's document resolve against.
+  std::string dir_of(const Node& n) const;
+  [[noreturn]] void fail(const Node& n, const std::string& value, const std::string& expected) const;
+  //! The node a map holds for a registry key ("engine.blow-by" looks up "blow-by"), or nullptr.
+  const Node* at(const Node& map, std::string_view path) const;
+  //! Checks a section's keys against the registry.
+  void require_section(const Node& n, std::string_view section) const;
+  //! A quantity key's value in the core unit, range-checked against the registry.
+  double value(const Node& n, const CaseKey& k) const;
+  //! Reads `path` from `map` into `out` when present; returns whether it was.
+  bool get(const Node& map, std::string_view path, double& out) const;
+  //! A word key: one of the registry's words.
+  std::string word(const Node& n, const CaseKey& k) const;
+  std::string word(const Node& n, const std::vector<std::string>& allowed) const;
+  bool flag(const Node& n) const { return word(n, {"true", "false"}) == "true"; }
+  std::string text(const Node& n) const;
+  //! A contaminant key's figure.
+  Concentration contaminant(const Node& n, Basis basis) const;
+  //! Rethrows an InputError of the core at the node its key was read from (or at `fallback`),
+  //! with the key as the user wrote it and the registry's range in the unit they wrote.
+  [[noreturn]] void relocate(const InputError& e, const Node& fallback, const Node* row = nullptr) const;
+};
+
+//! The base operation, as read from the engine section.
+struct EngineInputs {
+  EngineRating rating;
+  double power = 0;               //!< [W]
+  Operation op;
+  double oil_temperature = 273.15 + 88;
+  double start_every = 0;         //!< h between starts, 0 = none
+  double exhaust_temperature = 723.15;
+};
+
+struct OilInputs {
+  double volume = 0;  //!< [m³]
+};
+
+ReferenceState read_reference_state(const Reader& r, const Node* n);
+CombustionReference read_combustion_reference(const Reader& r, const Node* n);
+void read_fuel(const Reader& r, const Node& f, FuelAnalysis& a);
+void read_engine(const Reader& r, const Node& e, EngineInputs& in);
+void read_oil(const Reader& r, const Node& o, OilCharge& c, OilInputs& in, EngineRating& rating);
+void read_model(const Reader& r, const Node& m, ModelParameters& p, OilProperties& oil);
+void read_limits(const Reader& r, const Node& l, LimitSettings& s);
+void read_run(const Reader& r, const Node& run, double& horizon, RunOptions& o);
+//! One record row's changes over the previous segment (YAML map or CSV row made into nodes).
+void read_segment(const Reader& r, const Node& row, Segment& s, const EngineInputs& eng, const OilCharge& ch,
+                  FuelAnalysis& fuel, double& power);
+UncertaintySettings read_uncertainty(const Reader& r, const Node& u);
+
+//! Merges a layer (overlay or variant) over a case tree: maps merge key by key, anything else
+//! replaces; a key of an either-or pair (registry `alternative`) removes its partner. `section` is
+//! the registry section of `into` ("" at the top).
+void merge_layer(Node& into, const Node& from, const std::string& section = "");
+//! Marks every node of a tree as coming from document `source`.
+void set_source(Node& n, int source);
+
+}  // namespace acidload::io::detail

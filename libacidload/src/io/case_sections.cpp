@@ -1,0 +1,456 @@
+// The section readers of the case format: each takes its keys' kinds and ranges from the key
+// registry (keys.cpp) and fills the core's structs; no physics here (studies/operation.hpp turns a
+// power into a fuel flow).
+#include <algorithm>
+#include <cmath>
+#include <filesystem>
+
+#include "acidload/core/halocarbons.hpp"
+#include "acidload/core/water.hpp"
+#include "case_reader.hpp"
+#include "text.hpp"
+
+namespace acidload::io::detail {
+
+// ---- the reader's primitives ------------------------------------------------------------------
+
+std::string Reader::dir_of(const Node& n) const {
+  if (n.source == 0) return base_dir;
+  const std::string d = std::filesystem::path(doc(n).file).parent_path().string();
+  return d.empty() ? "." : d;
+}
+
+void Reader::fail(const Node& n, const std::string& value, const std::string& expected) const {
+  throw doc(n).error(n, value, expected);
+}
+
+const Node* Reader::at(const Node& map, std::string_view path) const {
+  const auto dot = path.rfind('.');
+  return map.find(dot == std::string_view::npos ? path : path.substr(dot + 1));
+}
+
+void Reader::require_section(const Node& n, std::string_view section) const {
+  require_keys(doc(n), n, section_keys(section));
+}
+
+double Reader::value(const Node& n, const CaseKey& k) const {
+  double v = quantity(doc(n), n, k.kind);
+  // an end written in another unit ("-40 degC" for 233.15 K) is the end, not a rounding error past it
+  const auto snap = [&](double end) {
+    if (std::isfinite(end) && end != 0 && std::fabs(v - end) <= 1e-12 * std::fabs(end)) v = end;
+  };
+  snap(k.low);
+  snap(k.high);
+  if (!k.in_range(v)) fail(n, n.scalar, "a value " + k.range_text(unit_written(n.scalar)));
+  seen[k.path] = &n;
+  return v;
+}
+
+bool Reader::get(const Node& map, std::string_view path, double& out) const {
+  const Node* n = at(map, path);
+  if (!n) return false;
+  out = value(*n, case_key(path));
+  return true;
+}
+
+std::string Reader::word(const Node& n, const std::vector<std::string>& allowed) const {
+  if (n.type != Node::Type::scalar) fail(n, describe(n), "one of: " + join(allowed));
+  for (const auto& a : allowed)
+    if (a == n.scalar) return a;
+  const std::string c = closest(n.scalar, allowed);
+  fail(n, n.scalar, "one of: " + join(allowed) + (c.empty() ? "" : " (closest: '" + c + "')"));
+}
+
+std::string Reader::word(const Node& n, const CaseKey& k) const {
+  seen[k.path] = &n;
+  return word(n, k.words);
+}
+
+std::string Reader::text(const Node& n) const {
+  if (n.type != Node::Type::scalar) fail(n, describe(n), "a text value");
+  return n.scalar;
+}
+
+Concentration Reader::contaminant(const Node& n, Basis basis) const { return concentration(doc(n), n, basis); }
+
+void Reader::relocate(const InputError& e, const Node& fallback, const Node* row) const {
+  const CaseKey* k = find_case_key(e.key());
+  const Node* n = nullptr;
+  if (k && row) n = row->find(k->key());
+  if (!n) {
+    const auto it = seen.find(e.key());
+    if (it != seen.end()) n = it->second;
+  }
+  if (n) {
+    double v = 0;
+    std::string why;
+    const bool out_of_range = k && k->type == KeyType::quantity && n->type == Node::Type::scalar &&
+                              parse_quantity_text(n->scalar, k->kind, v, why) && !k->in_range(v);
+    fail(*n, describe(*n), out_of_range ? "a value " + k->range_text(unit_written(n->scalar)) : e.expected());
+  }
+  fail(fallback, e.value(), e.key() + ": " + e.expected());
+}
+
+// ---- sections ---------------------------------------------------------------------------------
+
+ReferenceState read_reference_state(const Reader& r, const Node* n) {
+  if (!n) return ReferenceState::normal();
+  if (n->type == Node::Type::scalar)
+    return r.word(*n, {"normal", "standard"}) == "normal" ? ReferenceState::normal() : ReferenceState::standard();
+  r.require_section(*n, "reference-state");
+  ReferenceState s = ReferenceState::normal();
+  r.get(*n, "reference-state.temperature", s.temperature);
+  r.get(*n, "reference-state.pressure", s.pressure);
+  return s;
+}
+
+CombustionReference read_combustion_reference(const Reader& r, const Node* n) {
+  if (!n) return CombustionReference::t15;
+  const double T = quantity(r.doc(*n), *n, Kind::temperature);
+  try {
+    return combustion_reference_at(T);
+  } catch (const InputError&) {
+    r.fail(*n, n->scalar, "one of the ISO 6976 combustion reference temperatures 0, 15, 20 or 25 degC");
+  }
+}
+
+void read_fuel(const Reader& r, const Node& f, FuelAnalysis& a) {
+  r.require_section(f, "fuel");
+  Basis basis = Basis::dry;
+  if (const Node* b = r.at(f, "fuel.basis")) basis = r.word(*b, case_key("fuel.basis")) == "dry" ? Basis::dry : Basis::wet;
+  a.main_basis = basis;
+  if (const Node* c = f.find("composition")) {
+    static const std::vector<std::string> species = {"CH4", "CO2", "N2", "O2", "H2", "C2H6", "C3H8", "Ar"};
+    require_keys(r.doc(*c), *c, species);
+    a.main = {};
+    double sum = 0;
+    for (const auto& [k, v] : c->entries) {
+      const double x = quantity(r.doc(v), v, Kind::fraction);
+      if (!(x >= 0 && x <= 1)) r.fail(v, v.scalar, "a fraction from 0 to 100 %");
+      sum += a.main[static_cast<std::size_t>(gas_from_formula(k))] = x;
+    }
+    r.seen["fuel.composition"] = c;
+    if (basis == Basis::dry && !(sum > 0.9 && sum < 1.1))  // wet figures are checked with the water, in resolve()
+      r.fail(*c, format_value(std::round(sum * 1e10) / 1e8) + " % in all",
+             "main components summing to 100 % (within 10 points); they are normalised");
+  } else {
+    r.fail(f, "(no composition)", "a 'composition' map of the main components (CH4, CO2, …)");
+  }
+  const Node* w = f.find("water");
+  const Node* wd = f.find("water-dew-point");
+  if (w && wd) r.fail(*wd, wd->scalar, "either 'water' or 'water-dew-point', not both");
+  double p_gas = 101325;
+  r.get(f, "fuel.gas-pressure", p_gas);
+  if (w) a.water_fraction = r.value(*w, case_key("fuel.water"));
+  if (wd) {
+    a.water_fraction = water::saturation_pressure(r.value(*wd, case_key("fuel.water-dew-point"))) / p_gas;
+    r.seen["fuel.water"] = wd;
+  }
+  const auto conc = [&](const char* path, Concentration& out) {
+    if (const Node* n = r.at(f, path)) out = r.contaminant(*n, basis), r.seen[path] = n;
+  };
+  conc("fuel.h2s", a.h2s);
+  conc("fuel.other-sulfur", a.other_sulfur);
+  conc("fuel.chlorine", a.chlorine);
+  conc("fuel.fluorine", a.fluorine);
+  if (const Node* h = f.find("halocarbons")) {
+    if (h->type != Node::Type::map) r.fail(*h, describe(*h), "a map of compound name to figure");
+    a.halocarbons.clear();
+    for (const auto& [k, v] : h->entries) {
+      try {
+        find_halocarbon(k);
+      } catch (const InputError& e) {
+        r.fail(v, k, e.expected());
+      }
+      a.halocarbons.push_back({k, r.contaminant(v, basis)});
+    }
+  }
+}
+
+namespace {
+const char* const nox_forms = "NOx as '<number> mg/Nm3 at <number> % O2' or '<number> g/kWh'";
+
+NoxEmission read_nox(const Reader& r, const Node& n) {
+  NoxEmission e;
+  const std::string t = r.text(n);
+  const auto at = t.find(" at ");
+  Node part = n;
+  if (at != std::string::npos) {  // "500 mg/Nm3 at 5 % O2"
+    part.scalar = t.substr(0, at);
+    const Concentration c = r.contaminant(part, Basis::dry);
+    if (c.unit != ConcentrationUnit::mg_per_m3) r.fail(n, t, nox_forms);
+    std::string o2 = t.substr(at + 4);
+    if (o2.size() < 3 || o2.substr(o2.size() - 3) != " O2") r.fail(n, t, nox_forms);
+    part.scalar = o2.substr(0, o2.size() - 3);
+    e.value = c.value;
+    e.unit = NoxEmission::Unit::mg_per_m3_dry_at_o2_ref;
+    e.o2_reference = quantity(r.doc(n), part, Kind::fraction);
+    if (!(e.o2_reference >= 0 && e.o2_reference <= 0.2)) r.fail(n, t, "an O2 reference from 0 to 20 % O2");
+    r.seen["engine.nox"] = &n;
+    return e;
+  }
+  const auto sp = t.find_last_of(' ');
+  if (sp == std::string::npos || t.substr(sp + 1) != "g/kWh") r.fail(n, t, nox_forms);
+  part.scalar = t.substr(0, sp);
+  e.value = number(r.doc(n), part);
+  if (!(e.value >= 0 && e.value < 100)) r.fail(n, t, "a NOx figure from 0 to 100 g/kWh");
+  e.unit = NoxEmission::Unit::g_per_kWh;
+  r.seen["engine.nox"] = &n;
+  return e;
+}
+
+// Refuses both keys of an either-or pair in one map.
+void one_of(const Reader& r, const Node& map, const char* a, const char* b, const char* what = nullptr) {
+  const Node* na = map.find(a);
+  const Node* nb = map.find(b);
+  if (na && nb)
+    r.fail(*nb, describe(*nb),
+           std::string("either '") + a + "' or '" + b + "'" + (what ? what : "") + ", not both");
+}
+}  // namespace
+
+void read_engine(const Reader& r, const Node& e, EngineInputs& in) {
+  r.require_section(e, "engine");
+  r.get(e, "engine.rated-power", in.rating.rated_power);
+  one_of(r, e, "power", "load");
+  if (r.get(e, "engine.power", in.power)) {
+  } else if (const Node* ld = e.find("load")) {
+    if (in.rating.rated_power <= 0) r.fail(*ld, ld->scalar, "a 'rated-power' in the engine section to take the load of");
+    in.power = r.value(*ld, case_key("engine.load")) * in.rating.rated_power;
+  }
+  if (in.rating.rated_power <= 0) in.rating.rated_power = in.power;
+  one_of(r, e, "electrical-efficiency", "fuel-flow");
+  r.get(e, "engine.electrical-efficiency", in.rating.electrical_efficiency);
+  r.get(e, "engine.fuel-flow", in.rating.fixed_fuel_flow);
+  Operation& op = in.op;
+  r.get(e, "engine.excess-air-ratio", op.air.excess_air_ratio);
+  one_of(r, e, "air-water", "air-humidity");
+  r.get(e, "engine.air-water", op.air.water_fraction);
+  double T = 288.15, p = 101325;  // read (and checked) even when no humidity is given
+  r.get(e, "engine.air-temperature", T);
+  r.get(e, "engine.air-pressure", p);
+  if (const Node* ah = e.find("air-humidity")) {
+    op.air.water_fraction = water::water_fraction_at_humidity(r.value(*ah, case_key("engine.air-humidity")), T, p);
+  }
+  one_of(r, e, "blow-by", "blow-by-flow", " (share of charge or flow)");
+  r.get(e, "engine.blow-by", op.blowby_share);
+  r.get(e, "engine.blow-by-flow", op.blowby_flow);
+  r.get(e, "engine.jacket-water-out", op.jacket_water_out);
+  r.get(e, "engine.coldest-crankcase-surface", op.coldest_crankcase_surface);
+  r.get(e, "engine.oil-temperature", in.oil_temperature);
+  r.get(e, "engine.crankcase-pressure", op.crankcase_pressure);
+  r.get(e, "engine.exhaust-pressure", op.exhaust_pressure);
+  r.get(e, "engine.exhaust-temperature", in.exhaust_temperature);
+  r.get(e, "engine.start-every", in.start_every);
+  if (const Node* n = e.find("nox")) op.nox = read_nox(r, *n);
+}
+
+void read_oil(const Reader& r, const Node& o, OilCharge& c, OilInputs& in, EngineRating& rating) {
+  r.require_section(o, "oil");
+  OilProperties& p = c.oil;
+  r.get(o, "oil.density", p.density_15);
+  if (!r.get(o, "oil.volume", in.volume))
+    r.fail(o, "(no volume)", "the oil volume in circulation, e.g. 'volume: 600 L'");
+  r.get(o, "oil.fresh-tbn", p.fresh_tbn);
+  if (const Node* n = o.find("tbn-method"))
+    p.fresh_tbn_method = r.word(*n, case_key("oil.tbn-method")) == "D2896" ? BaseNumberMethod::d2896 : BaseNumberMethod::d4739;
+  r.get(o, "oil.fresh-tan", p.fresh_tan);
+  r.get(o, "oil.consumption", rating.specific_oil_consumption);
+  if (const Node* n = o.find("makeup")) c.continuous_makeup = r.word(*n, case_key("oil.makeup")) == "continuous";
+  r.get(o, "oil.residual-share", c.residual_share);
+}
+
+void read_model(const Reader& r, const Node& m, ModelParameters& p, OilProperties& oil) {
+  r.require_section(m, "model");
+  TransferParameters& t = p.transfer;
+  OxidationLaw& o = p.oxidation;
+  const auto g = [&](const char* key, double& out) { r.get(m, std::string("model.") + key, out); };
+  g("so3-share", t.so3_share);
+  g("liner-uptake", t.liner_uptake);
+  g("liner-subcooling-scale", t.liner_subcooling_scale);
+  g("liner-wall-rise", t.liner_wall_rise);
+  g("liner-wall-rise-load-exponent", t.liner_wall_rise_load_exponent);
+  g("liner-pressure", t.liner_pressure);
+  g("cylinder-dew-point-offset", t.cylinder_dew_point_offset);
+  g("burnt-share-of-blow-by", t.burnt_share_of_blowby);
+  g("capture-so3", t.capture_so3);
+  g("capture-hcl", t.capture_hcl);
+  g("capture-hf", t.capture_hf);
+  g("capture-so2", t.capture_so2);
+  g("capture-no2", t.capture_no2);
+  g("wet-so2-factor", t.wet_so2_factor);
+  g("wetness-scale", t.wetness_scale);
+  g("warm-up-time", t.warmup_hours);
+  if (const Node* n = m.find("oxidation-law"))
+    o.kind = r.word(*n, case_key("model.oxidation-law")) == "doubling" ? OxidationLaw::Kind::doubling : OxidationLaw::Kind::arrhenius;
+  g("oxidation-rate", o.rate_at_reference);
+  g("oxidation-reference-temperature", o.reference_temperature);
+  g("oxidation-doubling-interval", o.doubling_interval);
+  g("activation-energy", o.activation_energy);
+  g("ring-zone-offset", o.ring_zone_offset);
+  g("organic-acid-yield", o.organic_acid_yield);
+  g("nitration-yield", o.nitration_yield);
+  g("weak-base-d2896", oil.weak_base_d2896);
+  g("weak-base-d4739", oil.weak_base_d4739);
+  g("base-floor", oil.base_floor);
+  g("additive-depletion", oil.additive_depletion);
+  g("salt-titration-share", oil.salt_titration_share);
+  g("organic-neutralised-share", oil.organic_neutralised_share);
+  try {  // relations between keys, checked by the core, located at the key the core names
+    validate(t);
+    validate(o);
+  } catch (const InputError& e) {
+    r.relocate(e, m);
+  }
+}
+
+void read_limits(const Reader& r, const Node& l, LimitSettings& s) {
+  r.require_section(l, "limits");
+  r.get(l, "limits.tbn-share-of-fresh", s.tbn_share_of_fresh);
+  if (const Node* n = l.find("tbn-method"))
+    s.tbn_method = r.word(*n, case_key("limits.tbn-method")) == "D2896" ? BaseNumberMethod::d2896 : BaseNumberMethod::d4739;
+  r.get(l, "limits.tan-rise", s.tan_rise);
+  if (const Node* n = l.find("crossover")) s.crossover = r.flag(*n);
+  r.get(l, "limits.san", s.san);
+  r.get(l, "limits.oxidation", s.oxidation);
+  r.get(l, "limits.nitration", s.nitration);
+  r.get(l, "limits.max-hours", s.max_hours);
+  s.enabled[static_cast<std::size_t>(Limit::crossover)] = s.crossover;
+  if (const Node* n = l.find("ignore")) {
+    if (n->type != Node::Type::sequence) r.fail(*n, describe(*n), "a list of limit names, e.g. [nitration]");
+    std::vector<std::string> names;
+    for (Limit x : all_limits) names.emplace_back(name(x));
+    for (const Node& item : n->items) {
+      const std::string w = r.word(item, names);
+      for (Limit x : all_limits)
+        if (name(x) == w) s.enabled[static_cast<std::size_t>(x)] = false;
+    }
+  }
+}
+
+void read_run(const Reader& r, const Node& run, double& horizon, RunOptions& o) {
+  r.require_section(run, "run");
+  r.get(run, "run.hours", horizon);
+  r.get(run, "run.output-interval", o.output_interval);
+  r.get(run, "run.detection-step", o.detection_step);
+}
+
+void read_segment(const Reader& r, const Node& row, Segment& s, const EngineInputs& eng, const OilCharge& ch,
+                  FuelAnalysis& fuel, double& power) {
+  r.require_section(row, "segment");
+  const Node* h = row.find("hours");
+  if (!h) r.fail(row, "(no hours)", "the segment's running hours, e.g. 'hours: 500 h'");
+  s.hours = r.value(*h, case_key("segment.hours"));
+  r.get(row, "segment.calendar-hours", s.calendar_hours);
+  r.get(row, "segment.starts", s.starts);
+  bool fuel_changed = false;
+  const auto conc = [&](const char* key, Concentration& out) {
+    if (const Node* n = row.find(key)) out = r.contaminant(*n, fuel.main_basis), fuel_changed = true;
+  };
+  conc("h2s", fuel.h2s);
+  conc("other-sulfur", fuel.other_sulfur);
+  conc("chlorine", fuel.chlorine);
+  conc("fluorine", fuel.fluorine);
+  if (fuel_changed) s.fuel = resolve(fuel);
+  one_of(r, row, "power", "load");
+  const Node* pw = row.find("power");
+  const Node* ld = row.find("load");
+  if (pw) power = r.value(*pw, case_key("segment.power"));
+  if (ld) power = r.value(*ld, case_key("segment.load")) * eng.rating.rated_power;
+  if ((pw || ld) && eng.rating.fixed_fuel_flow > 0)
+    r.fail(pw ? *pw : *ld, (pw ? pw : ld)->scalar,
+           "no power change when the engine section gives 'fuel-flow' (give power and electrical-efficiency there)");
+  if (pw || ld || fuel_changed) set_power(s, eng.rating, power);
+  r.get(row, "segment.jacket-water-out", s.operation.jacket_water_out);
+  r.get(row, "segment.oil-temperature", s.oil_temperature);
+  r.get(row, "segment.coldest-crankcase-surface", s.operation.coldest_crankcase_surface);
+  r.get(row, "segment.blow-by", s.operation.blowby_share);
+  r.get(row, "segment.excess-air-ratio", s.operation.air.excess_air_ratio);
+  const Node* ev = row.find("event");
+  const Node* amt = row.find("event-amount");
+  const bool no_event = !ev || (ev->type == Node::Type::scalar && ev->scalar.empty());  // `event: ''` is no event
+  if (amt && no_event) r.fail(*amt, amt->scalar, "an 'event' (oil-change, top-up or partial-drain) for the amount to belong to");
+  if (ev && !(ev->type == Node::Type::scalar && ev->scalar.empty())) {
+    OilEvent e;
+    const std::string w = r.word(*ev, case_key("segment.event"));
+    const bool amount = amt && !amt->scalar.empty();
+    const auto share = [&](double hi) {
+      const double v = quantity(r.doc(*amt), *amt, Kind::fraction);
+      if (!(v >= 0 && v <= hi)) r.fail(*amt, amt->scalar, "a share from 0 to " + format_value(hi * 100) + " %");
+      return v;
+    };
+    if (w == "oil-change") {
+      e.kind = OilEvent::Kind::oil_change;
+      if (amount) e.amount = share(0.9);
+    } else if (w == "top-up") {
+      e.kind = OilEvent::Kind::top_up;
+      if (amount) {
+        const double v = quantity(r.doc(*amt), *amt, Kind::volume);
+        const double system = ch.mass / ch.oil.density_15;  // [m³]
+        if (!(v >= 0 && v <= system))
+          r.fail(*amt, amt->scalar, "a top-up from 0 to the system's own volume, " + format_value(system * 1e3) + " L");
+        e.amount = v * ch.oil.density_15;
+      }
+    } else {
+      e.kind = OilEvent::Kind::partial_drain;
+      if (!amount) r.fail(*ev, ev->scalar, "an 'event-amount' (the share drained) with a partial drain");
+      e.amount = share(1);
+    }
+    s.events.push_back(e);
+  }
+}
+
+UncertaintySettings read_uncertainty(const Reader& r, const Node& u) {
+  r.require_section(u, "uncertainty");
+  UncertaintySettings out;
+  double draws = out.draws, seed = static_cast<double>(out.seed);
+  r.get(u, "uncertainty.draws", draws);
+  r.get(u, "uncertainty.seed", seed);
+  out.draws = static_cast<int>(draws);
+  out.seed = static_cast<std::uint64_t>(seed);
+  const Node* in = u.find("inputs");
+  if (!in || in->type != Node::Type::sequence || in->items.empty())
+    r.fail(in ? *in : u, "(no inputs)", "an 'inputs' list of uncertain parameters");
+  const std::vector<std::string>& names = calibratable_keys();
+  for (const Node& item : in->items) {
+    r.require_section(item, "uncertain-input");
+    const Node* pn = item.find("parameter");
+    if (!pn) r.fail(item, "(no parameter)", "a 'parameter', one of: " + join(names));
+    const std::string key = r.word(*pn, names);
+    const CaseKey& pk = case_key(key);
+    const Node* dn = item.find("distribution");
+    if (!dn) r.fail(item, "(no distribution)", "a 'distribution': normal, lognormal, uniform or triangular");
+    const std::string dist = r.word(*dn, case_key("uncertain-input.distribution"));
+    // a spread of a temperature is a temperature change; everything else spreads in its own kind
+    const Kind kind = pk.kind;
+    const Kind spread = kind == Kind::temperature ? Kind::temperature_change : kind;
+    constexpr Kind bare = Kind::count;  // marks sigma-log: a bare number whatever the parameter
+    const auto value = [&](const char* field, Kind k) -> double {
+      const Node* n = item.find(field);
+      if (!n) r.fail(item, "(no " + std::string(field) + ")", std::string("a '") + field + "' for a " + dist + " distribution");
+      if (k == bare) return quantity(r.doc(*n), *n, Kind::number);
+      if (pk.type == KeyType::contaminant) {  // written as a contaminant figure in ppmv
+        const Concentration c = r.contaminant(*n, Basis::dry);
+        if (c.unit != ConcentrationUnit::ppmv || c.basis != Basis::dry) r.fail(*n, n->scalar, "an H2S figure in ppmv (dry)");
+        return c.value;
+      }
+      return quantity(r.doc(*n), *n, k);
+    };
+    UncertainInput x;
+    x.key = key;
+    if (dist == "normal") x.distribution = {Distribution::Kind::normal, value("mean", kind), value("sd", spread), 0};
+    else if (dist == "lognormal") x.distribution = {Distribution::Kind::lognormal, value("median", kind), value("sigma-log", bare), 0};
+    else if (dist == "uniform") x.distribution = {Distribution::Kind::uniform, value("low", kind), value("high", kind), 0};
+    else x.distribution = {Distribution::Kind::triangular, value("low", kind), value("mode", kind), value("high", kind)};
+    const Distribution& d = x.distribution;
+    const bool ok = d.kind == Distribution::Kind::normal      ? d.b >= 0
+                    : d.kind == Distribution::Kind::lognormal ? d.a > 0 && d.b >= 0
+                    : d.kind == Distribution::Kind::uniform   ? d.a < d.b
+                                                              : d.a <= d.b && d.b <= d.c && d.a < d.c;
+    if (!ok) r.fail(*dn, dist, "parameters in order (low < high, low <= mode <= high, sd >= 0, median > 0)");
+    out.inputs.push_back(x);
+  }
+  return out;
+}
+
+}  // namespace acidload::io::detail

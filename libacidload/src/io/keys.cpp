@@ -1,0 +1,415 @@
+// The registry of case keys (keys.hpp). Ranges are in the core's units (core.hpp) and agree with the
+// core's own validators, which name the same key paths; defaults agree with the core structs'
+// initialisers (tests/unit/test_keys.cpp checks both).
+#include "acidload/io/keys.hpp"
+
+#include <cmath>
+#include <cstdio>
+#include <map>
+
+#include "acidload/core/error.hpp"
+#include "acidload/studies/monte_carlo.hpp"
+#include "acidload/core/constants.hpp"
+#include "text.hpp"
+
+namespace acidload::io {
+
+namespace {
+
+constexpr double inf = HUGE_VAL;
+
+struct Builder {
+  std::vector<CaseKey> keys;
+  std::string section;
+  CaseKey& add(std::string key, KeyType type, std::string doc) {
+    CaseKey k;
+    k.path = section.empty() ? key : section + "." + key;
+    k.type = type;
+    k.doc = std::move(doc);
+    keys.push_back(std::move(k));
+    return keys.back();
+  }
+  // a quantity: kind, range in core units, the unit docs write it in, default as shown
+  CaseKey& q(std::string key, Kind kind, double lo, double hi, std::string unit, std::string def, std::string doc,
+             std::string field) {
+    CaseKey& k = add(std::move(key), KeyType::quantity, std::move(doc));
+    k.kind = kind, k.low = lo, k.high = hi, k.unit = std::move(unit), k.default_text = std::move(def);
+    k.field = std::move(field);
+    return k;
+  }
+  CaseKey& w(std::string key, std::vector<std::string> words, std::string def, std::string doc, std::string field) {
+    CaseKey& k = add(std::move(key), KeyType::word, std::move(doc));
+    k.words = std::move(words), k.default_text = std::move(def), k.field = std::move(field);
+    return k;
+  }
+  CaseKey& c(std::string key, std::string doc, std::string field) {
+    CaseKey& k = add(std::move(key), KeyType::contaminant, std::move(doc));
+    k.default_text = "0", k.field = std::move(field);
+    return k;
+  }
+  CaseKey& other(std::string key, KeyType type, std::string def, std::string doc, std::string field = "") {
+    CaseKey& k = add(std::move(key), type, std::move(doc));
+    k.default_text = std::move(def), k.field = std::move(field);
+    return k;
+  }
+};
+
+CaseKey& cal(CaseKey& k) {
+  k.calibratable = true;
+  return k;
+}
+CaseKey& alt(CaseKey& k, std::string other) {
+  k.alternative = std::move(other);
+  return k;
+}
+CaseKey& open_low(CaseKey& k) {
+  k.low_open = true;
+  return k;
+}
+CaseKey& layer(CaseKey& k) {
+  k.layer = true;
+  return k;
+}
+
+std::vector<CaseKey> build_table() {
+  using K = Kind;
+  using T = KeyType;
+  Builder b;
+  // ---- top level
+  b.section = "";
+  b.other("format-version", T::special, "required", "the format the file is written in (this acidload reads 1)");
+  b.other("case", T::text, "–", "a title for reports", "CaseFile::title");
+  b.other("base-name", T::text, "base", "name of the base case in comparisons", "EngineCase::name");
+  layer(b.other("reference-state", T::special, "normal",
+                "`normal` (0 °C, 101.325 kPa), `standard` (15 °C), or a map of `temperature` and `pressure`",
+                "FuelAnalysis::reference"));
+  layer(b.q("combustion-reference", K::temperature, 273.15, 298.15, "degC", "15 degC",
+            "ISO 6976 combustion reference temperature: 0, 15, 20 or 25 degC", "FuelAnalysis::combustion"));
+  layer(b.other("fuel", T::section, "required", "the gas analysis"));
+  layer(b.other("engine", T::section, "required", "the engine and its operation"));
+  layer(b.other("oil", T::section, "required", "the oil product and its charge"));
+  layer(b.other("model", T::section, "–", "the model's calibratable parameters"));
+  layer(b.other("limits", T::section, "–", "the condemning limits"));
+  layer(b.other("run", T::section, "–", "horizon and output settings"));
+  layer(b.other("record", T::section, "–", "an operating record"));
+  b.other("variants", T::list, "–", "named variants to compare, each merged over the base");
+  b.other("uncertainty", T::section, "–", "inputs for Monte Carlo");
+
+  b.section = "reference-state";
+  b.q("temperature", K::temperature, 200, 400, "degC", "0 degC", "temperature of the reference state",
+      "ReferenceState::temperature");
+  b.q("pressure", K::pressure, 5e4, 2e5, "kPa", "101.325 kPa", "pressure of the reference state",
+      "ReferenceState::pressure");
+
+  // ---- fuel
+  b.section = "fuel";
+  b.w("basis", {"dry", "wet"}, "dry", "basis of the figures that do not say", "FuelAnalysis::main_basis");
+  b.other("composition", T::map, "required",
+          "main components `CH4`, `CO2`, `N2`, `O2`, `H2`, `C2H6`, `C3H8`, `Ar` as fractions; normalised to what "
+          "water and H2S leave (dry: summing to 100 % within 10 points; wet: to 100 % less the water)",
+          "FuelAnalysis::main");
+  alt(b.q("water", K::fraction, 0, 0.3, "%", "0 %", "water vapour in the wet gas", "FuelAnalysis::water_fraction"),
+      "water-dew-point");
+  alt(b.q("water-dew-point", K::temperature, 273.15, 353.15, "degC", "–",
+          "instead of `water`: saturated at this temperature and `gas-pressure`", "FuelAnalysis::water_fraction"),
+      "water");
+  b.q("gas-pressure", K::pressure, 5e4, 5e5, "kPa", "101.325 kPa", "gas pressure for `water-dew-point`", "(for water-dew-point)");
+  cal(b.c("h2s", "hydrogen sulfide", "FuelAnalysis::h2s"));
+  b.c("other-sulfur", "COS, mercaptans, sulfides, as S", "FuelAnalysis::other_sulfur");
+  b.c("chlorine", "organic chlorine total, as Cl", "FuelAnalysis::chlorine");
+  b.c("fluorine", "organic fluorine total, as F", "FuelAnalysis::fluorine");
+  b.other("halocarbons", T::map, "–",
+          "compound → contaminant figure of the compound itself, summed to Cl and F by formula and added to the "
+          "totals; names as in `acidload::halocarbon_table()` (e.g. `tetrachloroethene`) or formulas",
+          "FuelAnalysis::halocarbons");
+
+  // ---- engine
+  b.section = "engine";
+  b.q("rated-power", K::power, 1e3, 1e8, "kW", "= power", "electrical rating", "(load = power / rated power)");
+  alt(b.q("power", K::power, 0, 1e8, "kW", "required unless fuel-flow", "electrical output", "Operation::electrical_power"),
+      "load");
+  alt(b.q("load", K::fraction, 0.05, 1.2, "%", "–", "instead of `power`: the share of `rated-power`", "Operation::load"),
+      "power");
+  alt(b.q("electrical-efficiency", K::fraction, 0.05, 0.6, "%", "required with power",
+          "on the LHV; with the power, gives the fuel flow", "(fuel flow)"),
+      "fuel-flow");
+  alt(b.q("fuel-flow", K::molar_flow, 0, 1e8, "Nm3/h", "–", "instead of `electrical-efficiency`: the wet fuel gas flow",
+          "Operation::fuel_flow"),
+      "electrical-efficiency");
+  b.q("excess-air-ratio", K::number, 1, 4, "", "1.8", "λ (lean burn 1.6–2.0)", "Air::excess_air_ratio");
+  alt(b.q("air-water", K::fraction, 0, 0.1, "%", "0 %", "water in the combustion air", "Air::water_fraction"),
+      "air-humidity");
+  alt(b.q("air-humidity", K::fraction, 0, 1, "%", "–", "instead of `air-water`: relative humidity at `air-temperature` and `air-pressure`",
+          "Air::water_fraction"),
+      "air-water");
+  b.q("air-temperature", K::temperature, 243.15, 323.15, "degC", "15 degC", "for `air-humidity`", "(for air-humidity)");
+  b.q("air-pressure", K::pressure, 6e4, 1.1e5, "kPa", "101.325 kPa", "for `air-humidity`", "(for air-humidity)");
+  cal(alt(b.q("blow-by", K::fraction, 0, 0.1, "%", "1 %", "blow-by as a share of the charge", "Operation::blowby_share"),
+          "blow-by-flow"));
+  alt(b.q("blow-by-flow", K::molar_flow, 0, 1e7, "Nm3/h", "–", "instead of `blow-by`: the blow-by flow", "Operation::blowby_flow"),
+      "blow-by");
+  cal(b.q("jacket-water-out", K::temperature, constants::engine_temperature_min, constants::engine_temperature_max, "degC", "90 degC",
+          "jacket-water outlet temperature", "Operation::jacket_water_out"));
+  b.q("coldest-crankcase-surface", K::temperature, constants::crankcase_surface_min, constants::engine_temperature_max, "degC", "60 degC",
+      "coldest metal the blow-by wets (breather, covers)", "Operation::coldest_crankcase_surface");
+  b.q("oil-temperature", K::temperature, constants::engine_temperature_min, constants::engine_temperature_max, "degC", "88 degC", "sump oil",
+      "Segment::oil_temperature");
+  b.q("crankcase-pressure", K::pressure, 5e4, 2e5, "kPa", "101.325 kPa", "absolute", "Operation::crankcase_pressure");
+  b.q("exhaust-pressure", K::pressure, 5e4, 5e5, "kPa", "101.325 kPa", "absolute, at the heat-recovery exchanger",
+      "Operation::exhaust_pressure");
+  b.q("exhaust-temperature", K::temperature, 400, 1500, "degC", "450 degC", "for the SO3 equilibrium bound",
+      "EngineCase::exhaust_temperature");
+  b.q("start-every", K::duration, 0.1, 1e6, "h", "no starts", "running hours between starts", "Segment::starts");
+  b.other("nox", T::special, "0",
+          "engine-out NOx as NO2: `<n> mg/Nm3 at <n> % O2` (dry, 0 °C) or `<n> g/kWh`", "Operation::nox");
+
+  // ---- oil
+  b.section = "oil";
+  cal(b.q("volume", K::volume, 1e-3, 100, "L", "required", "oil in circulation (sump, tank, cooler, filters) at 15 °C",
+          "OilCharge::mass (× density)"));
+  b.q("density", K::density, 600, 1200, "kg/m3", "880 kg/m3", "at 15 °C", "OilProperties::density_15");
+  cal(b.q("fresh-tbn", K::acid_number, 0.5, 80, "mg KOH/g", "6 mg KOH/g", "fresh-oil base number by `tbn-method`",
+          "OilProperties::fresh_tbn"));
+  b.w("tbn-method", {"D2896", "D4739"}, "D2896", "the method of `fresh-tbn`", "OilProperties::fresh_tbn_method");
+  b.q("fresh-tan", K::acid_number, 0, 20, "mg KOH/g", "1.5 mg KOH/g", "fresh-oil acid number (D664)", "OilProperties::fresh_tan");
+  b.q("consumption", K::specific_consumption, 0, 5e-9, "g/kWh", "0.2 g/kWh", "oil burnt", "Segment::oil_consumption");
+  b.w("makeup", {"continuous", "top-ups"}, "continuous",
+      "makeup keeps the level, or the level falls until a `top-up` event", "OilCharge::continuous_makeup");
+  b.q("residual-share", K::fraction, 0, 0.9, "%", "10 %", "of the charge left in the system at an oil change",
+      "OilCharge::residual_share");
+
+  // ---- model (ranges: the core validators in core/transfer.cpp and core/oil.cpp)
+  b.section = "model";
+  cal(b.q("so3-share", K::fraction, 0, 1, "%", "2 %", "ε, fuel S to SO3 in the cylinder", "TransferParameters::so3_share"));
+  cal(b.q("liner-uptake", K::fraction, 0, 0.1, "%", "0.025 %", "λ_L, share of fuel S taken up on the liner per 10 K of subcooling",
+          "TransferParameters::liner_uptake"));
+  open_low(b.q("liner-subcooling-scale", K::temperature_change, 0, inf, "K", "5 K", "ΔT_s of the softplus",
+               "TransferParameters::liner_subcooling_scale"));
+  cal(b.q("liner-wall-rise", K::temperature_change, 0, 200, "K", "40 K", "lower liner wall over jacket-water outlet at full load",
+          "TransferParameters::liner_wall_rise"));
+  b.q("liner-wall-rise-load-exponent", K::number, 0, 3, "", "1", "rise ∝ load^exponent",
+      "TransferParameters::liner_wall_rise_load_exponent");
+  b.q("liner-pressure", K::pressure, 1e5, 300e5, "bar", "30 bar", "cylinder pressure at which acid condenses on the liner",
+      "TransferParameters::liner_pressure");
+  b.q("cylinder-dew-point-offset", K::temperature_change, -100, 100, "K", "0 K", "added to the correlation's in-cylinder dew point",
+      "TransferParameters::cylinder_dew_point_offset");
+  cal(b.q("burnt-share-of-blow-by", K::fraction, 0, 1, "%", "70 %", "burnt gas in the blow-by",
+          "TransferParameters::burnt_share_of_blowby"));
+  b.q("capture-so3", K::fraction, 0, 1, "%", "100 %", "κ, SO3 taken up from the blow-by", "TransferParameters::capture_so3");
+  b.q("capture-hcl", K::fraction, 0, 1, "%", "100 %", "κ, HCl taken up from the blow-by", "TransferParameters::capture_hcl");
+  b.q("capture-hf", K::fraction, 0, 1, "%", "100 %", "κ, HF taken up from the blow-by", "TransferParameters::capture_hf");
+  cal(b.q("capture-so2", K::fraction, 0, 1, "%", "10 %", "κ_SO2, SO2 taken up by fresh oil in a dry crankcase",
+          "TransferParameters::capture_so2"));
+  cal(b.q("capture-no2", K::fraction, 0, 1, "%", "1 %", "κ_N, NO2 taken up", "TransferParameters::capture_no2"));
+  cal(b.q("wet-so2-factor", K::number, 1, 100, "", "3", "SO2 uptake wet over dry", "TransferParameters::wet_so2_factor"));
+  open_low(b.q("wetness-scale", K::temperature_change, 0, inf, "K", "3 K", "width of the condensation step at the coldest surface",
+               "TransferParameters::wetness_scale"));
+  b.q("warm-up-time", K::duration, 0, 24, "h", "0.5 h", "a start keeps the crankcase wet this long", "TransferParameters::warmup_hours");
+  b.w("oxidation-law", {"doubling", "arrhenius"}, "doubling", "how the oxidation rate follows temperature", "OxidationLaw::kind");
+  cal(b.q("oxidation-rate", K::oxidation_rate, 0, 10, "A/cm/h", "0.008 A/cm/h", "k_ox at the reference temperature",
+          "OxidationLaw::rate_at_reference"));
+  b.q("oxidation-reference-temperature", K::temperature, 273.15, 573.15, "degC", "120 degC", "of the ring zone",
+      "OxidationLaw::reference_temperature");
+  b.q("oxidation-doubling-interval", K::temperature_change, 1, 50, "K", "10 K", "rise that doubles the rate (`doubling`)",
+      "OxidationLaw::doubling_interval");
+  b.q("activation-energy", K::molar_energy, 1e3, 400e3, "kJ/mol", "80 kJ/mol", "for `arrhenius`", "OxidationLaw::activation_energy");
+  cal(b.q("ring-zone-offset", K::temperature_change, 0, 150, "K", "30 K", "ring zone over sump oil", "OxidationLaw::ring_zone_offset"));
+  cal(b.q("organic-acid-yield", K::number, 0, 5, "", "0.08", "α, mg KOH/g of organic acid per A/cm of oxidation",
+          "OxidationLaw::organic_acid_yield"));
+  cal(b.q("nitration-yield", K::number, 0, 1e6, "", "1500", "A/cm of nitration per mol/kg of NO2 taken up",
+          "OxidationLaw::nitration_yield"));
+  cal(b.q("weak-base-d2896", K::acid_number, 0, 10, "mg KOH/g", "0.6 mg KOH/g", "weak base D2896 titrates that neutralises no acid",
+          "OilProperties::weak_base_d2896"));
+  cal(b.q("weak-base-d4739", K::acid_number, 0, 10, "mg KOH/g", "0 mg KOH/g", "weak base D4739 titrates that neutralises no acid",
+          "OilProperties::weak_base_d4739"));
+  cal(b.q("base-floor", K::acid_number, 0, 40, "mg KOH/g", "1 mg KOH/g", "reactive base below which strong acid stays free",
+          "OilProperties::base_floor"));
+  cal(b.q("additive-depletion", K::per_hour, 0, 1, "1/h", "2e-4 1/h", "loss rate of the additive's own acidity",
+          "OilProperties::additive_depletion"));
+  cal(b.q("salt-titration-share", K::fraction, 0, 1, "%", "20 %", "β, neutralised salts still titrating in TAN",
+          "OilProperties::salt_titration_share"));
+  cal(b.q("organic-neutralised-share", K::fraction, 0, 1, "%", "50 %", "φ_B, organic acids neutralised by the base",
+          "OilProperties::organic_neutralised_share"));
+
+  // ---- limits (defaults: common practice, no single source)
+  b.section = "limits";
+  b.q("tbn-share-of-fresh", K::fraction, 0, 1, "%", "50 %", "TBN at or below this share of fresh", "LimitSettings::tbn_share_of_fresh");
+  b.w("tbn-method", {"D2896", "D4739"}, "D4739", "method both TBNs are read by", "LimitSettings::tbn_method");
+  b.q("tan-rise", K::acid_number, 0, 50, "mg KOH/g", "2 mg KOH/g", "TAN at or above fresh + this", "LimitSettings::tan_rise");
+  b.other("crossover", T::flag, "true", "TAN at or above TBN", "LimitSettings::crossover");
+  b.q("san", K::acid_number, 0, 50, "mg KOH/g", "0 mg KOH/g", "SAN above this (0: any free strong acid)", "LimitSettings::san");
+  b.q("oxidation", K::oxidation, 0, 1000, "A/cm", "20 A/cm", "FTIR oxidation limit", "LimitSettings::oxidation");
+  b.q("nitration", K::oxidation, 0, 1000, "A/cm", "20 A/cm", "FTIR nitration limit", "LimitSettings::nitration");
+  b.q("max-hours", K::duration, 1, 1e6, "h", "8000 h", "hours cap on a charge", "LimitSettings::max_hours");
+  b.other("ignore", T::list, "–",
+          "limits switched off: `tbn-fall`, `tan-rise`, `crossover`, `san`, `oxidation`, `nitration`, `max-hours`",
+          "LimitSettings::enabled");
+
+  // ---- run
+  b.section = "run";
+  b.q("hours", K::duration, 1, 1e7, "h", "max-hours", "horizon without a record", "Segment::hours");
+  b.q("output-interval", K::duration, 0, 1e6, "h", "horizon / 400", "trajectory points at least this often (0: the default)",
+      "RunOptions::output_interval");
+  b.q("detection-step", K::duration, 0.01, 1e6, "h", "25 h", "limits checked at least this often", "RunOptions::detection_step");
+
+  // ---- record
+  b.section = "record";
+  alt(b.other("file", T::text, "–", "a CSV record, relative to the file that names it", "EngineCase::record"), "segments");
+  alt(b.other("segments", T::list, "–", "inline segments, each with its `hours`", "EngineCase::record"), "file");
+
+  b.section = "segment";
+  b.q("hours", K::duration, 0, 1e6, "h", "required", "running hours of the segment", "Segment::hours");
+  b.q("calendar-hours", K::duration, 0, 1e7, "h", "= hours", "calendar time of the segment (standstill included)",
+      "Segment::calendar_hours");
+  b.q("starts", K::count, 0, 1e6, "", "from start-every", "engine starts during the segment", "Segment::starts");
+  b.c("h2s", "hydrogen sulfide", "FuelAnalysis::h2s");
+  b.c("other-sulfur", "other sulfur, as S", "FuelAnalysis::other_sulfur");
+  b.c("chlorine", "organic chlorine, as Cl", "FuelAnalysis::chlorine");
+  b.c("fluorine", "organic fluorine, as F", "FuelAnalysis::fluorine");
+  alt(b.q("power", K::power, 0, 1e8, "kW", "previous", "electrical output", "Operation::electrical_power"), "load");
+  alt(b.q("load", K::fraction, 0.05, 1.2, "%", "previous", "instead of `power`: share of `rated-power`", "Operation::load"), "power");
+  b.q("jacket-water-out", K::temperature, constants::engine_temperature_min, constants::engine_temperature_max, "degC", "previous",
+      "jacket-water outlet", "Operation::jacket_water_out");
+  b.q("oil-temperature", K::temperature, constants::engine_temperature_min, constants::engine_temperature_max, "degC", "previous", "sump oil",
+      "Segment::oil_temperature");
+  b.q("coldest-crankcase-surface", K::temperature, constants::crankcase_surface_min, constants::engine_temperature_max, "degC", "previous",
+      "coldest metal the blow-by wets", "Operation::coldest_crankcase_surface");
+  b.q("blow-by", K::fraction, 0, 0.1, "%", "previous", "blow-by as a share of the charge", "Operation::blowby_share");
+  b.q("excess-air-ratio", K::number, 1, 4, "", "previous", "λ", "Air::excess_air_ratio");
+  b.w("event", {"oil-change", "top-up", "partial-drain"}, "–", "an event applied before the segment", "Segment::events");
+  b.other("event-amount", T::special, "see below",
+          "oil change: residual share (default `residual-share`); top-up: a volume (default back to full); "
+          "partial drain: the share drained (required)",
+          "OilEvent::amount");
+
+  // ---- uncertainty
+  b.section = "uncertainty";
+  b.q("draws", K::count, 1, max_draws, "", "10000", "number of draws (at most 1e6: about 3 h of one core for a one-year hourly record)", "UncertaintySettings::draws");
+  b.q("seed", K::count, 0, 9e15, "", "1", "seed of the counter-based random stream", "UncertaintySettings::seed");
+  b.other("inputs", T::list, "required", "the uncertain inputs (below)", "UncertaintySettings::inputs");
+
+  b.section = "uncertain-input";
+  b.other("parameter", T::special, "required", "a calibratable key, e.g. `model.so3-share` or `fuel.h2s`", "UncertainInput::key");
+  b.w("distribution", {"normal", "lognormal", "uniform", "triangular"}, "required", "the distribution's shape",
+      "Distribution::kind");
+  b.other("mean", T::special, "–", "normal: the mean, in the parameter's units", "Distribution::a");
+  b.other("sd", T::special, "–", "normal: the standard deviation, in the parameter's units", "Distribution::b");
+  b.other("median", T::special, "–", "lognormal: the median, in the parameter's units", "Distribution::a");
+  b.other("sigma-log", T::special, "–", "lognormal: the standard deviation of the logarithm, a bare number", "Distribution::b");
+  b.other("low", T::special, "–", "uniform, triangular: the low end, in the parameter's units", "Distribution::a");
+  b.other("mode", T::special, "–", "triangular: the mode, in the parameter's units", "Distribution::b");
+  b.other("high", T::special, "–", "uniform, triangular: the high end, in the parameter's units", "Distribution::b or ::c");
+  return b.keys;
+}
+
+const std::map<std::string, std::vector<std::string>, std::less<>>& sections() {
+  static const auto s = [] {
+    std::map<std::string, std::vector<std::string>, std::less<>> m;
+    for (const CaseKey& k : case_keys()) {
+      m[k.section()].push_back(k.key());
+      if (k.layer) {
+        m["overlay"].push_back(k.key());
+        m["variant"].push_back(k.key());
+      }
+    }
+    m["overlay"].insert(m["overlay"].begin(), {"format-version", "case"});
+    m["variant"].insert(m["variant"].begin(), "name");
+    return m;
+  }();
+  return s;
+}
+
+}  // namespace
+
+std::string CaseKey::section() const {
+  const auto dot = path.rfind('.');
+  return dot == std::string::npos ? std::string() : path.substr(0, dot);
+}
+
+std::string CaseKey::key() const {
+  const auto dot = path.rfind('.');
+  return dot == std::string::npos ? path : path.substr(dot + 1);
+}
+
+bool CaseKey::in_range(double v) const {
+  return std::isfinite(v) && (low_open ? v > low : v >= low) && v <= high;
+}
+
+std::string CaseKey::range_text(std::string_view written) const {
+  std::string u(written);
+  bool known = u.empty() ? (kind == Kind::fraction || kind == Kind::count || kind == Kind::number) : false;
+  for (const auto& a : accepted_units(kind)) known |= a == u;
+  if (!known || (u.empty() && kind == Kind::fraction)) u = unit;
+  const auto show = [&](double v) {  // six significant digits: a range, not a round-trip value
+    char buf[32];
+    std::snprintf(buf, sizeof buf, "%.6g", from_core_unit(kind, u, v));
+    return std::string(buf);
+  };
+  const std::string tail = u.empty() ? "" : " " + u;
+  if (std::isinf(high)) return (low_open ? "above " : "at least ") + show(low) + tail;
+  return (low_open ? "above " + show(low) + " and up to " : "from " + show(low) + " to ") + show(high) + tail;
+}
+
+const std::vector<CaseKey>& case_keys() {
+  static const std::vector<CaseKey> t = build_table();
+  return t;
+}
+
+const CaseKey* find_case_key(std::string_view path) {
+  static const auto index = [] {
+    std::map<std::string, const CaseKey*, std::less<>> m;
+    for (const CaseKey& k : case_keys()) m[k.path] = &k;
+    return m;
+  }();
+  const auto it = index.find(path);
+  return it == index.end() ? nullptr : it->second;
+}
+
+const CaseKey& case_key(std::string_view path) {
+  if (const CaseKey* k = find_case_key(path)) return *k;
+  std::vector<std::string> all;
+  for (const CaseKey& k : case_keys()) all.push_back(k.path);
+  throw InputError("key", std::string(path), "a key of the case format, one of: " + detail::join(all));
+}
+
+const std::vector<std::string>& section_keys(std::string_view section) {
+  const auto it = sections().find(section);
+  if (it == sections().end()) throw InputError("section", std::string(section), "a section of the case format");
+  return it->second;
+}
+
+const std::vector<std::string>& calibratable_keys() {
+  static const std::vector<std::string> k = [] {
+    std::vector<std::string> v;
+    for (const CaseKey& c : case_keys())
+      if (c.calibratable) v.push_back(c.path);
+    return v;
+  }();
+  return k;
+}
+
+std::string_view kind_id(Kind k) {
+  switch (k) {
+    case Kind::temperature: return "temperature";
+    case Kind::temperature_change: return "temperature_change";
+    case Kind::power: return "power";
+    case Kind::volume: return "volume";
+    case Kind::mass: return "mass";
+    case Kind::molar_flow: return "molar_flow";
+    case Kind::fraction: return "fraction";
+    case Kind::acid_number: return "acid_number";
+    case Kind::specific_consumption: return "specific_consumption";
+    case Kind::duration: return "duration";
+    case Kind::pressure: return "pressure";
+    case Kind::density: return "density";
+    case Kind::per_hour: return "per_hour";
+    case Kind::oxidation: return "oxidation";
+    case Kind::oxidation_rate: return "oxidation_rate";
+    case Kind::molar_energy: return "molar_energy";
+    case Kind::count: return "count";
+    case Kind::number: return "number";
+  }
+  return "number";
+}
+
+}  // namespace acidload::io
