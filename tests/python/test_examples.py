@@ -66,7 +66,7 @@ def test_notebook_runs_headless_and_shows_the_programs_intervals(tmp_path, monke
     assert set(shown) == set(SCRUBBING)
     for name in SCRUBBING:
         assert abs(shown[name] - expected[name]) <= 5e-4, (name, shown[name], expected[name])
-    assert "H2S for 4000 h:" in text
+    assert "H2S for 1500 h:" in text
 
 
 def test_script_writes_a_png(tmp_path):

@@ -27,7 +27,7 @@ void validate(const TransferParameters& p) {
   check::fraction("model.capture-hf", p.capture_hf);
   check::fraction("model.capture-so2", p.capture_so2);
   check::in_range("model.wet-so2-factor", p.wet_so2_factor, 1.0, 100.0, "");
-  check::in_range("model.wetness-width", p.wetness_width, 0.1, 100.0, "K");
+  check::positive("model.wetness-width", p.wetness_width);
   check::in_range("model.warm-up-time", p.warmup_hours, 0.0, 24.0, "h");
   check::fraction("model.warm-up-start-load", p.warmup_start_load);
   check::in_range("model.load-ramp-time", p.load_ramp_hours, 0.0, 24.0, "h");
@@ -47,9 +47,6 @@ void validate(const Operation& op) {
   check::in_range("engine.exhaust-pressure", op.exhaust_pressure, 5e4, 5e5, "Pa");
   check::in_range("engine.starts-per-hour", op.starts_per_hour, 0.0, 10.0, "1/h");
   check::in_range("engine.jacket-water-at-start", op.jacket_water_at_start, 233.15, 423.15, "K");
-  if (op.jacket_water_at_start > op.jacket_water_out)
-    throw InputError("engine.jacket-water-at-start", format_value(op.jacket_water_at_start) + " K",
-                     "at most the running jacket-water outlet temperature (" + format_value(op.jacket_water_out) + " K)");
 }
 
 double AcidInflow::strong_koh() const {
@@ -151,6 +148,7 @@ Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParame
   t.unburnt_fluorine = bb_unburnt_fuel * fuel.fluorine;
 
   // Liner path: acid condensing on the liner below the in-cylinder acid dew point.
+  const double jacket_start = std::fmin(op.jacket_water_at_start, op.jacket_water_out);  // a warm standby never cools it
   t.liner_temperature = op.jacket_water_out + p.liner_wall_rise * std::pow(op.load, p.liner_wall_rise_load_exponent);
   if (c.products[i(Gas::SO3)] > 0) {
     const double pw = c.wet_fraction(Gas::H2O) * p.liner_pressure;
@@ -160,7 +158,7 @@ Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParame
     t.liner_share = p.liner_uptake * liner_uptake_factor(t.liner_subcooling, p.liner_subcooling_scale);
     // cold running: after each start the liner is colder while jacket water and load come up
     if (op.starts_per_hour > 0)
-      t.warmup_liner_per_start = warmup_liner_extra(t.cylinder_acid_dew_point, op.jacket_water_at_start,
+      t.warmup_liner_per_start = warmup_liner_extra(t.cylinder_acid_dew_point, jacket_start,
                                                     op.jacket_water_out, p.warmup_hours, p.liner_wall_rise,
                                                     p.liner_wall_rise_load_exponent, op.load, p.warmup_start_load,
                                                     p.load_ramp_hours, p.liner_subcooling_scale);
@@ -174,7 +172,7 @@ Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParame
                        "parameters that keep the liner uptake below half the fuel sulfur (it is " +
                            format_value(t.liner_share + p.liner_uptake * std::fmax(0.0, per_hour)) + ")");
   }
-  t.liner_temperature_at_start = warmup_liner_wall(0, op.jacket_water_at_start, op.jacket_water_out, p.warmup_hours,
+  t.liner_temperature_at_start = warmup_liner_wall(0, jacket_start, op.jacket_water_out, p.warmup_hours,
                                                    p.liner_wall_rise, p.liner_wall_rise_load_exponent, op.load,
                                                    p.warmup_start_load, p.load_ramp_hours);
   // Liner uptake: a share of the fuel S, taken from the cylinder gas's SO2 and SO3 in proportion.

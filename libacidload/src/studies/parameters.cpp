@@ -20,6 +20,10 @@ const std::vector<ParameterInfo>& parameter_table() {
       {"model.ring-zone-offset", "K", Bound::positive},
       {"model.organic-acid-yield", "mg KOH/g per A/cm", Bound::positive},
       {"model.nitration-yield", "A/cm per mol/kg", Bound::positive},
+      {"model.induction-time", "h", Bound::positive},
+      {"model.depleted-oxidation-factor", "-", Bound::positive},
+      {"model.viscosity-per-oxidation", "per A/cm", Bound::positive},
+      {"model.viscosity-per-nitration", "per A/cm", Bound::positive},
       {"model.weak-base-d2896", "mg KOH/g", Bound::positive},
       {"model.weak-base-d4739", "mg KOH/g", Bound::positive},
       {"model.base-floor", "mg KOH/g", Bound::positive},
@@ -62,6 +66,10 @@ double* field(EngineCase& c, std::string_view key, std::size_t segment) {
   if (key == "model.ring-zone-offset") return &o.ring_zone_offset;
   if (key == "model.organic-acid-yield") return &o.organic_acid_yield;
   if (key == "model.nitration-yield") return &o.nitration_yield;
+  if (key == "model.induction-time") return &o.induction_hours;
+  if (key == "model.depleted-oxidation-factor") return &o.depleted_factor;
+  if (key == "model.viscosity-per-oxidation") return &oil.viscosity_per_oxidation;
+  if (key == "model.viscosity-per-nitration") return &oil.viscosity_per_nitration;
   if (key == "model.weak-base-d2896") return &oil.weak_base_d2896;
   if (key == "model.weak-base-d4739") return &oil.weak_base_d4739;
   if (key == "model.base-floor") return &oil.base_floor;
