@@ -31,6 +31,8 @@ TEST_CASE("ppmv to mg/Nm3 of SO2 and NO2 at 0 degC, 101.325 kPa") {
   REFERENCE_CHECK("NO2 mg/Nm3 per ppmv", e.nox.mg_per_m3_dry / (e.nox.ppmv_dry), 46.005 / 22.413970, relative, 2e-4,
                   "mg/Nm3", "M/V_m, IUPAC 2011 masses, CODATA V_m [derived]");
   CHECK(e.so2.ppmv_dry == doctest::Approx(1e6 / total).epsilon(1e-12));
+  // the same M/V_m on the wet basis (here the stream is dry: wet and dry agree)
+  CHECK(e.so2.mg_per_m3_wet / e.so2.ppmv_wet == doctest::Approx(e.so2.mg_per_m3_dry / e.so2.ppmv_dry).epsilon(1e-12));
   CHECK(e.so2.ppmv_dry_at_ref == doctest::Approx(e.so2.ppmv_dry * 0.16 / (0.21 - 0.05e6 / total)).epsilon(1e-12));
 }
 
