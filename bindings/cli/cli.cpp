@@ -5,6 +5,13 @@
 #include <cmath>
 #include <cstdlib>
 
+#include <unistd.h>
+
+#include <chrono>
+#include <condition_variable>
+#include <mutex>
+#include <thread>
+
 #include "acidload/core/error.hpp"
 
 namespace acidload_cli {
@@ -184,6 +191,65 @@ const acidload::EngineCase& pick_variant(const acidload::io::CaseFile& c, const 
     names += (names.empty() ? "" : ", ") + v.name;
   }
   throw acidload::InputError("--variant", name, "a variant of " + c.file + ": " + names);
+}
+
+struct ProgressLine::State {
+  std::string what;
+  std::mutex m;
+  std::condition_variable cv;
+  bool done = false;
+  std::thread worker;
+};
+
+ProgressLine::ProgressLine(std::string what) {
+  if (!isatty(STDERR_FILENO)) return;
+  state_ = new State;
+  state_->what = terminal_safe(what);
+  state_->worker = std::thread([s = state_] {
+    using clock = std::chrono::steady_clock;
+    const auto start = clock::now();
+    bool shown = false;
+    std::unique_lock<std::mutex> lock(s->m);
+    while (!s->cv.wait_for(lock, std::chrono::milliseconds(500), [s] { return s->done; })) {
+      const double t = std::chrono::duration<double>(clock::now() - start).count();
+      if (t < 1) continue;
+      std::fprintf(stderr, "\racidload: %s … %.0f s ", s->what.c_str(), t);
+      std::fflush(stderr);
+      shown = true;
+    }
+    if (shown) std::fprintf(stderr, "\r%*s\r", static_cast<int>(s->what.size() + 24), "");
+  });
+}
+
+ProgressLine::~ProgressLine() {
+  if (!state_) return;
+  {
+    std::lock_guard<std::mutex> lock(state_->m);
+    state_->done = true;
+  }
+  state_->cv.notify_one();
+  state_->worker.join();
+  delete state_;
+}
+
+std::string terminal_safe(const std::string& text) {
+  std::string o;
+  o.reserve(text.size());
+  for (std::size_t i = 0; i < text.size(); ++i) {
+    const unsigned char ch = static_cast<unsigned char>(text[i]);
+    char b[16];
+    if ((ch < 0x20 && ch != '\n' && ch != '\t') || ch == 0x7f) {
+      std::snprintf(b, sizeof b, "\\x%02x", ch);
+      o += b;
+    } else if (ch == 0xc2 && i + 1 < text.size() && static_cast<unsigned char>(text[i + 1]) >= 0x80 &&
+               static_cast<unsigned char>(text[i + 1]) <= 0x9f) {
+      std::snprintf(b, sizeof b, "\\u%04x", static_cast<unsigned char>(text[++i]));
+      o += b;
+    } else {
+      o += static_cast<char>(ch);
+    }
+  }
+  return o;
 }
 
 std::vector<std::string> split_list(const std::string& text) {

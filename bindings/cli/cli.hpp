@@ -80,6 +80,21 @@ class Options {
   std::vector<Positional> positionals_;
 };
 
+//! A progress line on standard error, only when it is a terminal: after the first second of work,
+//! "acidload: WHAT … N s" refreshed twice a second from a thread of its own (the library's loops
+//! are not touched), cleared when the work ends.
+class ProgressLine {
+ public:
+  explicit ProgressLine(std::string what);
+  ~ProgressLine();
+  ProgressLine(const ProgressLine&) = delete;
+  ProgressLine& operator=(const ProgressLine&) = delete;
+
+ private:
+  struct State;
+  State* state_ = nullptr;
+};
+
 // ---- values from the command line ----------------------------------------------------------
 //! A quantity option ("4000 h"): a value that does not parse is a UsageError (2); one that parses
 //! but lies outside what the kind allows (e.g. '-300 degC') is an InputError (3).
@@ -90,6 +105,9 @@ std::uint64_t count_option(const std::string& text, const char* option, double l
 //! The variant named (the first when `name` is empty); an InputError (3) listing the case's
 //! variants when there is none of that name.
 const acidload::EngineCase& pick_variant(const acidload::io::CaseFile& c, const std::string& name);
+//! Text for a terminal: control characters other than newline and tab (ESC, CR, BEL, DEL, the C1
+//! controls U+0080–U+009F) shown as \xNN or \u00NN, so names in a case cannot drive the terminal.
+std::string terminal_safe(const std::string& text);
 //! A comma-separated list ("a,b,c"), empty items dropped.
 std::vector<std::string> split_list(const std::string& text);
 

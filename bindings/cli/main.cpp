@@ -55,7 +55,8 @@ struct Gathered {
   }
   void copy_to_stdout() {
     std::fflush(f);
-    std::fwrite(data, 1, size, stdout);
+    const std::string text = terminal_safe(std::string(data, size));
+    std::fwrite(text.data(), 1, text.size(), stdout);
     std::fflush(stdout);
   }
 };
@@ -103,25 +104,25 @@ int main(int argc, char** argv) {
   try {
     return dispatch(argc, argv);
   } catch (const UsageError& e) {
-    std::fprintf(stderr, "acidload: %s (try acidload --help)\n", e.what());
+    std::fprintf(stderr, "acidload: %s (try acidload --help)\n", terminal_safe(e.what()).c_str());
     return exit_usage;
   } catch (const acidload::InputError& e) {
-    std::fprintf(stderr, "acidload: %s\n", e.what());
+    std::fprintf(stderr, "acidload: %s\n", terminal_safe(e.what()).c_str());
     return exit_bad_input;
   } catch (const acidload::FitRefusedError& e) {
-    std::fprintf(stderr, "acidload: fit refused: %s\n", e.what());
+    std::fprintf(stderr, "acidload: fit refused: %s\n", terminal_safe(e.what()).c_str());
     return exit_bad_input;
   } catch (const acidload::NoAnswerError& e) {
-    std::fprintf(stderr, "acidload: no answer: %s\n", e.what());
+    std::fprintf(stderr, "acidload: no answer: %s\n", terminal_safe(e.what()).c_str());
     return exit_bad_input;
   } catch (const acidload::NotModelledError& e) {
-    std::fprintf(stderr, "acidload: not modelled: %s\n", e.what());
+    std::fprintf(stderr, "acidload: not modelled: %s\n", terminal_safe(e.what()).c_str());
     return exit_bad_input;
   } catch (const acidload::Error& e) {
-    std::fprintf(stderr, "acidload: %s\n", e.what());
+    std::fprintf(stderr, "acidload: %s\n", terminal_safe(e.what()).c_str());
     return exit_bad_input;
   } catch (const std::exception& e) {
-    std::fprintf(stderr, "acidload: internal error: %s\n", e.what());
+    std::fprintf(stderr, "acidload: internal error: %s\n", terminal_safe(e.what()).c_str());
     return exit_internal;
   }
 }

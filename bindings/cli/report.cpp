@@ -13,6 +13,15 @@ using namespace acidload;
 
 namespace {
 double c_of(double kelvin) { return kelvin - constants::zero_celsius; }
+// A name in a table column of `width` characters: longer names are cut with "…" so the columns
+// stay aligned (the full name is in summary.json, trajectories.csv and acidload check).
+std::string in_column(const std::string& name, std::size_t width) {
+  std::size_t chars = 0, cut = name.size();
+  for (std::size_t i = 0; i < name.size(); ++i)
+    if ((static_cast<unsigned char>(name[i]) & 0xC0) != 0x80 && ++chars == width) cut = i;
+  if (chars <= width) return name + std::string(width - chars, ' ');
+  return name.substr(0, cut) + "…";
+}
 const char* method_name(BaseNumberMethod m) { return m == BaseNumberMethod::d2896 ? "D2896" : "D4739"; }
 
 // The dew points and walls of cold running, and the exhaust, of a variant's first segment.
@@ -101,8 +110,8 @@ void print_comparison(std::FILE* out, const io::CaseFile& c, const std::vector<V
     else outcome = "no limit in the record (" + hours(v.charge.oil_hours) + ")";
     char avg[16] = "    -";
     if (v.sulfur_share_to_oil_average >= 0) std::snprintf(avg, sizeof avg, "%5.3f", v.sulfur_share_to_oil_average * 100);
-    std::fprintf(out, "%-31s %5.2f %5.2f %5.2f %5.2f %5.2f %5.3f %5s %5.3f %5.3f %-25s %5.2f %5.2f %5.2f %6.1f\n",
-                 v.name.c_str(), v.inflow_koh.sulfuric, v.inflow_koh.sulfurous_fresh, v.inflow_koh.hydrochloric,
+    std::fprintf(out, "%s %5.2f %5.2f %5.2f %5.2f %5.2f %5.3f %5s %5.3f %5.3f %-25s %5.2f %5.2f %5.2f %6.1f\n",
+                 in_column(v.name, 31).c_str(), v.inflow_koh.sulfuric, v.inflow_koh.sulfurous_fresh, v.inflow_koh.hydrochloric,
                  v.inflow_koh.hydrofluoric, v.inflow_koh.nitric, v.sulfur_share_to_oil * 100, avg, -v.initial_tbn_rate * 100,
                  -v.tbn_fall_rate_average * 100, outcome.c_str(), v.tbn_end, v.tan_end, v.san_end,
                  v.dew_points.sulfuric > 0 ? c_of(v.dew_points.sulfuric) : 0.0);
@@ -124,6 +133,10 @@ void print_comparison(std::FILE* out, const io::CaseFile& c, const std::vector<V
       }
   }
   const LimitSettings& l = c.variants.front().model.limits;
+  std::fprintf(out, "\nUnits: acid into the oil in g KOH/h; S to oil %% = share of the fuel's sulfur; TBN fall in mg KOH/g\n"
+                    "per 100 h (summary.json gives the rates per hour and negative, initial-tbn-rate-mg-koh-per-g-per-h and\n"
+                    "tbn-rate-charge-average-mg-koh-per-g-per-h, and the sulfur shares as fractions); TBN, TAN, SAN in\n"
+                    "mg KOH/g; dew point in degC.\n");
   std::fprintf(out, "\nTBN by %s at the drain interval (or at the end of the record). 'fresh': the fresh charge in the first\n"
                     "segment (SO2 uptake falls as the base is used); 'avg': averaged over the charge to its first limit.\n"
                     "'no limit within N h': no oil-condition limit before the planned maximum hours (limits.max-hours).\n",

@@ -109,7 +109,7 @@ with tempfile.TemporaryDirectory() as tmp:
     r = run("run", "cases/demo-site.yaml", "--out", str(blocker))
     if r.returncode == 0 or blocker.read_text() != "keep me":
         fail("an output path that is a file was overwritten")
-    if any(p.name.startswith(".blocker") for p in tmp.iterdir()):
+    if any(p.name.startswith(".acidload-tmp-") for p in tmp.iterdir()):
         fail("a failed write left a temporary folder behind")
     checks += 2
 
@@ -219,6 +219,31 @@ r = run("--help")
 checks += 1
 if "2  the command line cannot be parsed" not in r.stdout or "3  a file or a well-formed value" not in r.stdout:
     fail("acidload --help does not state the exit-code rule")
+
+# charges numbered from 1 in trajectories.csv (as the console and the lab CSV); long variant names
+# keep the table's columns; "an acid or base number" (issue rules, README)
+with tempfile.TemporaryDirectory() as tmp:
+    tmp = pathlib.Path(tmp)
+    r = run("run", "cases/drifting-gas.yaml", "--out", str(tmp / "o"))
+    rows = (tmp / "o" / "trajectories.csv").read_text().splitlines()[1:]
+    charges = sorted({int(x.split(",")[1]) for x in rows})
+    checks += 1
+    if not charges or charges[0] != 1:
+        fail(f"trajectories.csv numbers charges {charges[:3]}, expected from 1")
+    long_case = tmp / "long.yaml"
+    long_case.write_text((root / "cases" / "demo-site.yaml").read_text().replace(
+        "name: TBN 9 oil ", "name: TBN 9 oil with a very long variant name that goes on and on "))
+    r = run("run", str(long_case))
+    table = [x for x in r.stdout.splitlines() if x.endswith(("113.2", "99.4", "86.8"))]
+    checks += 1
+    if len({x.index(" h ") for x in table if " h " in x}) != 1:
+        fail(f"a long variant name breaks the table's columns: {table}")
+    bad = tmp / "tbn.yaml"
+    bad.write_text((root / "cases" / "demo-site.yaml").read_text().replace("fresh-tbn: 6.0 mg KOH/g", "fresh-tbn: six"))
+    r = run("check", str(bad))
+    checks += 1
+    if "an acid or base number" not in r.stderr:
+        fail(f"expected 'an acid or base number' in: {r.stderr[:200]}")
 
 r = run("--version")
 cmake = (root / "CMakeLists.txt").read_text()

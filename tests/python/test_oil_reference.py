@@ -168,7 +168,7 @@ def test_demo_case_trajectory_with_floor_crossing_and_san():
     state = ref.State(mass=720e-3 * 880, base=5.4, additive_acidity=1.5)
     rates = dict(v.rates)  # k_A and m come with the rates (k_A from the oxidation law: docs/model.md §16)
     hours = tr["oil_hours"]
-    assert np.all(tr["charge"] == 0) and np.all(np.diff(hours) > 0)
+    assert np.all(tr["charge"] == 1) and np.all(np.diff(hours) > 0)
     crossings = []
     for i in range(1, len(hours)):
         res = ref.integrate(rates, k_ref, state, hours[i] - hours[i - 1])

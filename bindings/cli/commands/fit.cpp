@@ -17,7 +17,7 @@ FitOptions parse(const std::vector<std::string>& args) {
 int run(const std::vector<std::string>& args, std::FILE* out) {
   const FitOptions o = parse(args);
   const FitRun r = fit_case(o);
-  if (!o.write_overlay.empty()) acidload::io::write_overlay(o.write_overlay, r.fit, o.case_file, o.lab);
+  if (!o.write_overlay.empty()) acidload::io::write_overlay(o.write_overlay, r.fit, o.case_file, o.lab, o.overlays);
   print_fit(out, *r.variant, r.fit);
   if (!o.write_overlay.empty())
     std::fprintf(out, "\nOverlay written to %s: acidload run %s --overlay %s\n", o.write_overlay.c_str(),
@@ -38,7 +38,9 @@ extern const Command fit_command{
     "precision, bounded parameters in log/logit space). Prints estimates with standard errors, their\n"
     "correlations, the residual of every reading, the reduced chi-square and flags for outliers and\n"
     "lab changes. A fit the data cannot identify is refused with the reason (exit code 3).\n"
-    "  --write-overlay FILE  write the estimates as an overlay for 'acidload run CASE --overlay FILE'\n",
+    "  --write-overlay FILE  write the estimates as an overlay for 'acidload run CASE --overlay FILE';\n"
+    "                        refused for the files the fit read and for an existing file that is not\n"
+    "                        an overlay acidload wrote (exit code 3)\n",
     run};
 
 }  // namespace acidload_cli

@@ -27,6 +27,7 @@ FitRun fit_case(const FitOptions& o) {
   for (const std::string& k : settings.parameters) acidload::parameter(k);  // unknown keys: bad input with the list
   r.file = acidload::io::load_case(o.case_file, o.overlays);
   r.variant = &pick_variant(r.file, o.variant);
+  const ProgressLine progress("fitting " + std::to_string(settings.parameters.size()) + " parameter(s)");
   r.fit = acidload::calibrate(*r.variant, acidload::io::read_lab_samples(o.lab), settings);
   return r;
 }

@@ -15,7 +15,8 @@ FitOptions parse(const std::vector<std::string>& args) {
 
 int run(const std::vector<std::string>& args, std::FILE* out) {
   const FitRun r = fit_case(parse(args));
-  print_forecast(out, r.fit, acidload::forecast(r.fit));
+  const auto fc = (ProgressLine("forecast: running the current charge on"), acidload::forecast(r.fit));
+  print_forecast(out, r.fit, fc);
   print_caution(out);
   return exit_ok;
 }

@@ -36,8 +36,11 @@ extern const Command run_command{
     "and SAN there, and the exhaust sulfuric-acid dew point.\n\n"
     "  --out FOLDER   also write FOLDER/summary.json (every figure, units in the key names) and\n"
     "                 FOLDER/trajectories.csv (TBN, TAN, SAN, oxidation, nitration against hours per\n"
-    "                 variant). Written to a new folder and swapped in: a failed run leaves an\n"
-    "                 existing FOLDER as it was.\n",
+    "                 variant), and a .acidload-results marker: FOLDER is acidload's own. A new or\n"
+    "                 empty folder, or a results folder of an earlier run, is written; any other\n"
+    "                 folder, one holding files acidload did not write, and the case's own folder\n"
+    "                 are refused (exit code 3) and left as they were. Written to a new folder and\n"
+    "                 swapped in: a failed, interrupted or killed run leaves the previous result.\n",
     run};
 
 }  // namespace acidload_cli

@@ -81,7 +81,7 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
       search.high = quantity_option(o.high, kind, "--range");
     }
   }
-  const InverseAnswer r = solve_for_interval(c, *lever, target, search.low, search.high, search.tolerance);
+  const InverseAnswer r = (ProgressLine("solve: searching " + o.lever), solve_for_interval(c, *lever, target, search.low, search.high, search.tolerance));
   const auto show = [&](double v) { return (v + shown_offset) * shown_scale; };
   std::fprintf(out, "%s — variant '%s': %s for a drain interval of %.0f h\n", file.title.c_str(), c.name.c_str(),
                o.lever.c_str(), target);

@@ -40,8 +40,9 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
     throw InputError("uncertainty", "(no section)", "an 'uncertainty' section with inputs in " + o.case_file,
                      InputWhere{o.case_file, 1, 1, ""});
   const std::uint64_t used_seed = seed ? *seed : file.uncertainty.seed;
-  const MonteCarloResult r = monte_carlo(c, file.uncertainty.inputs, draws ? static_cast<int>(*draws) : file.uncertainty.draws,
-                                         used_seed, threads);
+  const int n = draws ? static_cast<int>(*draws) : file.uncertainty.draws;
+  const ProgressLine progress("uncertainty: " + std::to_string(n) + " draws");
+  const MonteCarloResult r = monte_carlo(c, file.uncertainty.inputs, n, used_seed, threads);
   print_monte_carlo(out, c, file.uncertainty.inputs, r, used_seed);
   print_caution(out);
   return exit_ok;

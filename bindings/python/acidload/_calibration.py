@@ -14,13 +14,14 @@ A fit the data cannot identify raises :class:`FitRefusedError` with the reason.
 from __future__ import annotations
 
 import os
-import tempfile
 from typing import Any, Dict, List, Optional, Sequence, Tuple, Union
 
 import numpy as np
 
 from . import _core
 from ._case import Case, Variant, _engine_case
+from ._checks import number, whole
+from ._errors import InputError
 
 __all__ = ["read_lab", "fit", "Fit", "forecast", "monte_carlo", "fit_residuals", "PARAMETERS"]
 
@@ -84,19 +85,17 @@ class Fit:
         """The estimates as an overlay (format version 1) for ``acidload run CASE --overlay FILE``."""
         return self._r.overlay_text(case_file, lab_file)
 
-    def write_overlay(self, path: Union[str, os.PathLike], case_file: str = "CASE", lab_file: str = "LAB") -> None:
-        """Writes the overlay atomically (a temporary file renamed into place)."""
-        path = os.fspath(path)
-        folder = os.path.dirname(os.path.abspath(path))
-        fd, tmp = tempfile.mkstemp(dir=folder, prefix=".overlay-")
-        try:
-            with os.fdopen(fd, "w", encoding="utf-8") as f:
-                f.write(self.overlay_text(case_file, lab_file))
-            os.replace(tmp, path)
-        except BaseException:
-            if os.path.exists(tmp):
-                os.remove(tmp)
-            raise
+    def write_overlay(self, path: Union[str, os.PathLike], case_file: str = "CASE", lab_file: str = "LAB", *,
+                      inputs: Sequence[Union[str, os.PathLike]] = ()) -> None:
+        """Writes the overlay atomically, as ``acidload fit --write-overlay`` does: refused (InputError's
+        sibling acidload.Error, the file left as it was) when ``path`` is ``case_file``, ``lab_file`` or
+        one of ``inputs`` (any other file the fit read), or an existing file that is not an overlay
+        acidload wrote. A symbolic link is written through."""
+        for name, v in (("path", path), ("case_file", case_file), ("lab_file", lab_file)):
+            if not isinstance(v, (str, os.PathLike)):
+                raise TypeError(f"write_overlay(): {name} is a file name, not {type(v).__name__}")
+        self._r.write_overlay(os.fspath(path), os.fspath(case_file), os.fspath(lab_file),
+                              [os.fspath(x) for x in inputs])
 
     def __repr__(self) -> str:
         est = ", ".join(f"{k}={v:.4g}±{self.standard_errors[k]:.2g}" for k, v in self.estimates.items())
@@ -139,4 +138,19 @@ def monte_carlo(case: Union[Case, Variant], *, inputs: Optional[Sequence[Tuple[s
         seed = file_seed if seed is None else seed
     if not inputs:
         raise ValueError("no uncertain inputs: give inputs or an uncertainty section in the case")
-    return dict(_core.monte_carlo(_engine_case(case, variant), list(inputs), int(draws), int(seed), int(threads)))
+    # The same limits as the program's uncertainty command (--draws, --seed, --threads); 0 threads: every core.
+    draws = whole(draws, "draws", 1, 10_000_000)
+    seed = whole(seed, "seed", 0, 9 * 10**15)
+    threads = whole(threads, "threads", 0, 256)
+    checked = []
+    for i, item in enumerate(inputs):
+        try:
+            key, dist, a, b, c = item
+        except (TypeError, ValueError):
+            raise InputError(f"'inputs[{i}]' = {item!r}: expected (key, distribution, a, b, c)", key=f"inputs[{i}]",
+                             value=repr(item), expected="(key, distribution, a, b, c)") from None
+        if not isinstance(key, str) or not isinstance(dist, str):
+            raise InputError(f"'inputs[{i}]': the key and the distribution are text", key=f"inputs[{i}]",
+                             value=repr(item), expected="(key, distribution, a, b, c) with key and distribution as text")
+        checked.append((key, dist, number(a, f"inputs[{i}][2]"), number(b, f"inputs[{i}][3]"), number(c, f"inputs[{i}][4]")))
+    return dict(_core.monte_carlo(_engine_case(case, variant), checked, draws, seed, threads))

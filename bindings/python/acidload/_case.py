@@ -283,7 +283,12 @@ _SECTIONS = ("fuel", "engine", "oil", "model", "limits", "run", "record", "varia
 def _number(keyword: str, v: Any) -> str:
     if isinstance(v, bool) or not isinstance(v, (int, float)) and not hasattr(v, "__float__"):
         raise TypeError(f"{keyword} takes a number, not {type(v).__name__} ({v!r})")
-    x = float(v)
+    if isinstance(v, int):  # exact; beyond ±1e300 the reader refuses it with the key
+        return str(v) if abs(v) <= 10**300 else ("1e301" if v > 0 else "-1e301")
+    try:
+        x = float(v)
+    except (OverflowError, ValueError):
+        return "1e301"
     if isinstance(v, int) or (math.isfinite(x) and x == int(x) and abs(x) < 1e15):
         return str(int(x))
     return repr(x)

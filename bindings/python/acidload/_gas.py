@@ -2,6 +2,7 @@
 from __future__ import annotations
 
 from . import _core
+from ._checks import number
 
 __all__ = ["molar_mass", "molar_volume", "convert", "parse_quantity", "accepted_units", "CONCENTRATION_UNITS"]
 
@@ -17,7 +18,7 @@ def molar_mass(formula: str) -> float:
 
 def molar_volume(temperature_k: float = 273.15, pressure_pa: float = 101325.0) -> float:
     """Ideal-gas molar volume R·T/p [m³/mol] (CODATA R) at a reference state: T [K], p [Pa]."""
-    return _core.molar_volume(float(temperature_k), float(pressure_pa))
+    return _core.molar_volume(number(temperature_k, "temperature_k"), number(pressure_pa, "pressure_pa"))
 
 
 def convert(value: float, from_unit: str, to_unit: str, *, molar_mass_kg_per_mol: float,
@@ -33,9 +34,12 @@ def convert(value: float, from_unit: str, to_unit: str, *, molar_mass_kg_per_mol
     ``water_fraction`` and ``methane_fraction`` are mole fractions of the wet gas [mol/mol];
     ``lhv_j_per_mol`` its lower heating value [J/mol]; ``flow_mol_per_h`` the wet gas flow [mol/h].
     """
-    return _core.convert(float(value), from_unit, from_basis, to_unit, to_basis, float(molar_mass_kg_per_mol),
-                         float(reference_temperature_k), float(reference_pressure_pa), float(water_fraction),
-                         float(methane_fraction), float(lhv_j_per_mol), float(flow_mol_per_h))
+    return _core.convert(number(value, "value"), from_unit, from_basis, to_unit, to_basis,
+                         number(molar_mass_kg_per_mol, "molar_mass_kg_per_mol"),
+                         number(reference_temperature_k, "reference_temperature_k"),
+                         number(reference_pressure_pa, "reference_pressure_pa"), number(water_fraction, "water_fraction"),
+                         number(methane_fraction, "methane_fraction"), number(lhv_j_per_mol, "lhv_j_per_mol"),
+                         number(flow_mol_per_h, "flow_mol_per_h"))
 
 
 def parse_quantity(text: str, kind: str) -> float:

@@ -19,7 +19,7 @@ TRAJECTORY_UNITS: Dict[str, str] = {
     "oil_hours": "h",           # since the last oil change
     "calendar_hours": "h",      # since the start of the record
     "starts": "-",              # engine starts since the start of the record
-    "charge": "-",              # which oil charge (0 = the one the record starts with)
+    "charge": "-",              # which oil charge (1 = the one the record starts with, as trajectories.csv)
     "tbn": "mg KOH/g",          # by the limits' method
     "tbn_d2896": "mg KOH/g",
     "tbn_d4739": "mg KOH/g",
@@ -216,7 +216,13 @@ class Result:
         return self._run.trajectories_csv()
 
     def write(self, folder: Union[str, "os.PathLike[str]"]) -> None:
-        """Writes summary.json and trajectories.csv into folder, atomically, as ``acidload run --out``."""
+        """Writes summary.json and trajectories.csv into folder, atomically, as ``acidload run --out``
+        does, with the same rules: the folder becomes acidload's own (a .acidload-results marker
+        inside); an existing folder that is not (or holds files acidload did not write), or the folder
+        of the case file, is refused with acidload.Error and left as it was; a symbolic link is
+        written through."""
+        if not isinstance(folder, (str, os.PathLike)):
+            raise TypeError(f"write() takes a folder name, not {type(folder).__name__}")
         self._run.write_results(os.fspath(folder))
 
     def __repr__(self) -> str:

@@ -8,6 +8,7 @@ import numpy as np
 
 from . import _core
 from ._case import Case, Variant, _engine_case
+from ._checks import number, sweep_values
 
 __all__ = ["drain_interval", "solve_for_interval", "InverseAnswer", "LEVERS"]
 
@@ -62,8 +63,8 @@ def drain_interval(case: Union[Case, Variant], *, variant: Optional[str] = None,
     ec = _engine_case(case, variant)
     if not lever:
         return _core.drain_interval(ec)
-    _, lv, values = _one_lever(lever, "drain_interval()")
-    core = np.array(lv.to_core(values), dtype=np.float64, order="C")
+    k, lv, values = _one_lever(lever, "drain_interval()")
+    core = np.array(lv.to_core(sweep_values(values, k)), dtype=np.float64, order="C")
     out = _core.sweep_drain_interval(ec, lv.core_name, core.reshape(-1)).reshape(core.shape)
     return out if core.ndim else float(out)
 
@@ -104,10 +105,12 @@ def solve_for_interval(case: Union[Case, Variant], *, target_h: float, variant: 
         low, high = lv.from_core(d_low), lv.from_core(d_high)
     else:
         try:
-            low, high = (float(x) for x in rng)
+            low, high = rng
         except (TypeError, ValueError):
             raise TypeError(f"{k}= takes a range (low, high) in {lv.unit}, or None for the default range") from None
-    tol_core = d_tol if tolerance is None else float(tolerance) * lv.scale
+        low, high = number(low, k + "[0]"), number(high, k + "[1]")
+    target_h = number(target_h, "target_h")
+    tol_core = d_tol if tolerance is None else number(tolerance, "tolerance") * lv.scale
     a = _core.solve_for_interval(ec, lv.core_name, float(target_h), float(lv.to_core(low)), float(lv.to_core(high)),
                                  tol_core)
     return InverseAnswer(found=a.found, lever=k, unit=lv.unit, value=lv.from_core(a.value) if a.found else None,

@@ -14,21 +14,37 @@ __all__ = ["dump"]
 _PLAIN_KEY = re.compile(r"[A-Za-z0-9_][A-Za-z0-9_.\-]*\Z")
 
 
-def _normalise(x: Any) -> Any:
-    """Plain Python values: numpy arrays and tuples to lists, numpy scalars to numbers, paths to text."""
+_MAX_DEPTH = 24  # as the case reader's nesting limit (ReadLimits::max_depth)
+
+
+def _too_deep(what: str) -> Exception:
+    from ._errors import InputError
+    return InputError(f"a case dict {what}", key="(top level)", value="(nested)",
+                      expected=f"at most {_MAX_DEPTH} levels of dicts and lists, without cycles")
+
+
+def _normalise(x: Any, depth: int = 0, seen: frozenset = frozenset()) -> Any:
+    """Plain Python values: numpy arrays and tuples to lists, numpy scalars to numbers, paths to text.
+    Nesting deeper than the reader takes, or a dict or list holding itself, is an InputError."""
+    if isinstance(x, (Mapping, list, tuple)):
+        if id(x) in seen:
+            raise _too_deep("holds itself (a cycle)")
+        if depth >= _MAX_DEPTH:
+            raise _too_deep(f"is nested more than {_MAX_DEPTH} levels deep")
+        seen = seen | {id(x)}
     if isinstance(x, Mapping):
         out = {}
         for k, v in x.items():
             if not isinstance(k, str):
                 raise TypeError(f"case dict keys are strings, not {type(k).__name__} ({k!r})")
-            out[k] = _normalise(v)
+            out[k] = _normalise(v, depth + 1, seen)
         return out
     if isinstance(x, (list, tuple)):
-        return [_normalise(v) for v in x]
+        return [_normalise(v, depth + 1, seen) for v in x]
     if isinstance(x, os.PathLike):
         return os.fspath(x)
     if hasattr(x, "tolist") and not isinstance(x, (str, bytes)):  # numpy arrays and scalars
-        return _normalise(x.tolist())
+        return _normalise(x.tolist(), depth, seen)
     if x is None or isinstance(x, (bool, int, float, str)):
         return x
     raise TypeError(f"a case dict holds strings, numbers, booleans, lists and dicts, not {type(x).__name__}")
@@ -40,6 +56,8 @@ def _scalar(x: Any) -> str:
     if isinstance(x, bool):
         return "true" if x else "false"
     if isinstance(x, int):
+        if abs(x) > 10**300:  # beyond what the reader takes; also keeps str() within Python's digit limit
+            return "1e301" if x > 0 else "-1e301"
         return str(x)
     if isinstance(x, float):
         if math.isnan(x):

@@ -21,6 +21,10 @@
 #include "acidload/studies/monte_carlo.hpp"
 #include "acidload/studies/inverse.hpp"
 
+#include <atomic>
+#include <chrono>
+#include <future>
+
 namespace py = pybind11;
 using namespace acidload;
 
@@ -139,7 +143,7 @@ py::dict trajectory_arrays(const CaseRun& run, std::size_t i) {
   {
     py::array_t<int> a(static_cast<py::ssize_t>(n));
     int* d = a.mutable_data();
-    for (std::size_t k = 0; k < n; ++k) d[k] = t[k].charge;
+    for (std::size_t k = 0; k < n; ++k) d[k] = t[k].charge + 1;  // from 1, as trajectories.csv
     out["charge"] = a;
   }
   column("tbn", [&](const TrajectoryPoint& p) { return limit_method == BaseNumberMethod::d2896 ? p.tbn_d2896 : p.tbn_d4739; });
@@ -181,10 +185,28 @@ py::array_t<double> sweep_for_python(const EngineCase& c, const std::string& lev
   const Lever l = lever_from(lever);
   if (threads < 0) throw InputError("threads", std::to_string(threads), "0 (every core) or a positive thread count");
   py::array_t<double> out(values.request().shape);
+  // The library's sweep runs on a thread of its own; this one checks for Ctrl-C (and any other
+  // signal Python handles) every 50 ms and, on one, asks the sweep to stop and raises.
+  std::atomic<bool> stop{false};
   std::vector<double> r;
   {
     py::gil_scoped_release release;
-    r = acidload::sweep_drain_interval(c, l, values.data(), static_cast<std::size_t>(values.size()), threads);
+    auto job = std::async(std::launch::async, [&] {
+      return acidload::sweep_drain_interval(c, l, values.data(), static_cast<std::size_t>(values.size()), threads, &stop);
+    });
+    while (job.wait_for(std::chrono::milliseconds(50)) != std::future_status::ready) {
+      py::gil_scoped_acquire hold;
+      if (PyErr_CheckSignals() != 0) {
+        stop = true;
+        py::error_already_set interrupted;  // takes the pending Python exception
+        {
+          py::gil_scoped_release wait;
+          job.wait();
+        }
+        throw interrupted;
+      }
+    }
+    r = job.get();
   }
   std::copy(r.begin(), r.end(), out.mutable_data());
   return out;
@@ -660,7 +682,13 @@ PYBIND11_MODULE(_core, m) {
       .def_readonly("flags", &FitResult::flags)
       .def_readonly("fitted", &FitResult::fitted, "the case with the estimates put in")
       .def("overlay_text", [](const FitResult& f, const std::string& c, const std::string& l) { return io::overlay_text(f, c, l); },
-           py::arg("case_file"), py::arg("lab_file"), "The estimates as overlay text for 'acidload run --overlay'.");
+           py::arg("case_file"), py::arg("lab_file"), "The estimates as overlay text for 'acidload run --overlay'.")
+      .def("write_overlay",
+           [](const FitResult& f, const std::string& path, const std::string& c, const std::string& l,
+              const std::vector<std::string>& inputs) { io::write_overlay(path, f, c, l, inputs); },
+           py::arg("path"), py::arg("case_file"), py::arg("lab_file"), py::arg("inputs"),
+           "Writes the overlay as the program's fit --write-overlay does (io::write_overlay: the files read "
+           "and files acidload did not write are refused).");
   m.def("calibrate", [](const EngineCase& c, const std::vector<LabSample>& s, const std::vector<std::string>& keys) {
     FitSettings fs;
     fs.parameters = keys;

@@ -1,5 +1,6 @@
 #include "acidload/core/fuel.hpp"
 
+#include <cstdio>
 #include <cmath>
 
 #include "acidload/core/constants.hpp"
@@ -59,7 +60,7 @@ FuelGas resolve(const FuelAnalysis& a) {
   // that converges to machine precision in a few passes (the H2S share of the LHV is ~1e-4).
   const double expected_sum = a.main_basis == Basis::dry ? 1.0 : 1.0 - a.water_fraction;
   if (!(std::fabs(sum_main - expected_sum) <= 0.1))
-    throw InputError("fuel.composition", format_value(sum_main * 100) + " % in all",
+    throw InputError("fuel.composition", [&] { char b[32]; std::snprintf(b, sizeof b, "%.6g", sum_main * 100); return std::string(b); }() + " % in all",
                      "main components summing to " + format_value(expected_sum * 100) +
                          " % (within 10 points); they are normalised");
   FuelGas f;

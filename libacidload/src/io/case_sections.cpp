@@ -1,6 +1,7 @@
 // The section readers of the case format: each takes its keys' kinds and ranges from the key
 // registry (keys.cpp) and fills the core's structs; no physics here (studies/operation.hpp turns a
 // power into a fuel flow).
+#include <cstdio>
 #include <algorithm>
 #include <cmath>
 #include <filesystem>
@@ -131,7 +132,7 @@ void read_fuel(const Reader& r, const Node& f, FuelAnalysis& a) {
     }
     r.seen["fuel.composition"] = c;
     if (basis == Basis::dry && !(sum > 0.9 && sum < 1.1))  // wet figures are checked with the water, in resolve()
-      r.fail(*c, format_value(std::round(sum * 1e10) / 1e8) + " % in all",
+      r.fail(*c, [&] { char b[32]; std::snprintf(b, sizeof b, "%.6g", sum * 100); return std::string(b); }() + " % in all",  // 85 %, not 85.00000000000001 %
              "main components summing to 100 % (within 10 points); they are normalised");
   } else {
     r.fail(f, "(no composition)", "a 'composition' map of the main components (CH4, CO2, …)");

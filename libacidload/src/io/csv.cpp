@@ -231,6 +231,8 @@ CsvTable parse_csv(const std::string& text, const std::string& file_name, std::s
 }
 
 CsvTable read_csv(const std::string& path, std::size_t max_bytes) {
+  if (const std::string why = detail::not_a_plain_file(path); !why.empty())
+    throw InputError("file", path, "a readable CSV file (" + why + ")", file_only(path));
   std::ifstream in(path, std::ios::binary);
   if (!in) throw InputError("file", path, "a readable CSV file (cannot open it)", file_only(path));
   std::string text;

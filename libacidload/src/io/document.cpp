@@ -478,6 +478,8 @@ Document parse_document(std::string_view text, std::string file_name, const Read
 }
 
 Document read_document(const std::string& path, const ReadLimits& limits) {
+  if (const std::string why = detail::not_a_plain_file(path); !why.empty())
+    throw InputError("file", path, "a readable YAML file (" + why + ")", file_only(path));
   std::ifstream in(path, std::ios::binary);
   if (!in) throw InputError("file", path, "a readable YAML file (cannot open it)", file_only(path));
   std::string text;

@@ -12,6 +12,7 @@
 #include "acidload/core/version.hpp"
 #include "acidload/io/csv.hpp"
 #include "acidload/io/quantity.hpp"
+#include "acidload/io/results.hpp"
 
 namespace acidload::io {
 
@@ -146,7 +147,7 @@ std::string overlay_text(const FitResult& fit, const std::string& case_file, con
     sections[p.key.substr(0, dot)].push_back({p.key.substr(dot + 1), written(p.key, p.estimate) + "   # ± " +
                                                                       written(p.key, p.standard_error) + " (1 standard error)"});
   }
-  std::string o = "# Fitted by acidload " + std::string(version()) + " to " + lab_file + " for " + case_file + ".\n" +
+  std::string o = overlay_signature + std::string(version()) + " to " + lab_file + " for " + case_file + ".\n" +
                   "# Apply with: acidload run " + case_file + " --overlay <this file>\n" +
                   "# Reduced chi-square " + g(fit.s2) + " on " + std::to_string(fit.degrees_of_freedom) +
                   " degrees of freedom. Estimates support, not replace, lab analysis and the engine maker's limits.\n" +
@@ -158,28 +159,11 @@ std::string overlay_text(const FitResult& fit, const std::string& case_file, con
   return o;
 }
 
-void write_overlay(const std::string& path, const FitResult& fit, const std::string& case_file, const std::string& lab_file) {
-  namespace fs = std::filesystem;
-  const std::string text = overlay_text(fit, case_file, lab_file);
-  std::random_device rd;
-  const fs::path target = fs::absolute(path);
-  const fs::path tmp = target.parent_path() / ("." + target.filename().string() + ".new-" + std::to_string(rd() % 1000000));
-  {
-    std::ofstream f(tmp, std::ios::binary);
-    f << text;
-    f.close();
-    if (!f) {
-      std::error_code ec;
-      fs::remove(tmp, ec);
-      throw Error("cannot write " + tmp.string());
-    }
-  }
-  std::error_code ec;
-  fs::rename(tmp, target, ec);
-  if (ec) {
-    fs::remove(tmp, ec);
-    throw Error("cannot write " + target.string() + ": " + ec.message());
-  }
+void write_overlay(const std::string& path, const FitResult& fit, const std::string& case_file, const std::string& lab_file,
+                   const std::vector<std::string>& other_inputs) {
+  std::vector<std::string> inputs{case_file, lab_file};
+  inputs.insert(inputs.end(), other_inputs.begin(), other_inputs.end());
+  write_owned_file(path, overlay_text(fit, case_file, lab_file), overlay_signature, inputs);
 }
 
 }  // namespace acidload::io

@@ -171,7 +171,11 @@ std::string expectation(Kind k) {
     case Kind::fraction: return "a fraction: a bare number (0.4) or a percentage with the unit % (40 %)";
     case Kind::count: return "a count: a bare number >= 0";
     case Kind::number: return number_form;
-    default: return "a " + std::string(i.name) + " with one of the units: " + join(i.names);
+    default: {
+      const std::string n(i.name);
+      const bool vowel = !n.empty() && std::string("aeiou").find(n[0]) != std::string::npos;
+      return (vowel ? "an " : "a ") + n + " with one of the units: " + join(i.names);
+    }
   }
 }
 

@@ -1,11 +1,25 @@
 #include "acidload/io/results.hpp"
 
+#include <fcntl.h>
+#include <pthread.h>
+#include <sys/file.h>
+#include <sys/stat.h>
+#include <unistd.h>
+
+#include <atomic>
+#include <cerrno>
+#include <chrono>
 #include <cmath>
+#include <csignal>
 #include <cstdio>
+#include <cstdlib>
+#include <cstring>
 #include <filesystem>
 #include <fstream>
-#include <random>
+#include <optional>
+#include <set>
 #include <sstream>
+#include <thread>
 
 #include "acidload/core/constants.hpp"
 #include "acidload/core/error.hpp"
@@ -165,54 +179,312 @@ std::string trajectories_csv(const std::vector<VariantSummary>& rows) {
        "tan_mg_koh_per_g,san_mg_koh_per_g,oxidation_a_per_cm,nitration_a_per_cm,oil_mass_kg\n";
   for (const VariantSummary& v : rows)
     for (const TrajectoryPoint& p : v.run.trajectory)
-      o << csv_field(v.name) << ',' << p.charge << ',' << num(p.engine_hours) << ',' << num(p.oil_hours) << ','
+      o << csv_field(v.name) << ',' << p.charge + 1 << ','  // charges from 1, as in the console and lab files
+        << num(p.engine_hours) << ',' << num(p.oil_hours) << ','
         << num(p.calendar_hours) << ',' << num(p.tbn_d2896) << ',' << num(p.tbn_d4739) << ',' << num(p.tan) << ','
         << num(p.san) << ',' << num(p.state.oxidation) << ',' << num(p.state.nitration) << ',' << num(p.state.mass) << '\n';
   return o.str();
 }
 
-void write_results(const std::string& folder, const CaseFile& c, const std::vector<VariantSummary>& rows) {
-  namespace fs = std::filesystem;
-  const std::string json = summary_json(c, rows), csv = trajectories_csv(rows);  // everything before touching disk
-  const fs::path target = fs::absolute(folder);
-  std::random_device rd;
-  const std::string tag = std::to_string(rd() % 1000000);
-  const fs::path fresh = target.parent_path() / ("." + target.filename().string() + ".new-" + tag);
-  const fs::path old = target.parent_path() / ("." + target.filename().string() + ".old-" + tag);
+namespace {
+namespace fs = std::filesystem;
+
+constexpr const char* temp_prefix = ".acidload-tmp-";
+constexpr double lock_wait_seconds = 120;
+
+std::string shown(const fs::path& p) { return "'" + p.string() + "'"; }
+std::string why(int err) { return std::strerror(err); }
+
+// SIGINT, SIGTERM, SIGHUP and SIGQUIT held back while a temporary exists: a signal then takes
+// effect once the new result is in place or the temporary is gone.
+class HoldSignals {
+ public:
+  HoldSignals() {
+    sigset_t s;
+    sigemptyset(&s);
+    for (int sig : {SIGINT, SIGTERM, SIGHUP, SIGQUIT}) sigaddset(&s, sig);
+    pthread_sigmask(SIG_BLOCK, &s, &old_);
+  }
+  ~HoldSignals() { pthread_sigmask(SIG_SETMASK, &old_, nullptr); }
+  HoldSignals(const HoldSignals&) = delete;
+  HoldSignals& operator=(const HoldSignals&) = delete;
+
+ private:
+  sigset_t old_;
+};
+
+// An exclusive flock on the parent folder: writers into one folder take turns.
+class ParentLock {
+ public:
+  explicit ParentLock(const fs::path& dir) {
+    fd_ = ::open(dir.c_str(), O_RDONLY | O_DIRECTORY | O_CLOEXEC);
+    if (fd_ < 0) throw Error("cannot open the folder " + shown(dir) + " to write into it: " + why(errno));
+    const auto start = std::chrono::steady_clock::now();
+    while (::flock(fd_, LOCK_EX | LOCK_NB) != 0) {
+      const int e = errno;
+      if (e != EWOULDBLOCK && e != EINTR) {
+        ::close(fd_);
+        throw Error("cannot lock the folder " + shown(dir) + ": " + why(e));
+      }
+      if (std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count() > lock_wait_seconds) {
+        ::close(fd_);
+        throw Error("another acidload has been writing into " + shown(dir) + " for over " +
+                    format_value(lock_wait_seconds) + " s; nothing was written (try again when it has finished)");
+      }
+      std::this_thread::sleep_for(std::chrono::milliseconds(20));
+    }
+  }
+  ~ParentLock() { ::close(fd_); }
+  ParentLock(const ParentLock&) = delete;
+  ParentLock& operator=(const ParentLock&) = delete;
+  int fd() const { return fd_; }
+
+ private:
+  int fd_ = -1;
+};
+
+// The path to write, with '.', '..', a trailing '/' and symbolic links resolved (a link is written
+// through: its target is replaced, the link kept).
+fs::path resolve(const std::string& given, const char* what) {
+  if (given.empty()) throw Error(std::string("an empty name as the ") + what + "; nothing was written");
+  for (const fs::path& part : fs::path(given))
+    if (part.string().size() > 255)
+      throw Error("the " + std::string(what) + " name '" + part.string().substr(0, 40) + "…' is " +
+                  std::to_string(part.string().size()) + " bytes long, more than the 255 a file system takes; nothing was written");
   std::error_code ec;
-  fs::create_directories(target.parent_path(), ec);
-  if (!fs::create_directory(fresh, ec))
-    throw Error("cannot create the output folder " + fresh.string() + ": " + ec.message());
-  const auto put = [&](const char* name, const std::string& text) {
-    std::ofstream f(fresh / name, std::ios::binary);
-    f << text;
-    f.close();
-    if (!f) {
-      fs::remove_all(fresh, ec);
-      throw Error("cannot write " + (fresh / name).string());
+  fs::path p = fs::weakly_canonical(fs::absolute(given), ec);
+  if (ec) throw Error("cannot resolve the " + std::string(what) + " " + shown(given) + ": " + ec.message());
+  p = p.lexically_normal();
+  if (!p.has_filename() && p.has_parent_path() && p != p.root_path()) p = p.parent_path();
+  if (!p.has_filename() || p == p.root_path())
+    throw Error("the " + std::string(what) + " " + shown(given) + " is the root folder; nothing was written");
+  if (fs::is_symlink(fs::symlink_status(p, ec)))
+    throw Error("the " + std::string(what) + " " + shown(given) + " is a symbolic link to '" +
+                fs::read_symlink(p, ec).string() + "', which does not exist; nothing was written");
+  return p;
+}
+
+// The files acidload listed in a results folder's marker; nullopt when there is no marker.
+std::optional<std::set<std::string>> listed_files(const fs::path& dir) {
+  std::ifstream f(dir / results_marker);
+  if (!f) return std::nullopt;
+  std::set<std::string> names;
+  std::string line;
+  bool in_list = false;
+  while (std::getline(f, line)) {
+    if (in_list && !line.empty()) names.insert(line);
+    if (line == "files:") in_list = true;
+  }
+  return names;
+}
+
+// Why `dir` (an existing folder) may not be replaced, or "" when it may: it must be empty, or a
+// results folder holding only the marker and the files the marker lists.
+std::string not_replaceable(const fs::path& dir) {
+  std::error_code ec;
+  const auto listed = listed_files(dir);
+  fs::directory_iterator it(dir, ec);
+  if (ec) return "it cannot be read (" + ec.message() + ")";
+  for (; it != fs::directory_iterator(); it.increment(ec)) {
+    const std::string name = it->path().filename().string();
+    if (!listed)
+      return "it is a folder acidload did not write (it holds '" + name + "' and no " + results_marker +
+             " marker); give a new or empty folder, or a results folder of an earlier run";
+    if (name != results_marker && !listed->count(name))
+      return "it holds '" + name + "', which acidload did not write there; move it out, or give another folder";
+    if (fs::is_directory(fs::symlink_status(it->path(), ec)))
+      return "it holds the folder '" + name + "', which acidload did not write there";
+  }
+  if (ec) return "it cannot be read (" + ec.message() + ")";
+  return "";
+}
+
+// Removes a folder of acidload's (checked by not_replaceable) with its marker last, so that a kill
+// part-way leaves a folder still recognisably acidload's for the next run to finish removing.
+void remove_own_folder(const fs::path& dir) {
+  std::error_code ec;
+  std::vector<fs::path> entries;
+  for (fs::directory_iterator it(dir, ec); !ec && it != fs::directory_iterator(); it.increment(ec))
+    if (it->path().filename() != results_marker) entries.push_back(it->path());
+  for (const fs::path& p : entries) fs::remove(p, ec);
+  fs::remove(dir / results_marker, ec);
+  fs::remove(dir, ec);
+}
+
+bool process_alive(long pid) { return pid > 0 && (::kill(static_cast<pid_t>(pid), 0) == 0 || errno == EPERM); }
+
+// Temporaries (.acidload-tmp-PID-N) of writers that are no longer running, left by a kill: removed
+// when they hold only what acidload writes (a folder) or are a plain file; called under the lock.
+void remove_stale_temporaries(const fs::path& parent) {
+  std::error_code ec;
+  fs::directory_iterator it(parent, ec);
+  if (ec) return;
+  for (; it != fs::directory_iterator(); it.increment(ec)) {
+    const std::string name = it->path().filename().string();
+    if (name.rfind(temp_prefix, 0) != 0) continue;
+    const long pid = std::strtol(name.c_str() + std::strlen(temp_prefix), nullptr, 10);
+    if (process_alive(pid)) continue;
+    std::error_code e2;
+    const auto st = fs::symlink_status(it->path(), e2);
+    if (fs::is_directory(st)) {
+      if (not_replaceable(it->path()).empty()) remove_own_folder(it->path());
+    } else if (fs::is_regular_file(st)) {
+      fs::remove(it->path(), e2);
     }
-  };
-  put("summary.json", json);
-  put("trajectories.csv", csv);
-  const bool existed = fs::exists(target);
-  if (existed && !fs::is_directory(target)) {
-    fs::remove_all(fresh, ec);
-    throw Error("the output path " + target.string() + " exists and is not a folder; nothing was written");
   }
-  if (existed) {
-    fs::rename(target, old, ec);
-    if (ec) {
-      fs::remove_all(fresh, ec);
-      throw Error("cannot replace " + target.string() + ": " + ec.message());
+}
+
+fs::path temporary_name(const fs::path& parent) {
+  static std::atomic<unsigned> counter{0};
+  return parent / (temp_prefix + std::to_string(::getpid()) + "-" + std::to_string(counter++));
+}
+
+// Writes text to a new file and flushes it to the disk.
+void put_file(const fs::path& p, const std::string& text) {
+  const int fd = ::open(p.c_str(), O_WRONLY | O_CREAT | O_EXCL | O_CLOEXEC, 0644);
+  if (fd < 0) throw Error("cannot create " + shown(p) + ": " + why(errno));
+  std::size_t done = 0;
+  while (done < text.size()) {
+    const ssize_t n = ::write(fd, text.data() + done, text.size() - done);
+    if (n < 0 && errno == EINTR) continue;
+    if (n <= 0) {
+      const int e = errno;
+      ::close(fd);
+      throw Error("cannot write " + shown(p) + ": " + why(e));
     }
+    done += static_cast<std::size_t>(n);
   }
-  fs::rename(fresh, target, ec);
-  if (ec) {
-    if (existed) fs::rename(old, target, ec);  // put the previous result back
-    fs::remove_all(fresh, ec);
-    throw Error("cannot move the results into " + target.string());
+  if (::fsync(fd) != 0 || ::close(fd) != 0) throw Error("cannot write " + shown(p) + ": " + why(errno));
+}
+
+// The run's inputs must not lie in the target, nor the target be the folder holding one of them.
+void refuse_input_folder(const fs::path& target, const std::vector<std::string>& inputs) {
+  std::error_code ec;
+  for (const std::string& in : inputs) {
+    if (in.empty() || !fs::exists(in, ec)) continue;
+    const fs::path p = fs::weakly_canonical(fs::absolute(in), ec);
+    if (ec) continue;
+    const auto rel = p.lexically_relative(target);
+    if (!rel.empty() && *rel.begin() != "..")
+      throw Error("the output folder " + shown(target) + " holds the input '" + in +
+                  "' of this run; give a folder of its own for the results (nothing was written)");
   }
-  if (existed) fs::remove_all(old, ec);
+}
+}  // namespace
+
+void write_results_folder(const std::string& folder, const std::vector<ResultFile>& files,
+                          const std::vector<std::string>& inputs) {
+  for (const ResultFile& f : files)
+    if (f.name.empty() || f.name.find('/') != std::string::npos || f.name == results_marker || f.name[0] == '.')
+      throw Error("internal: '" + f.name + "' is not a plain name for a results file");
+  const fs::path target = resolve(folder, "output folder");
+  const fs::path parent = target.parent_path();
+  refuse_input_folder(target, inputs);
+  std::error_code ec;
+  fs::create_directories(parent, ec);
+  if (!fs::is_directory(parent)) throw Error("cannot create the folder " + shown(parent) + ": " + ec.message());
+  const ParentLock lock(parent);
+  remove_stale_temporaries(parent);
+  const auto st = fs::symlink_status(target, ec);
+  const bool existed = fs::exists(st);
+  if (existed && !fs::is_directory(st))
+    throw Error("the output path " + shown(target) + " exists and is not a folder; nothing was written");
+  if (existed)
+    if (const std::string no = not_replaceable(target); !no.empty())
+      throw Error("will not write into " + shown(target) + ": " + no + " (nothing was written)");
+
+  std::string marker = "acidload results folder, written by acidload " + std::string(version()) +
+                       ". A later run with --out to this folder replaces it whole; acidload refuses to\n"
+                       "replace a folder without this file, or one holding files it did not write.\nfiles:\n";
+  for (const ResultFile& f : files) marker += f.name + "\n";
+
+  const HoldSignals hold;
+  const fs::path fresh = temporary_name(parent);
+  if (::mkdir(fresh.c_str(), 0755) != 0) throw Error("cannot create " + shown(fresh) + ": " + why(errno));
+  try {
+    put_file(fresh / results_marker, marker);  // first: a killed write leaves a folder recognisably ours
+    for (const ResultFile& f : files) put_file(fresh / f.name, f.text);
+  } catch (...) {
+    remove_own_folder(fresh);
+    throw;
+  }
+  int rc = existed ? ::renameat2(AT_FDCWD, fresh.c_str(), AT_FDCWD, target.c_str(), RENAME_EXCHANGE)
+                   : ::renameat2(AT_FDCWD, fresh.c_str(), AT_FDCWD, target.c_str(), RENAME_NOREPLACE);
+  if (rc != 0 && (errno == EINVAL || errno == ENOSYS)) {
+    // A file system without renameat2's flags: two renames, the old folder kept until the new is in place.
+    if (existed) {
+      const fs::path old = temporary_name(parent);
+      if (::rename(target.c_str(), old.c_str()) != 0) {
+        const int e = errno;
+        remove_own_folder(fresh);
+        throw Error("cannot replace " + shown(target) + ": " + why(e) + " (nothing was written)");
+      }
+      if (::rename(fresh.c_str(), target.c_str()) != 0) {
+        const int e = errno;
+        ::rename(old.c_str(), target.c_str());  // put the previous result back
+        remove_own_folder(fresh);
+        throw Error("cannot move the results into " + shown(target) + ": " + why(e));
+      }
+      remove_own_folder(old);
+      ::fsync(lock.fd());
+      return;
+    }
+    rc = ::rename(fresh.c_str(), target.c_str());
+  }
+  if (rc != 0) {
+    const int e = errno;
+    remove_own_folder(fresh);
+    throw Error("cannot move the results into " + shown(target) + ": " + why(e) + " (nothing was written)");
+  }
+  if (existed) remove_own_folder(fresh);  // the previous result, now under the temporary name
+  ::fsync(lock.fd());
+}
+
+void write_owned_file(const std::string& path, const std::string& text, const std::string& signature,
+                      const std::vector<std::string>& inputs) {
+  const fs::path target = resolve(path, "output file");
+  const fs::path parent = target.parent_path();
+  std::error_code ec;
+  for (const std::string& in : inputs)
+    if (!in.empty() && fs::exists(in, ec) && fs::exists(target, ec) && fs::equivalent(in, target, ec))
+      throw Error("will not write " + shown(target) + ": it is '" + in + "', which this command read (nothing was written)");
+  if (!fs::is_directory(parent, ec))
+    throw Error("cannot write " + shown(target) + ": the folder " + shown(parent) + " does not exist");
+  const ParentLock lock(parent);
+  remove_stale_temporaries(parent);
+  const auto st = fs::symlink_status(target, ec);
+  if (fs::exists(st)) {
+    if (!fs::is_regular_file(st))
+      throw Error("will not write " + shown(target) + ": it exists and is not a plain file (nothing was written)");
+    std::ifstream f(target, std::ios::binary);
+    std::string first;
+    std::getline(f, first);
+    if (first.rfind(signature, 0) != 0)
+      throw Error("will not replace " + shown(target) + ": acidload did not write it (its first line is not '" +
+                  signature + "…'); give a new file name (nothing was written)");
+  }
+  const HoldSignals hold;
+  const fs::path fresh = temporary_name(parent);
+  try {
+    put_file(fresh, text);
+  } catch (...) {
+    fs::remove(fresh, ec);
+    throw;
+  }
+  if (::rename(fresh.c_str(), target.c_str()) != 0) {
+    const int e = errno;
+    fs::remove(fresh, ec);
+    throw Error("cannot write " + shown(target) + ": " + why(e));
+  }
+  ::fsync(lock.fd());
+}
+
+void write_results(const std::string& folder, const CaseFile& c, const std::vector<VariantSummary>& rows) {
+  std::vector<std::string> inputs{c.file};
+  inputs.insert(inputs.end(), c.overlays.begin(), c.overlays.end());
+  // everything is computed before the disk is touched
+  write_results_folder(folder, {{"summary.json", summary_json(c, rows)}, {"trajectories.csv", trajectories_csv(rows)}},
+                       inputs);
 }
 
 }  // namespace acidload::io

@@ -1,5 +1,7 @@
 #pragma once
 // Text helpers shared by the io readers (internal to acidload::io; not installed).
+#include <sys/stat.h>
+
 #include <algorithm>
 #include <string>
 #include <string_view>
@@ -52,6 +54,19 @@ inline std::string describe(const Node& n) {
     case Node::Type::map: return "(a map)";
   }
   return "";
+}
+
+//! Why `path` cannot be read as an input file without blocking or reading without end ("" when it
+//! can): a FIFO, a device, a socket or a folder is refused before it is opened.
+inline std::string not_a_plain_file(const std::string& path) {
+  struct stat st {};
+  if (::stat(path.c_str(), &st) != 0) return "";  // the open that follows reports a missing file
+  if (S_ISREG(st.st_mode)) return "";
+  if (S_ISDIR(st.st_mode)) return "it is a folder";
+  if (S_ISFIFO(st.st_mode)) return "it is a named pipe (FIFO), not a file";
+  if (S_ISCHR(st.st_mode) || S_ISBLK(st.st_mode)) return "it is a device, not a file";
+  if (S_ISSOCK(st.st_mode)) return "it is a socket, not a file";
+  return "it is not a plain file";
 }
 
 }  // namespace acidload::io::detail

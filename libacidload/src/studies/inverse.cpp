@@ -1,6 +1,7 @@
 #include "acidload/studies/inverse.hpp"
 
 #include <boost/math/tools/toms748_solve.hpp>
+#include <algorithm>
 #include <cmath>
 #include <algorithm>
 #include <atomic>
@@ -35,12 +36,12 @@ LeverSearch default_search(const EngineCase& c, Lever l) {
     case Lever::h2s_ppmv_dry: return {0, 3000, 0.01};  // ppmv dry
     case Lever::fresh_tbn: {                           // mg KOH/g: from just above what the oil cannot give up
       const OilProperties& o = c.charge.oil;
-      return {o.base_floor + o.weak_base(o.fresh_tbn_method) + 0.01, 30, 1e-4};
+      return {std::max(0.5, o.base_floor + o.weak_base(o.fresh_tbn_method) + 0.01), 30, 1e-4};
     }
     case Lever::jacket_water_out: return {333.15, 393.15, 1e-3};  // K: 60 to 120 degC
     case Lever::oil_volume: {                                     // m3: a tenth to ten times the case's
       const double v = lever_value(c, l);
-      return {0.1 * v, 10 * v, 1e-6};
+      return {std::max(1e-3, 0.1 * v), std::min(100.0, 10 * v), 1e-6};  // within what with_lever takes
     }
   }
   return {};
@@ -58,14 +59,17 @@ EngineCase with_lever(const EngineCase& c, Lever l, double v) {
           s.operation.fuel_flow *= lhv_before / lower_heating_value(s.fuel);
       }
       break;
+    // The ranges are those the case file accepts for the same keys (docs/case-format.md).
     case Lever::fresh_tbn:
+      check::in_range("fresh-tbn", v, 0.5, 80, "mg KOH/g");
       x.charge.oil.fresh_tbn = v;
       break;
     case Lever::jacket_water_out:
+      check::in_range("jacket-water-out", v, 273.15, 423.15, "K (0 to 150 degC)");
       for (Segment& s : x.record) s.operation.jacket_water_out = v;
       break;
     case Lever::oil_volume:
-      check::positive("oil-volume", v);
+      check::in_range("oil-volume", v, 1e-3, 100, "m3 (1 L to 100 m3)");
       x.charge.mass = v * x.charge.oil.density_15;
       break;
   }
@@ -92,7 +96,8 @@ double drain_interval(const EngineCase& c) {
   return ch.first ? ch.drain_interval : c.model.limits.max_hours;
 }
 
-std::vector<double> sweep_drain_interval(const EngineCase& c, Lever l, const double* values, std::size_t n, int threads) {
+std::vector<double> sweep_drain_interval(const EngineCase& c, Lever l, const double* values, std::size_t n, int threads,
+                                         const std::atomic<bool>* stop) {
   std::vector<double> out(n, 0.0);
   std::size_t workers = threads > 0 ? static_cast<std::size_t>(threads) : std::max(1u, std::thread::hardware_concurrency());
   workers = std::max<std::size_t>(1, std::min(workers, n));
@@ -102,6 +107,7 @@ std::vector<double> sweep_drain_interval(const EngineCase& c, Lever l, const dou
   std::vector<std::exception_ptr> errors(n == 0 ? 0 : (n + block - 1) / block);
   const auto work = [&] {
     for (std::size_t b; (b = next.fetch_add(block)) < n;) {
+      if (stop && stop->load()) break;
       for (std::size_t i = b; i < std::min(n, b + block); ++i) {
         if (i > first_bad.load()) break;
         try {
@@ -127,6 +133,7 @@ std::vector<double> sweep_drain_interval(const EngineCase& c, Lever l, const dou
     for (auto& th : pool) th.join();
   }
   if (first_bad.load() < n) std::rethrow_exception(errors[first_bad.load() / block]);
+  if (stop && stop->load()) throw Error("sweep interrupted");
   return out;
 }
 

@@ -1,6 +1,7 @@
 #pragma once
 // Inverse questions: the value of one lever that gives a target drain interval, found by
 // bracketing root-finding on the exact forward model. "No answer in the range" is an answer.
+#include <atomic>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -40,7 +41,10 @@ double drain_interval(const EngineCase& c);
 //! drain_interval() of the case with the lever at each of `n` values [h], on `threads` threads
 //! (0 = every core). Each value is its own run, so the answers are identical whatever the thread
 //! count. A refused value throws the InputError of the lowest refused element, naming its index.
-std::vector<double> sweep_drain_interval(const EngineCase& c, Lever l, const double* values, std::size_t n, int threads = 0);
+//! When `stop` is given and becomes true, the sweep ends early (within one block of values per
+//! thread) and throws acidload::Error("sweep interrupted").
+std::vector<double> sweep_drain_interval(const EngineCase& c, Lever l, const double* values, std::size_t n, int threads = 0,
+                                         const std::atomic<bool>* stop = nullptr);
 
 struct InverseAnswer {
   bool found = false;         //!< a value in [low, high] meets the target

@@ -1,0 +1,48 @@
+"""Property tests of the program's command line (README "Using the program": one exit-code rule).
+For any argument list: the exit code is 0, 2 or 3, never a crash; a failing command writes nothing
+to standard output and says why on standard error; an option a command does not take is exit 2."""
+import subprocess
+
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from conftest import ROOT, acidload_program
+
+COMMANDS = ["check", "run", "solve", "convert", "fit", "forecast", "uncertainty", "demo"]
+TAKES = {"check": {"--overlay"}, "run": {"--overlay", "--out"},
+         "solve": {"--for", "--target", "--range", "--variant", "--overlay"},
+         "convert": {"--case", "--as", "--variant", "--overlay"},
+         "fit": {"--lab", "--parameters", "--variant", "--overlay", "--write-overlay"},
+         "forecast": {"--lab", "--parameters", "--variant", "--overlay"},
+         "uncertainty": {"--draws", "--seed", "--threads", "--variant", "--overlay"}, "demo": set()}
+OPTIONS = sorted(set().union(*TAKES.values()) | {"--bogus"})
+CASE = str(ROOT / "cases" / "demo-site.yaml")
+words = st.one_of(st.sampled_from(OPTIONS), st.sampled_from([CASE, "h2s", "4000 h", "-5 h", "1.5", "0", "abc", "",
+                                                             "300 ppmv", "--", "-x", "raw gas"]),
+                  st.text(max_size=6))
+
+
+def run(args):
+    return subprocess.run([str(acidload_program()), *args], capture_output=True, timeout=60,
+                          stdin=subprocess.DEVNULL)
+
+
+@settings(max_examples=120, deadline=None)
+@given(command=st.sampled_from(COMMANDS + ["frob"]), rest=st.lists(words, max_size=6))
+def test_property_any_command_line_follows_the_exit_code_rule(command, rest):
+    rest = [w for w in rest if w not in ("--out", "--write-overlay") and not w.startswith("--out=")]  # no writes here
+    if "--help" in rest or "-h" in rest:
+        return
+    r = run([command, *rest])
+    assert r.returncode in (0, 2, 3), (r.returncode, r.stderr[:300])
+    if r.returncode:
+        assert not r.stdout and r.stderr.startswith(b"acidload: ")
+
+
+@settings(max_examples=40, deadline=None)
+@given(command=st.sampled_from(COMMANDS), option=st.sampled_from(OPTIONS))
+def test_property_an_option_a_command_does_not_take_is_refused_naming_it(command, option):
+    if option in TAKES[command]:
+        return
+    r = run([command, CASE, option, "x"] if command != "demo" else [command, option, "x"])
+    assert r.returncode == 2 and option.encode() in r.stderr and not r.stdout
