@@ -53,7 +53,7 @@ def test_notebook_runs_headless_and_shows_the_programs_intervals(tmp_path, monke
     errors = [o for c in code for o in c.outputs if o.output_type == "error"]
     assert not errors, errors
     images = [o for c in code for o in c.outputs if o.output_type == "display_data" and "image/png" in o.data]
-    assert len(images) == 2, "the TBN/TAN/SAN figure and the H2S sweep"
+    assert len(images) == 3, "the TBN/TAN/SAN/oxidation figure, the H2S sweep and the acids by species"
     text = "".join(o.get("text", "") for c in code for o in c.outputs if o.output_type == "stream")
     assert acidload.__version__ in text and "Harrowfield" in text
     expected = program_intervals(tmp_path)
@@ -67,6 +67,9 @@ def test_notebook_runs_headless_and_shows_the_programs_intervals(tmp_path, monke
     for name in SCRUBBING:
         assert abs(shown[name] - expected[name]) <= 5e-4, (name, shown[name], expected[name])
     assert "H2S for 1500 h:" in text
+    report = ROOT / "out" / "demo-site-report.html"  # the notebook's result.report()
+    assert "report written to out/demo-site-report.html" in text and report.is_file()
+    assert 'content="acidload report"' in report.read_text(encoding="utf-8")[:400]
 
 
 def test_script_writes_a_png(tmp_path):

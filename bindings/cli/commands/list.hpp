@@ -4,6 +4,7 @@
 #define ACIDLOAD_CLI_COMMANDS(X) \
   X(check)                       \
   X(run)                         \
+  X(report)                      \
   X(solve)                       \
   X(convert)                     \
   X(fit)                         \

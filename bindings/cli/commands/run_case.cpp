@@ -5,12 +5,14 @@
 
 #include "../cli.hpp"
 #include "../report.hpp"
+#include "acidload/io/report.hpp"
 #include "acidload/io/results.hpp"
 #include "acidload/studies/whatif.hpp"
 
 namespace acidload_cli {
 
-int run_case(std::FILE* out, const acidload::io::CaseFile& c, const std::string& out_folder) {
+int run_case(std::FILE* out, const acidload::io::CaseFile& c, const std::string& out_folder,
+             const std::string& summary_csv) {
   using clock = std::chrono::steady_clock;
   const auto start = clock::now();
   const bool terminal = isatty(STDERR_FILENO);
@@ -25,10 +27,12 @@ int run_case(std::FILE* out, const acidload::io::CaseFile& c, const std::string&
   }
   if (shown) std::fprintf(stderr, "\r%60s\r", "");
   if (!out_folder.empty()) acidload::io::write_results(out_folder, c, rows);
+  if (!summary_csv.empty()) acidload::io::write_summary_csv(summary_csv, acidload::io::summary_csv(c, rows), acidload::io::report_inputs(c, ""));
   print_comparison(out, c, rows);
   if (!out_folder.empty())
     std::fprintf(out, "\nResults written to %s/summary.json and %s/trajectories.csv\n", out_folder.c_str(),
                  out_folder.c_str());
+  if (!summary_csv.empty()) std::fprintf(out, "Comparison table written to %s\n", summary_csv.c_str());
   print_caution(out);
   print_oil_cautions(out, c);
   return exit_ok;

@@ -225,6 +225,26 @@ class Result:
             raise TypeError(f"write() takes a folder name, not {type(folder).__name__}")
         self._run.write_results(os.fspath(folder))
 
+    def summary_csv(self) -> str:
+        """The comparison table as CSV text (one row per variant and charge, charges from 1, units in the
+        header), as ``acidload run CASE --summary-csv FILE`` writes it."""
+        return self._run.summary_csv()
+
+    def report_html(self, lab: Optional[Union[str, "os.PathLike[str]"]] = None,
+                    parameters: Optional[List[str]] = None) -> str:
+        """The report page as HTML text, made by the same C++ writer as ``acidload report``.
+
+        lab: a lab CSV file: its readings are drawn against the model fitted to them (``parameters``,
+        default model.liner-uptake and model.oxidation-rate) with a 90 % band."""
+        return self._run.report_html(os.fspath(lab) if lab is not None else "", list(parameters or []))
+
+    def report(self, path: Union[str, "os.PathLike[str]"], lab: Optional[Union[str, "os.PathLike[str]"]] = None,
+               parameters: Optional[List[str]] = None) -> None:
+        """Writes the report page (one self-contained HTML file: inline CSS and SVG, no scripts, nothing
+        fetched; prints on A4) as ``acidload report CASE --out path`` does: atomically, and an existing
+        file is replaced only if it is an acidload report (else acidload.Error, the file left as it was)."""
+        self._run.write_report(os.fspath(path), os.fspath(lab) if lab is not None else "", list(parameters or []))
+
     def __repr__(self) -> str:
         return f"<acidload.Result of {self.summary['case'] or self.summary['case-file']!r}: {len(self)} variant(s)>"
 

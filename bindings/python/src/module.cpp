@@ -15,6 +15,7 @@
 #include "acidload/io/case_file.hpp"
 #include "acidload/io/lab_file.hpp"
 #include "acidload/io/quantity.hpp"
+#include "acidload/io/report.hpp"
 #include "acidload/io/results.hpp"
 #include "acidload/studies/calibration.hpp"
 #include "acidload/studies/forecast.hpp"
@@ -559,7 +560,29 @@ PYBIND11_MODULE(_core, m) {
       .def("first_rates", [](const CaseRun& r, std::size_t i) { return rates_dict(r.rows.at(i).run.first_rates); },
            py::arg("index"), "The first segment's oil-balance rates of variant `index`.")
       .def("write_results", [](const CaseRun& r, const std::string& folder) { io::write_results(folder, r.file, r.rows); },
-           py::arg("folder"), "Writes summary.json and trajectories.csv into folder, as the program does.");
+           py::arg("folder"), "Writes summary.json and trajectories.csv into folder, as the program does.")
+      .def("summary_csv", [](const CaseRun& r) { return io::summary_csv(r.file, r.rows); },
+           "The comparison table as CSV text, exactly as 'acidload run --summary-csv' writes it.")
+      .def("report_html",
+           [](const CaseRun& r, const std::string& lab, const std::vector<std::string>& parameters) {
+             io::ReportOptions o;
+             o.lab_file = lab;
+             if (!parameters.empty()) o.parameters = parameters;
+             py::gil_scoped_release release;
+             return io::report_html(io::gather_report(r.file, r.rows, o));
+           },
+           py::arg("lab") = "", py::arg("parameters") = std::vector<std::string>{},
+           "The report page as HTML text, as 'acidload report' writes it (lab: a lab CSV file or '').")
+      .def("write_report",
+           [](const CaseRun& r, const std::string& path, const std::string& lab, const std::vector<std::string>& parameters) {
+             io::ReportOptions o;
+             o.lab_file = lab;
+             if (!parameters.empty()) o.parameters = parameters;
+             py::gil_scoped_release release;
+             io::write_report(path, io::report_html(io::gather_report(r.file, r.rows, o)), io::report_inputs(r.file, lab));
+           },
+           py::arg("path"), py::arg("lab") = "", py::arg("parameters") = std::vector<std::string>{},
+           "Writes the report page atomically; an existing file is replaced only if it is an acidload report.");
   m.def("run_case", &run_case, py::arg("case"), "Runs every variant of a case (the GIL released).");
 
   // ---- studies

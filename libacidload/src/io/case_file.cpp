@@ -6,6 +6,7 @@
 #include <algorithm>
 #include <cmath>
 #include <filesystem>
+#include <map>
 #include <memory>
 #include <set>
 
@@ -212,6 +213,25 @@ EngineCase build(Reader& r, const Node& root, const std::string& name) {
   return c;
 }
 
+// "section.key" → the file that set it, for the sections of a variant's merged tree (the report's
+// given / default / fitted marks).
+std::map<std::string, std::string> key_sources(const Reader& r, const Node& root) {
+  std::map<std::string, std::string> out;
+  for (const auto& [section, node] : root.entries) {
+    if (section == "variants" || section == "uncertainty" || section == "format-version" || section == "case") continue;
+    if (node.type != Node::Type::map) {
+      out[section] = r.doc(node).file;
+      continue;
+    }
+    for (const auto& [key, value] : node.entries) {
+      const Node* first = &value;  // a merged map may mix sources: the first entry's stands for it
+      while (first->type == Node::Type::map && !first->entries.empty()) first = &first->entries.front().second;
+      out[section + "." + key] = r.doc(*first).file;
+    }
+  }
+  return out;
+}
+
 std::shared_ptr<Document> parse_into(Reader& r, std::string_view text, const std::string& file) {
   auto d = std::make_shared<Document>(parse_document(text, file));
   detail::set_source(d->root, static_cast<int>(r.docs.size()));
@@ -274,6 +294,8 @@ CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::
     if (base_name.empty()) r.fail(*b, "", "a name that is not empty");
   }
   out.variants.push_back(build(r, root, base_name));
+  out.key_sources.push_back(key_sources(r, root));
+  out.variant_keys.emplace_back();
   if (const Node* vs = root0.find("variants")) {
     if (vs->type != Node::Type::sequence) r.fail(*vs, "", "a list of variants, each with a 'name'");
     if (vs->items.size() > max_variants)
@@ -290,8 +312,13 @@ CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::
       if (name.empty()) r.fail(*n, "", "a variant name that is not empty");
       if (!names.insert(name).second) r.fail(*n, name, "a variant name not used before");
       Node merged = root;
-      detail::merge_layer(merged, without(v, {"name"}));
+      const Node layer = without(v, {"name"});
+      detail::merge_layer(merged, layer);
       out.variants.push_back(build(r, merged, name));
+      out.key_sources.push_back(key_sources(r, merged));
+      std::vector<std::string> own;
+      for (const auto& [key, file] : key_sources(r, layer)) own.push_back(key);
+      out.variant_keys.push_back(std::move(own));
       segments += out.variants.back().record.size();
       if (segments > max_segments_in_all)
         r.fail(*n, name, "variants whose records hold at most " + std::to_string(max_segments_in_all) +

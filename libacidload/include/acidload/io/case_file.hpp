@@ -3,6 +3,7 @@
 // calibratable parameters, the limits, an operating record, and named variants to compare.
 // The format is documented key by key in docs/case-format.md and as a JSON Schema in
 // docs/case-format.schema.json.
+#include <map>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -42,6 +43,11 @@ struct CaseFile {
   std::vector<std::string> overlays;   //!< overlay files applied, in order
   int format_version = case_format_version;  //!< as written in the file
   UncertaintySettings uncertainty;           //!< the `uncertainty` section, if any
+  //! Per variant (parallel to `variants`): each "section.key" the files set ("fuel.h2s", "oil.volume")
+  //! and the file that set it last (the case file or an overlay); a key not listed took its default.
+  std::vector<std::map<std::string, std::string>> key_sources;
+  //! Per variant: the "section.key"s its own entry under `variants` sets (empty for the base).
+  std::vector<std::vector<std::string>> variant_keys;
 };
 
 //! Reads a case file. Every key is read through the registry (keys.hpp). Overlays (files of the same format holding any subset of its sections,
