@@ -33,6 +33,12 @@ Options& Options::positional(const char* name, std::string& into, bool optional)
   positionals_.push_back({name, &into, optional});
   return *this;
 }
+Options& Options::positionals(const char* name, std::vector<std::string>& into) {
+  rest_ = &into;
+  rest_name_ = name;
+  return *this;
+}
+
 Options& Options::value(const char* option, std::string& into, const char* meta) {
   specs_.push_back({option, meta, 1, false, &into});
   return *this;
@@ -74,6 +80,11 @@ void Options::parse(const std::vector<std::string>& args) {
   std::size_t next_positional = 0;
   bool options_ended = false;
   const auto take_positional = [&](const std::string& s) {
+    if (next_positional >= positionals_.size() && rest_) {
+      if (s.empty()) throw UsageError(command_ + ": " + rest_name_ + " is empty");
+      rest_->push_back(s);
+      return;
+    }
     if (next_positional >= positionals_.size()) {
       if (positionals_.empty()) throw UsageError(command_ + " takes no arguments (got '" + s + "')");
       throw UsageError(command_ + " takes one " + positionals_.back().name + " (got '" + *positionals_.back().into +
@@ -134,6 +145,7 @@ void Options::parse(const std::vector<std::string>& args) {
   }
   for (std::size_t k = next_positional; k < positionals_.size(); ++k)
     if (!positionals_[k].optional) throw UsageError(command_ + " needs " + positionals_[k].name);
+  if (rest_ && rest_->empty()) throw UsageError(command_ + " needs " + rest_name_);
 }
 
 namespace {

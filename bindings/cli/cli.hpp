@@ -47,6 +47,8 @@ class Options {
   explicit Options(const char* command) : command_(command) {}
   //! A positional argument (required unless `optional`).
   Options& positional(const char* name, std::string& into, bool optional = false);
+  //! One or more positional arguments (after any single positionals), collected in order.
+  Options& positionals(const char* name, std::vector<std::string>& into);
   //! `--name VALUE`, at most once.
   Options& value(const char* option, std::string& into, const char* meta);
   //! `--name VALUE`, any number of times.
@@ -78,6 +80,8 @@ class Options {
   std::string command_;
   std::vector<Spec> specs_;
   std::vector<Positional> positionals_;
+  std::vector<std::string>* rest_ = nullptr;  // positionals(): one or more
+  std::string rest_name_;
 };
 
 //! A progress line on standard error, only when it is a terminal: after the first second of work,

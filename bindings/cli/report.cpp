@@ -6,6 +6,7 @@
 #include "acidload/acidload.hpp"
 #include "acidload/io/document.hpp"
 #include "acidload/io/quantity.hpp"
+#include "cli.hpp"
 
 namespace acidload_cli {
 
@@ -270,6 +271,31 @@ void print_oil_cautions(std::FILE* out, const io::CaseFile& c) {
   if (catalyst)
     std::fprintf(out, "Caution: an oxidation catalyst turns SO2 into SO3, which raises the exhaust acid dew point and the wall\n"
                       "temperature the heat recovery downstream must keep; sulfur and silicon also poison the catalyst.\n");
+}
+
+void print_fleet(std::FILE* out, const std::vector<io::FleetCase>& fleet) {
+  std::size_t variants = 0;
+  for (const auto& f : fleet) variants += f.rows.size();
+  std::fprintf(out, "Fleet: %zu cases, %zu variants (first charge of each)\n", fleet.size(), variants);
+  std::fprintf(out, "%-24s %-31s %11s  %-10s %5s %5s %5s\n", "case", "variant", "drain", "limit", "TBN", "TAN", "SAN");
+  const std::string *short_case = nullptr, *short_variant = nullptr;
+  double shortest = INFINITY;
+  for (const auto& f : fleet)
+    for (const VariantSummary& v : f.rows) {
+      const std::string interval =
+          v.charge.first ? std::to_string(static_cast<long>(v.charge.drain_interval + 0.5)) + " h" : "not reached";
+      std::fprintf(out, "%-24s %-31s %11s  %-10s %5.2f %5.2f %5.2f\n", terminal_safe(f.stem).c_str(),
+                   terminal_safe(v.name).c_str(), interval.c_str(),
+                   v.charge.first ? std::string(name(*v.charge.first)).c_str() : "-", v.tbn_end, v.tan_end, v.san_end);
+      if (v.charge.first && v.charge.drain_interval < shortest) {
+        shortest = v.charge.drain_interval;
+        short_case = &f.stem;
+        short_variant = &v.name;
+      }
+    }
+  if (short_case)
+    std::fprintf(out, "Shortest interval: %.0f h (%s, %s)\n", shortest, terminal_safe(*short_case).c_str(),
+                 terminal_safe(*short_variant).c_str());
 }
 
 }  // namespace acidload_cli

@@ -5,6 +5,7 @@
 #include <vector>
 
 #include "acidload/io/case_file.hpp"
+#include "acidload/io/results.hpp"
 #include "acidload/studies/calibration.hpp"
 #include "acidload/studies/forecast.hpp"
 #include "acidload/studies/monte_carlo.hpp"
@@ -28,6 +29,9 @@ void print_forecast(std::FILE* out, const acidload::FitResult& f, const std::vec
 //! Monte Carlo percentiles.
 void print_monte_carlo(std::FILE* out, const acidload::EngineCase& c, const std::vector<acidload::UncertainInput>& in,
                        const acidload::MonteCarloResult& r, std::uint64_t seed);
+//! The fleet table: one line per case and variant (drain interval, limit, readings there), the
+//! shortest interval of the fleet named.
+void print_fleet(std::FILE* out, const std::vector<acidload::io::FleetCase>& fleet);
 //! The one-line caution every result carries, and the fuller one.
 void print_caution(std::FILE* out);
 //! Cautions on the oil and the exhaust where a case calls for them: the ash of a higher-TBN oil, an oxidation catalyst.

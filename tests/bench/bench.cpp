@@ -1,8 +1,10 @@
-// acidload benchmarks (built with the project, not run by the tests): prints figures and ratios,
-// each timing the median of several runs, each ratio measured side by side in the same run.
-//   bench            the C++ table: (1) one engine over a one-year hourly record against the limit
-//                    loop, (2) Monte Carlo with 1 and 2 threads, (5) memory of a ten-year
-//                    one-minute record against a one-year one
+// acidload benchmarks (built with the project, not run by the tests): prints figures and ratios;
+// every side is timed once per round, the sides interleaved, and a figure is the median of the
+// rounds with its spread.
+//   bench            the C++ table: (5) the limit — a minimal closed-form loop written here against
+//                    acidload's oil balance and full simulate, and the rate of reading the input
+//                    bytes; (2b) Monte Carlo on the demo history with and without the early stop,
+//                    1 and 2 threads; (6) memory of a ten-year one-minute record against a one-year one
 //   bench --memory-run YEARS   stream YEARS of one-minute segments, print the peak resident memory
 //   bench --record-csv FILE    write the one-year hourly record's inputs for the Python side
 #include <sys/resource.h>
@@ -10,17 +12,21 @@
 
 #include <algorithm>
 #include <chrono>
+#include <ctime>
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
 #include <cstring>
 #include <string>
+#include <thread>
 #include <vector>
 
 #include "acidload/acidload.hpp"
 #include "acidload/core/rates.hpp"
 #include "acidload/studies/calibration.hpp"
 #include "acidload/studies/monte_carlo.hpp"
+#include "acidload/io/case_file.hpp"
+#include <unistd.h>
 
 using namespace acidload;
 using clock_type = std::chrono::steady_clock;
@@ -88,20 +94,6 @@ double time_median(int runs, F f) {
   return median(t);
 }
 
-// The limit: the same closed forms in a bare loop — transfer, rates, one exact advance per
-// segment — with no trajectory, no limit watching, nothing else.
-OilState limit_loop(const std::vector<Segment>& rec, const OilCharge& c, const ModelParameters& m) {
-  const OilBalance k = balance_constants(c.oil);
-  OilState s = fresh_oil(c.oil, c.mass);
-  OilLedger ledger;
-  for (const Segment& seg : rec) {
-    const Transfer t = transfer(seg.fuel, seg.operation, m.transfer);
-    const OilRates r = oil_rates(t, m.oxidation, seg.oil_temperature, seg.oil_consumption, true);
-    advance(s, k, r, seg.hours, ledger);
-  }
-  return s;
-}
-
 long peak_rss_kb() {
   rusage u{};
   getrusage(RUSAGE_SELF, &u);
@@ -140,6 +132,109 @@ MemoryFigure memory_child(const char* self, double years) {
   return m;
 }
 
+
+// Median and spread (min, max) of per-round figures.
+struct Spread {
+  double median = 0, low = 0, high = 0;
+};
+Spread spread(std::vector<double> v) {
+  std::sort(v.begin(), v.end());
+  return {v[v.size() / 2], v.front(), v.back()};
+}
+template <class F>
+double seconds(F f) {
+  const auto a = clock_type::now();
+  f();
+  return std::chrono::duration<double>(clock_type::now() - a).count();
+}
+// CPU time of the calling thread: for work on this thread alone, so that on a shared machine the
+// time spent waiting for a core does not count.
+double thread_cpu() {
+  timespec t{};
+  clock_gettime(CLOCK_THREAD_CPUTIME_ID, &t);
+  return static_cast<double>(t.tv_sec) + 1e-9 * static_cast<double>(t.tv_nsec);
+}
+template <class F>
+double cpu_seconds(F f) {
+  const double a = thread_cpu();
+  f();
+  return thread_cpu() - a;
+}
+
+// The limit: the oil balance of a record of constant-rate segments above the base floor with
+// continuous makeup, written for the benchmark from the balance's equations (no library call in
+// the loop): every state y obeys dy/dt = A − L·y over a segment, so y ← y∞ + (y − y∞)·e^{−L·h},
+// y∞ = A/L, with three distinct exponentials per segment (the makeup k, k + SO2 uptake, k + additive
+// depletion). States: reactive base b, weak acid w, u = b + salts, oxidation, nitration, additive.
+struct Minimal {
+  double b, w, u, ox, ni, add;
+};
+Minimal minimal_loop(const std::vector<double>& hours, const std::vector<OilRates>& rates, const OilBalance& k, double M,
+                     const OilState& start) {
+  Minimal y{start.base, start.weak_acid, start.base + start.salts, start.oxidation, start.nitration, start.additive_acidity};
+  const double phi = k.organic_neutralised_share, bf = k.fresh_base, bmin = k.base_floor;
+  for (std::size_t i = 0; i < rates.size(); ++i) {
+    const OilRates& r = rates[i];
+    const double h = hours[i], km = r.consumption / M, l1 = r.sulfurous_fresh / (bf - bmin) / M;
+    const double e_k = std::exp(-km * h), e_b = std::exp(-(km + l1) * h), e_a = std::exp(-(km + k.additive_depletion) * h);
+    const double b_inf = (-r.strong_acid / M - phi * r.organic_acid + l1 * bmin + km * bf) / (km + l1);
+    y.b = b_inf + (y.b - b_inf) * e_b;
+    const double w_inf = (1 - phi) * r.organic_acid / km;
+    y.w = w_inf + (y.w - w_inf) * e_k;
+    y.u = bf + (y.u - bf) * e_k;
+    const double ox_inf = r.oxidation / km, ni_inf = r.nitration / M / km;
+    y.ox = ox_inf + (y.ox - ox_inf) * e_k;
+    y.ni = ni_inf + (y.ni - ni_inf) * e_k;
+    const double add_inf = km * k.fresh_additive / (km + k.additive_depletion);
+    y.add = add_inf + (y.add - add_inf) * e_a;
+  }
+  return y;
+}
+
+// A year of hourly segments whose operating state changes once a day (a daily gas analysis and
+// load reading): the rates repeat 24 times, so the transfer need not be recomputed.
+std::vector<Segment> hourly_year_daily_readings() {
+  std::vector<Segment> r;
+  for (int h = 0; h < 8760; ++h) r.push_back(segment(1.0, h2s_at(h - h % 24), load_at(12)));
+  return r;
+}
+
+// Monte Carlo's draw without the early stop: the first charge continued to the hours cap, every
+// limit watched (what each draw cost before the stop), for the ratio.
+std::vector<double> draws_without_stop(const EngineCase& c0, const std::vector<UncertainInput>& in, int draws, std::uint64_t seed) {
+  EngineCase c = c0;
+  c.record.clear();
+  double hours = 0;
+  for (std::size_t i = 0; i < c0.record.size(); ++i) {
+    bool change = false;
+    for (const OilEvent& e : c0.record[i].events) change |= e.kind == OilEvent::Kind::oil_change;
+    if (change && i > 0) break;
+    c.record.push_back(c0.record[i]);
+    hours += c0.record[i].hours;
+  }
+  if (hours < c0.model.limits.max_hours) {
+    Segment more = c.record.back();
+    more.events.clear();
+    more.starts = more.hours > 0 ? more.starts / more.hours * (c0.model.limits.max_hours - hours) : 0;
+    more.hours = c0.model.limits.max_hours - hours;
+    more.calendar_hours = -1;
+    c.record.push_back(more);
+  }
+  std::vector<double> out;
+  for (int i = 0; i < draws; ++i) {
+    EngineCase x = c;
+    for (std::size_t k = 0; k < in.size(); ++k)
+      set_parameter(x, in[k].key, sample(in[k].distribution, uniform01(seed, static_cast<std::uint64_t>(i), 2 * k),
+                                         uniform01(seed, static_cast<std::uint64_t>(i), 2 * k + 1)));
+    RunOptions o = x.options;
+    o.output_interval = 0;
+    o.keep_segment_ends = false;
+    const RunResult r = simulate(x.charge, x.model, x.record, o);
+    out.push_back(r.charges.front().first ? r.charges.front().drain_interval : x.model.limits.max_hours);
+  }
+  return out;
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
@@ -163,49 +258,121 @@ int main(int argc, char** argv) {
     return 0;
   }
   std::setvbuf(stdout, nullptr, _IONBF, 0);  // figures appear as they are measured
-  const int runs = 7;
-  std::printf("acidload %s benchmarks (median of %d runs; ratios measured side by side in this run)\n\n", version(), runs);
+  const int rounds = 7;
+  std::printf("acidload %s benchmarks, C++ side: every side timed in each of %d rounds, the sides interleaved\n"
+              "(A B C A B C …); a figure is the median of the rounds [lowest – highest]\n\n", version(), rounds);
 
-  // (1) one engine over a one-year hourly record
-  const std::vector<Segment> year = hourly_year();
+  // (5) the limit: a year of hourly segments
+  const std::vector<Segment> year = hourly_year(), daily = hourly_year_daily_readings();
   const OilCharge c = charge();
   const ModelParameters m = model();
-  RunResult full;
-  OilState lim;
-  const double t_acid = time_median(runs, [&] { full = simulate(c, m, year); });
-  const double t_limit = time_median(runs, [&] { lim = limit_loop(year, c, m); });
-  const double rel = std::fabs(full.final_state.base - lim.base) / lim.base;
-  std::printf("1. one-year hourly record, 8760 segments (H2S and load varying)\n");
-  std::printf("   acidload simulate            %8.3f us/segment\n", t_acid / 8760 * 1e6);
-  std::printf("   limit loop (same closed forms) %6.3f us/segment\n", t_limit / 8760 * 1e6);
-  std::printf("   ratio acidload / limit        %8.2f   (target <= 2)   end states agree to %.1e\n\n", t_acid / t_limit, rel);
+  const OilBalance k = balance_constants(c.oil);
+  std::vector<double> hours;
+  std::vector<OilRates> rates;
+  for (const Segment& s : year) {
+    hours.push_back(s.hours);
+    rates.push_back(oil_rates(transfer(s.fuel, s.operation, m.transfer), m.oxidation, s.oil_temperature, s.oil_consumption, true));
+  }
+  const OilState start = fresh_oil(c.oil, c.mass);
+  Minimal lim{};
+  OilState bal{};
+  RunResult full, full_daily;
+  std::vector<double> r_bal, r_full, r_daily, t_lim;
+  for (int round = 0; round < rounds; ++round) {
+    const double a = cpu_seconds([&] { lim = minimal_loop(hours, rates, k, c.mass, start); });
+    const double b = cpu_seconds([&] {
+      bal = start;
+      OilLedger ledger;
+      for (std::size_t i = 0; i < rates.size(); ++i) advance(bal, k, rates[i], hours[i], ledger);
+    });
+    const double f = cpu_seconds([&] { full = simulate(c, m, year); });
+    const double d = cpu_seconds([&] { full_daily = simulate(c, m, daily); });
+    t_lim.push_back(a / 8760 * 1e6);
+    r_bal.push_back(b / a), r_full.push_back(f / a), r_daily.push_back(d / a);
+  }
+  const double dev_bal = std::fabs(bal.base - lim.b), dev_full = std::fabs(full.final_state.base - lim.b);
+  const double dev_salts = std::fabs(bal.salts - (lim.u - lim.b));
+  const Spread tl = spread(t_lim), sb = spread(r_bal), sf = spread(r_full), sd = spread(r_daily);
+  std::printf("5. the limit: a year of hourly segments (8760; H2S and load vary every hour), above the base floor\n");
+  std::printf("   minimal closed-form loop (written here, no library call)  %.4f us/segment [%.4f – %.4f]\n", tl.median, tl.low, tl.high);
+  std::printf("   acidload oil balance (advance per segment) / minimal      %6.2f  [%.2f – %.2f]   base agrees to %.1e mg KOH/g, salts to %.1e\n",
+              sb.median, sb.low, sb.high, dev_bal, dev_salts);
+  std::printf("   acidload simulate, transfer every hour / minimal          %6.2f  [%.2f – %.2f]   (target <= 2)   base agrees to %.1e\n",
+              sf.median, sf.low, sf.high, dev_full);
+  std::printf("   acidload simulate, state repeats 24 h (transfer reused) / minimal %.2f [%.2f – %.2f]   (target <= 2)\n",
+              sd.median, sd.low, sd.high);
+  std::printf("   (simulate includes the transfer, limit watching with detection steps of 25 h and a trajectory point per segment;\n"
+              "   every side on one thread, CPU time of that thread)\n\n");
 
-  // (2) Monte Carlo, 10 000 draws of that record
-  EngineCase e;
-  e.charge = c;
-  e.model = m;
-  e.model.limits.max_hours = 8760;
-  e.record = year;
-  const std::vector<UncertainInput> in = {{"model.so3-share", {Distribution::Kind::triangular, 0.005, 0.02, 0.035}},
-                                          {"engine.blow-by", {Distribution::Kind::uniform, 0.006, 0.014, 0}}};
-  const int draws = 10000;
-  const int mc_runs = 5;
-  MonteCarloResult r1, r2;
-  const double t1 = time_median(mc_runs, [&] { r1 = monte_carlo(e, in, draws, 1, 1); });
-  const double t2 = time_median(mc_runs, [&] { r2 = monte_carlo(e, in, draws, 1, 2); });
-  std::printf("2. Monte Carlo, %d draws of the one-year record\n", draws);
-  std::printf("   1 thread  %10.0f draws/s\n   2 threads %10.0f draws/s\n", draws / t1, draws / t2);
-  std::printf("   speed-up  %10.2f   (target >= 1.8)   identical results: %s\n\n", t1 / t2,
-              r1.drain_interval == r2.drain_interval ? "yes" : "NO");
+  // (5) reading the input bytes: the floor under any record reader
+  {
+    char name[] = "/tmp/acidload-bench-XXXXXX";
+    const int fd = mkstemp(name);
+    FILE* f = fdopen(fd, "w");
+    const long rows = 1000000;
+    std::fprintf(f, "hours [h],h2s [ppmv],load [%%]\n");
+    for (long i = 0; i < rows; ++i) std::fprintf(f, "1,%.1f,%.1f\n", h2s_at(static_cast<double>(i)), 100 * load_at(static_cast<double>(i)));
+    std::fclose(f);
+    std::vector<double> rate;
+    long bytes = 0, lines = 0;
+    std::vector<char> buf(1 << 20);
+    for (int round = 0; round < 5; ++round) {
+      bytes = lines = 0;
+      const double t = seconds([&] {
+        FILE* in = std::fopen(name, "rb");
+        for (std::size_t n; (n = std::fread(buf.data(), 1, buf.size(), in)) > 0;) {
+          bytes += static_cast<long>(n);
+          for (const char* p = buf.data(); (p = static_cast<const char*>(std::memchr(p, '\n', static_cast<std::size_t>(buf.data() + n - p)))); ++p) ++lines;
+        }
+        std::fclose(in);
+      });
+      rate.push_back(static_cast<double>(lines - 1) / t);
+    }
+    std::remove(name);
+    const Spread r = spread(rate);
+    std::printf("   reading the input bytes (1e6-row record, %.1f MB, from the page cache, lines counted)\n", static_cast<double>(bytes) / 1e6);
+    std::printf("   %.0f million rows/s [%.0f – %.0f] = %.0f MB/s\n\n", r.median / 1e6, r.low / 1e6, r.high / 1e6,
+                r.median * static_cast<double>(bytes) / static_cast<double>(lines) / 1e6);
+  }
 
-  // (5) memory: ten-year one-minute record against a one-year one, decimated to a point a day
+  // (2b) Monte Carlo on the demo history: the early stop, and threads
+  {
+    const io::CaseFile file = io::load_case(std::string(ACIDLOAD_SOURCE_DIR) + "/cases/demo-site-history.yaml");
+    const EngineCase& e = file.variants.front();
+    const std::vector<UncertainInput>& in = file.uncertainty.inputs;
+    const int draws = 4000;
+    const std::uint64_t seed = file.uncertainty.seed;
+    MonteCarloResult one, two;
+    std::vector<double> plain;
+    std::vector<double> t1, t2, tp;
+    for (int round = 0; round < 5; ++round) {
+      t1.push_back(seconds([&] { one = monte_carlo(e, in, draws, seed, 1); }));
+      t2.push_back(seconds([&] { two = monte_carlo(e, in, draws, seed, 2); }));
+      tp.push_back(seconds([&] { plain = draws_without_stop(e, in, draws, seed); }));
+    }
+    std::vector<double> stop_ratio, speedup;
+    for (std::size_t i = 0; i < t1.size(); ++i) stop_ratio.push_back(tp[i] / t1[i]), speedup.push_back(t1[i] / t2[i]);
+    double worst = 0;
+    for (int i = 0; i < draws; ++i) worst = std::fmax(worst, std::fabs(one.drain_interval[static_cast<std::size_t>(i)] - plain[static_cast<std::size_t>(i)]));
+    const Spread s1 = spread(t1), ss = spread(stop_ratio), sp = spread(speedup);
+    std::printf("2b. Monte Carlo, %d draws of the demo history (cases/demo-site-history.yaml, its 4 inputs)\n", draws);
+    std::printf("   1 thread, each draw stopped once its interval and first SAN are known  %8.0f draws/s [%.0f – %.0f]\n",
+                draws / s1.median, draws / s1.high, draws / s1.low);
+    std::printf("   without the stop (first charge run to the hours cap, every limit watched) / with  %.2f [%.2f – %.2f]\n",
+                ss.median, ss.low, ss.high);
+    std::printf("   intervals of the two agree to %.1e h\n", worst);
+    std::printf("   2 threads / 1 thread speed-up  %.2f [%.2f – %.2f]   (target >= 0.9 x %u cores; the machine is shared)   identical results: %s\n\n",
+                sp.median, sp.low, sp.high, std::thread::hardware_concurrency(),
+                one.drain_interval == two.drain_interval && one.first_san == two.first_san ? "yes" : "NO");
+  }
+
+  // memory: ten-year one-minute record against a one-year one, decimated to a point a day
   const MemoryFigure one = memory_child(argv[0], 1), ten = memory_child(argv[0], 10);
-  std::printf("5. memory, one-minute segments streamed, a trajectory point a day\n");
+  std::printf("6. memory of the library's streaming call (simulate with a segment source), one-minute segments, a point a day\n");
   std::printf("   one year  (%8ld segments, %6zu points) peak %8ld kB\n", 525600L, one.points, one.kb);
   std::printf("   ten years (%8ld segments, %6zu points) peak %8ld kB\n", 5256000L, ten.points, ten.kb);
   const double kept_kb = static_cast<double>(ten.points - one.points) * sizeof(TrajectoryPoint) / 1024.0;
   std::printf("   ratio ten / one %6.2f; growth %ld kB, of which the extra kept points are %.0f kB (x2 for vector growth)\n",
               static_cast<double>(ten.kb) / static_cast<double>(one.kb), ten.kb - one.kb, kept_kb);
-  std::printf("   (target: flat — no growth with record length beyond the kept output)\n");
   return 0;
 }

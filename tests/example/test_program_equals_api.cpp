@@ -4,6 +4,8 @@
 
 #include <cstdlib>
 #include <filesystem>
+#include <string>
+#include <unistd.h>
 #include <fstream>
 #include <sstream>
 #include <string>
@@ -21,7 +23,8 @@ TEST_CASE("program output equals the API's for the shipped cases") {
     std::vector<acidload::VariantSummary> rows;
     for (const auto& v : c.variants) rows.push_back(acidload::summarize(v));
     const std::string api = acidload::io::summary_json(c, rows);
-    const fs::path out = fs::temp_directory_path() / (std::string("acidload-example-") + name);
+    // a folder of this process's own: runs in other build folders at the same time must not meet here
+    const fs::path out = fs::temp_directory_path() / ("acidload-example-" + std::to_string(::getpid()) + "-" + name);
     fs::remove_all(out);
     const std::string cmd = std::string("\"") + ACIDLOAD_CLI + "\" run \"" + file + "\" --out \"" + out.string() + "\" > /dev/null";
     REQUIRE(std::system(cmd.c_str()) == 0);

@@ -191,3 +191,26 @@ TEST_CASE("a record read segment by segment gives the same run; decimated trajec
   CHECK(b.trajectory.size() == 21);  // the start and every 100 h
   CHECK(b.trajectory.back().engine_hours == doctest::Approx(2000));
 }
+
+TEST_CASE("rates reused while the operating state repeats give the bits of a fresh computation per segment") {
+  // a record whose state repeats for 6 segments at a time (the runner reuses the transfer there) against
+  // the same segments advanced one by one with their rates computed afresh each time
+  std::vector<Segment> rec;
+  for (int i = 0; i < 48; ++i) rec.push_back(hours(1.0, 200 + 40 * (i / 6)));
+  rec[20].starts = 1;  // a start changes the state of one segment only
+  const OilCharge c = sanity_charge();
+  const ModelParameters m;
+  RunOptions o;
+  o.detection_step = 0;
+  const RunResult r = simulate(c, m, rec, o);
+  OilState s = fresh_oil(c.oil, c.mass);
+  const OilBalance k = balance_constants(c.oil);
+  OilLedger ledger;
+  for (const Segment& seg : rec) advance(s, k, segment_rates(seg, c, m), seg.hours, ledger);
+  CHECK(r.final_state.base == s.base);
+  CHECK(r.final_state.weak_acid == s.weak_acid);
+  CHECK(r.final_state.salts == s.salts);
+  CHECK(r.final_state.oxidation == s.oxidation);
+  CHECK(r.final_state.nitration == s.nitration);
+  CHECK(r.ledger.acid_entered == ledger.acid_entered);
+}

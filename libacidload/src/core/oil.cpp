@@ -142,35 +142,12 @@ using detail::expm1_over_x;
 struct Linear {
   double a0 = 0, a1 = 0, l0 = 0, l1 = 0;
 };
-struct Mass {
-  double m0 = 0;  // [kg] at the start of the piece
-  double c = 0;   // decline [kg/h]; 0 with continuous makeup
-  double at(double t) const { return m0 - c * t; }
-  double integral(double t) const { return m0 * t - 0.5 * c * t * t; }  // ∫M dt
-};
+double phi2(double x);
 
-// y(t) and ∫₀ᵗ y.
-struct Solution {
-  double y, integral;
-};
-
-// φ2(x) = (x − 1 + e^{−x})/x² = E[0, −x]: series where the direct form would cancel.
-double phi2(double x) {
-  if (std::fabs(x) < 0.1) {  // Σ (−x)^k / (k + 2)!, to x^10 (error < 1e-18 at |x| = 0.1)
-    double term = 0.5, sum = 0.5;
-    for (int k = 1; k <= 10; ++k) {
-      term *= -x / (k + 2);
-      sum += term;
-    }
-    return sum;
-  }
-  return (x - 1 + std::exp(-x)) / (x * x);
-}
-
-// E(x) and φ2(x), remembered for the last few arguments: within a segment most states share one
-// exponent (−k·t of the makeup), so of the ~10 evaluations per segment only ~3 differ, and equal
-// steps of equal rates (detection steps) repeat them all. Pure: the same argument gives the same
-// bits; per thread, so Monte Carlo threads do not share it.
+// E(x) and φ2(x), remembered for the last few arguments: within a piece of a segment most states
+// share one exponent (−k·t of the makeup), so of the ~10 evaluations only ~3 differ. Pure: the same
+// argument gives the same bits. Kept with the piece's mass law (below), which every closed form
+// receives, so no thread shares it.
 template <int N>
 struct Memo {
   double x[N], y[N];
@@ -187,13 +164,32 @@ struct Memo {
     return y[turn] = f(arg);
   }
 };
-double E_of(double x) {
-  thread_local Memo<4> m;
-  return m(x, expm1_over_x);
-}
-double phi2_of(double x) {
-  thread_local Memo<3> m;
-  return m(x, phi2);
+
+struct Mass {
+  double m0 = 0;  // [kg] at the start of the piece
+  double c = 0;   // decline [kg/h]; 0 with continuous makeup
+  mutable Memo<4> E_memo{};     // E(x) of this piece's closed forms
+  mutable Memo<3> phi2_memo{};  // φ2(x) of this piece's closed forms
+  double E(double x) const { return E_memo(x, expm1_over_x); }
+  double phi2_of(double x) const { return phi2_memo(x, phi2); }
+  double at(double t) const { return m0 - c * t; }
+  double integral(double t) const { return m0 * t - 0.5 * c * t * t; }  // ∫M dt
+};
+
+// y(t) and ∫₀ᵗ y.
+struct Solution {
+  double y, integral;
+};
+
+// φ2(x) = (x − 1 + e^{−x})/x² = E[0, −x]: series where the direct form would cancel.
+double phi2(double x) {
+  if (std::fabs(x) < 0.1) {  // Σ (−x)^k / (k + 2)!, to x^10 (error < 1e-18 at |x| = 0.1), by Horner
+    static constexpr double c[11] = {1.0 / 2, 1.0 / 6, 1.0 / 24, 1.0 / 120, 1.0 / 720, 1.0 / 5040, 1.0 / 40320, 1.0 / 362880, 1.0 / 3628800, 1.0 / 39916800, 1.0 / 479001600};
+    double sum = c[10];
+    for (int k = 9; k >= 0; --k) sum = c[k] - x * sum;
+    return sum;
+  }
+  return (x - 1 + std::exp(-x)) / (x * x);
 }
 
 // y(t) alone, where the integral is not needed (the crossing search).
@@ -206,7 +202,7 @@ Solution solve(const Linear& e, double y0, const Mass& m, double t) {
     const double A = m.c == 0 ? e.a0 + e.a1 / m.m0 : e.a0;
     const double L = m.c == 0 ? e.l0 + e.l1 / m.m0 : e.l0;
     const double slope = A - L * y0;
-    return {y0 + slope * t * E_of(-L * t), y0 * t + slope * t * t * phi2_of(L * t)};
+    return {y0 + slope * t * m.E(-L * t), y0 * t + slope * t * t * m.phi2_of(L * t)};
   }
   // falling mass, l0 = 0 (no makeup): with m = M/M0, L = ln m, g = l1/c, T_M = M0/c,
   // y = y0 m^g + a0 T_M (m^g − m)/(1 − g) + (a1/c)(1 − m^g)/g, in stable divided-difference form.
@@ -226,7 +222,7 @@ Solution solve(const Linear& e, double y0, const Mass& m, double t) {
 double value(const Linear& e, double y0, const Mass& m, double t) {
   if (m.c == 0) {
     const double A = e.a0 + e.a1 / m.m0, L = e.l0 + e.l1 / m.m0;
-    return y0 + (A - L * y0) * t * E_of(-L * t);
+    return y0 + (A - L * y0) * t * m.E(-L * t);
   }
   return solve(e, y0, m, t).y;
 }

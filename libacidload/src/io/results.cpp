@@ -487,4 +487,58 @@ void write_results(const std::string& folder, const CaseFile& c, const std::vect
                        inputs);
 }
 
+namespace {
+// The figures of one variant that a fleet summary lists (the first charge).
+struct FleetRow {
+  std::string limit;
+  double interval, tbn, tan, san;
+};
+FleetRow fleet_row(const VariantSummary& v) {
+  const ChargeSummary& ch = v.charge;
+  return {ch.first ? std::string(name(*ch.first)) : std::string(), ch.first ? ch.drain_interval : NAN, v.tbn_end,
+          v.tan_end, v.san_end};
+}
+}  // namespace
+
+std::string fleet_summary_json(const std::vector<FleetCase>& cases) {
+  std::ostringstream j;
+  std::size_t variants = 0;
+  for (const FleetCase& f : cases) variants += f.rows.size();
+  j << "{\n  \"acidload-version\": " << quote(version()) << ",\n  \"cases\": " << cases.size()
+    << ",\n  \"variants\": " << variants << ",\n  \"note\": "
+    << quote("Estimates that support, not replace, the engine maker's and oil supplier's limits, lab analysis, "
+             "local codes and licensed practice. The first charge of each variant; the full figures are in "
+             "each case's summary file.")
+    << ",\n  \"fleet\": [";
+  for (std::size_t i = 0; i < cases.size(); ++i) {
+    const FleetCase& f = cases[i];
+    j << (i ? "," : "") << "\n    {\"case-file\": " << quote(f.file->file) << ", \"case\": " << quote(f.file->title)
+      << ", \"summary-file\": " << quote(f.stem + ".summary.json") << ", \"trajectories-file\": "
+      << quote(f.stem + ".trajectories.csv") << ",\n     \"variants\": [";
+    for (std::size_t k = 0; k < f.rows.size(); ++k) {
+      const FleetRow r = fleet_row(f.rows[k]);
+      j << (k ? "," : "") << "\n       {\"name\": " << quote(f.rows[k].name) << ", \"drain-interval-h\": " << num(r.interval)
+        << ", \"limit-reached\": " << (r.limit.empty() ? "null" : quote(r.limit)) << ", \"tbn-mg-koh-per-g\": "
+        << num(r.tbn) << ", \"tan-mg-koh-per-g\": " << num(r.tan) << ", \"san-mg-koh-per-g\": " << num(r.san) << "}";
+    }
+    j << "]}";
+  }
+  j << "\n  ]\n}\n";
+  return j.str();
+}
+
+std::string fleet_summary_csv(const std::vector<FleetCase>& cases) {
+  std::ostringstream o;
+  o << "case-file,case,variant,drain-interval [h],limit-reached,tbn at drain or end [mg KOH/g],"
+       "tan at drain or end [mg KOH/g],san at drain or end [mg KOH/g]\n";
+  const auto cell = [](double v) { return std::isfinite(v) ? num(v) : std::string(); };
+  for (const FleetCase& f : cases)
+    for (const VariantSummary& v : f.rows) {
+      const FleetRow r = fleet_row(v);
+      o << csv_field(f.file->file) << ',' << csv_field(f.file->title) << ',' << csv_field(v.name) << ','
+        << cell(r.interval) << ',' << r.limit << ',' << cell(r.tbn) << ',' << cell(r.tan) << ',' << cell(r.san) << '\n';
+    }
+  return o.str();
+}
+
 }  // namespace acidload::io

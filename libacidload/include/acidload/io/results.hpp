@@ -14,6 +14,19 @@ std::string summary_json(const CaseFile& c, const std::vector<VariantSummary>& r
 //! The trajectories of every variant as CSV text (one row per trajectory point).
 std::string trajectories_csv(const std::vector<VariantSummary>& rows);
 
+//! One case of a fleet run: its file, the name its result files carry in the fleet's folder
+//! (`STEM.summary.json`, `STEM.trajectories.csv`) and its variants' summaries.
+struct FleetCase {
+  const CaseFile* file = nullptr;
+  std::string stem;
+  std::vector<VariantSummary> rows;
+};
+//! The fleet summary as JSON: per case its file, title, result files and, per variant, the drain
+//! interval, the limit that ends it and the readings there (units in the key names).
+std::string fleet_summary_json(const std::vector<FleetCase>& cases);
+//! The same as CSV: one row per case and variant, units in the header.
+std::string fleet_summary_csv(const std::vector<FleetCase>& cases);
+
 //! Writes summary.json and trajectories.csv into the results folder `folder` (write_results_folder:
 //! the case file and its overlays are the run's inputs).
 void write_results(const std::string& folder, const CaseFile& c, const std::vector<VariantSummary>& rows);
