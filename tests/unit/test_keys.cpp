@@ -307,3 +307,59 @@ TEST_CASE("H2S of 20 % or more is refused on every path, and a high real value i
     CHECK(e.key() == "record.segments[1].h2s");
   }
 }
+
+TEST_CASE("a Monte Carlo draw the model refuses names the input, its distribution and the value in the user's unit") {
+  CaseText c;
+  c.extra = "uncertainty:\n  draws: 50\n  inputs:\n    - {parameter: model.so3-share, distribution: normal, mean: 2 %, sd: 5 %}\n";
+  const io::CaseFile f = load(c);
+  try {
+    monte_carlo(f.variants[0], f.uncertainty.inputs, 50, 1, 1);
+    FAIL("accepted");
+  } catch (const InputError& e) {
+    const std::string m = e.what();
+    CHECK(e.key().find("model.so3-share") != std::string::npos);
+    CHECK(e.key().find("k.yaml:") != std::string::npos);
+    CHECK(e.value().find(" % in draw ") != std::string::npos);
+    CHECK(m.find("normal(2 %, 5 %)") != std::string::npos);
+  }
+}
+
+TEST_CASE("everyday notations are read as their accepted spelling") {
+  const auto first = [](const CaseText& c) { return load(c).variants[0].record[0]; };
+  const auto with_key = [](const std::string& sec, const std::string& key, const std::string& v) {
+    CaseText c;
+    c.sections[sec][key] = v;
+    return c;
+  };
+  const double jacket = first(with_key("engine", "jacket-water-out", "90 degC")).operation.jacket_water_out;
+  CHECK(first(with_key("engine", "jacket-water-out", "90 \xC2\xB0" "C")).operation.jacket_water_out == jacket);
+  CHECK(first(with_key("engine", "jacket-water-out", "90 C")).operation.jacket_water_out == jacket);
+  CHECK(load(with_key("oil", "volume", "900 l")).variants[0].charge.mass == load(with_key("oil", "volume", "900 L")).variants[0].charge.mass);
+  CHECK(first(with_key("engine", "power", "1400 kWe")).operation.electrical_power == 1400e3);
+  CHECK(first(with_key("fuel", "chlorine", "60 mg Cl/Nm3 CH4")).fuel.chlorine ==
+        first(with_key("fuel", "chlorine", "60 mg/Nm3 CH4")).fuel.chlorine);
+  CHECK_THROWS_WITH_AS(load(with_key("fuel", "chlorine", "60 mg F/Nm3")), doctest::Contains("counts as Cl"), InputError);
+  // NOx: '@' and a glued '%'; ppm (dry, as NO2) converted with M(NO2) = 46.0055 g/mol (IUPAC 2021
+  // standard atomic weights, from memory) and V_m = R·273.15 K / 101325 Pa = 22.41396954 L/mol (CODATA 2018 R)
+  const NoxEmission a = first(with_key("engine", "nox", "500 mg/Nm3 at 5 % O2")).operation.nox;
+  const NoxEmission b = first(with_key("engine", "nox", "500 mg/Nm3 @ 5% O2")).operation.nox;
+  CHECK(a.value == b.value);
+  CHECK(a.o2_reference == b.o2_reference);
+  const NoxEmission p = first(with_key("engine", "nox", "250 ppm at 5 % O2")).operation.nox;
+  CHECK(p.value == doctest::Approx(250 * 46.0055 / 22.41396954).epsilon(1e-4));
+  CHECK(p.o2_reference == doctest::Approx(0.05));
+  // blow-by as measured, at the case's reference state (normal: 0 degC, 101.325 kPa)
+  CaseText bb = with_key("engine", "blow-by", "60 L/min");
+  CHECK(first(bb).operation.blowby_flow == doctest::Approx(3.6 / 22.41396954e-3).epsilon(1e-9));
+  CHECK(first(with_key("engine", "blow-by-flow", "3.6 m3/h")).operation.blowby_flow == doctest::Approx(3.6 / 22.41396954e-3).epsilon(1e-9));
+  // oil consumption from top-up logs: 0.3 L/h of 880 kg/m3 oil at 800 kW = 0.264 kg/h = 0.33 g/kWh
+  CHECK(first(with_key("oil", "consumption", "0.3 L/h")).oil_consumption ==
+        doctest::Approx(first(with_key("oil", "consumption", "0.33 g/kWh")).oil_consumption).epsilon(1e-12));
+  // starts per week: every 168/3 = 56 running hours
+  CaseText sw = with_key("engine", "start-every", "3 per week");
+  CaseText sh = with_key("engine", "start-every", "56 h");
+  CHECK(first(sw).starts == doctest::Approx(first(sh).starts));
+  CHECK(first(with_key("engine", "start-every", "2 per day")).starts == doctest::Approx(first(with_key("engine", "start-every", "12 h")).starts));
+  // not accepted: a suggestion of the accepted spelling
+  CHECK_THROWS_WITH_AS(load(with_key("engine", "power", "1400 kw")), doctest::Contains("did you mean 'kW'"), InputError);
+}

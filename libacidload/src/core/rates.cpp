@@ -11,6 +11,12 @@ double oil_consumption(double specific, double power) {
   return specific * power * constants::seconds_per_hour;
 }
 
+double specific_consumption(double flow, double power) {
+  check::non_negative("oil.consumption", flow);
+  check::positive("engine.power", power);
+  return flow / (power * constants::seconds_per_hour);  // [kg/h] / ([W] · [s/h]) = kg/J
+}
+
 OilRates oil_rates(const Transfer& t, const OxidationLaw& law, double sump_T, double consumption, bool continuous,
                    bool check_law) {
   if (check_law) validate(law);

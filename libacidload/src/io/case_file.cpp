@@ -115,10 +115,11 @@ EngineCase build(Reader& r, const Node& root, const std::string& name) {
   EngineInputs eng;
   eng.rating.specific_oil_consumption = 0.2e-3 / 3.6e6;  // 0.2 g/kWh [kg/J], the registry's default
   const Node& en = section(r, root, "engine", "an 'engine' section");
+  eng.reference = fuel.reference;
   detail::read_engine(r, en, eng);
   OilInputs oin;
   const Node& on = section(r, root, "oil", "an 'oil' section");
-  detail::read_oil(r, on, c.charge, oin, eng.rating);
+  detail::read_oil(r, on, c.charge, oin, eng.rating, eng.power);
   if (const Node* m = root.find("model")) detail::read_model(r, *m, c.model, c.charge.oil);
   if (const Node* l = root.find("limits")) detail::read_limits(r, *l, c.model.limits);
   try {

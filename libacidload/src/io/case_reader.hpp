@@ -50,6 +50,7 @@ struct Reader {
 
 //! The base operation, as read from the engine section.
 struct EngineInputs {
+  ReferenceState reference = ReferenceState::normal();  //!< the case's, for m3 figures (set before reading)
   EngineRating rating;
   double power = 0;               //!< [W]
   Operation op;
@@ -68,7 +69,8 @@ ReferenceState read_reference_state(const Reader& r, const Node* n);
 CombustionReference read_combustion_reference(const Reader& r, const Node* n);
 void read_fuel(const Reader& r, const Node& f, FuelAnalysis& a);
 void read_engine(const Reader& r, const Node& e, EngineInputs& in);
-void read_oil(const Reader& r, const Node& o, OilCharge& c, OilInputs& in, EngineRating& rating);
+//! `power`: the engine's [W], to turn an oil flow ("0.3 L/h") into a specific consumption.
+void read_oil(const Reader& r, const Node& o, OilCharge& c, OilInputs& in, EngineRating& rating, double power);
 void read_model(const Reader& r, const Node& m, ModelParameters& p, OilProperties& oil);
 void read_limits(const Reader& r, const Node& l, LimitSettings& s);
 void read_run(const Reader& r, const Node& run, double& horizon, RunOptions& o);

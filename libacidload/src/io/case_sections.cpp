@@ -7,6 +7,8 @@
 #include <filesystem>
 
 #include "acidload/core/halocarbons.hpp"
+#include "acidload/core/species.hpp"
+#include "acidload/core/rates.hpp"
 #include "acidload/core/water.hpp"
 #include "case_reader.hpp"
 #include "text.hpp"
@@ -169,21 +171,41 @@ void read_fuel(const Reader& r, const Node& f, FuelAnalysis& a) {
 }
 
 namespace {
-const char* const nox_forms = "NOx as '<number> mg/Nm3 at <number> % O2' or '<number> g/kWh'";
+const char* const nox_forms =
+    "NOx as '<number> mg/Nm3 at <number> % O2', '<number> ppm at <number> % O2' (dry, as NO2) or '<number> g/kWh'";
+
+// "500 mg/Nm3 @ 5% O2" → "500 mg/Nm3 at 5 % O2": '@' for 'at', a glued '%' in the O2 part.
+std::string nox_spelling(std::string t) {
+  std::string out;
+  for (char ch : t) {
+    if (ch == '@') out += " at ";
+    else if (ch == '%') out += " %";
+    else out += ch;
+  }
+  std::string squeezed;  // runs of spaces become one
+  for (char ch : out)
+    if (!(ch == ' ' && (squeezed.empty() || squeezed.back() == ' '))) squeezed += ch;
+  while (!squeezed.empty() && squeezed.back() == ' ') squeezed.pop_back();
+  return squeezed;
+}
 
 NoxEmission read_nox(const Reader& r, const Node& n) {
   NoxEmission e;
-  const std::string t = r.text(n);
+  const std::string t = nox_spelling(r.text(n));
   const auto at = t.find(" at ");
   Node part = n;
-  if (at != std::string::npos) {  // "500 mg/Nm3 at 5 % O2"
+  if (at != std::string::npos) {  // "500 mg/Nm3 at 5 % O2", "250 ppm at 5 % O2"
     part.scalar = t.substr(0, at);
     const Concentration c = r.contaminant(part, Basis::dry);
-    if (c.unit != ConcentrationUnit::mg_per_m3) r.fail(n, t, nox_forms);
+    if (c.unit != ConcentrationUnit::mg_per_m3 && c.unit != ConcentrationUnit::ppmv) r.fail(n, n.scalar, nox_forms);
+    if (c.unit == ConcentrationUnit::ppmv && c.basis != Basis::dry) r.fail(n, n.scalar, "NOx in ppm on the dry basis (as analysers report it)");
     std::string o2 = t.substr(at + 4);
-    if (o2.size() < 3 || o2.substr(o2.size() - 3) != " O2") r.fail(n, t, nox_forms);
+    if (o2.size() < 3 || o2.substr(o2.size() - 3) != " O2") r.fail(n, n.scalar, nox_forms);
     part.scalar = o2.substr(0, o2.size() - 3);
-    e.value = c.value;
+    // ppm (dry, as NO2) to mg/Nm3: x / V_m(0 degC, 101.325 kPa) · M(NO2)
+    e.value = c.unit == ConcentrationUnit::ppmv
+                  ? c.value * 1e-6 / molar_volume(ReferenceState::normal()) * molar_mass(Gas::NO2) * 1e6
+                  : c.value;
     e.unit = NoxEmission::Unit::mg_per_m3_dry_at_o2_ref;
     e.o2_reference = quantity(r.doc(n), part, Kind::fraction);
     if (!(e.o2_reference >= 0 && e.o2_reference <= 0.2)) r.fail(n, t, "an O2 reference from 0 to 20 % O2");
@@ -207,6 +229,31 @@ void one_of(const Reader& r, const Node& map, const char* a, const char* b, cons
   if (na && nb)
     r.fail(*nb, describe(*nb),
            std::string("either '") + a + "' or '" + b + "'" + (what ? what : "") + ", not both");
+}
+// The number of "<number> <unit>" and its unit, or false when the text has no number first.
+bool number_and_unit(const Reader& r, const Node& n, double& v, std::string& unit) {
+  if (n.type != Node::Type::scalar) return false;
+  unit = unit_written(n.scalar);
+  Node part = n;
+  part.scalar = n.scalar.substr(0, n.scalar.find_first_of(" \t"));
+  std::string why;
+  return parse_quantity_text(part.scalar, Kind::number, v, why) && (void(r), true);
+}
+
+// A volume flow as a meter shows it ("60 L/min", "3.6 m3/h"), taken at the case's reference state
+// like every m3 figure of the format, in mol/h; false when the unit is none of these.
+bool volume_flow(const Reader& r, const Node& n, const ReferenceState& ref, double& mol_per_h) {
+  double v = 0;
+  std::string unit;
+  if (!number_and_unit(r, n, v, unit)) return false;
+  static const std::vector<std::pair<std::string, double>> per = {  // → m3/h
+      {"L/min", 60e-3}, {"l/min", 60e-3}, {"L/h", 1e-3}, {"l/h", 1e-3}, {"m3/h", 1}, {"m3/min", 60}};
+  for (const auto& [u, f] : per)
+    if (u == unit) {
+      mol_per_h = v * f / molar_volume(ref);
+      return true;
+    }
+  return false;
 }
 }  // namespace
 
@@ -234,15 +281,42 @@ void read_engine(const Reader& r, const Node& e, EngineInputs& in) {
     op.air.water_fraction = water::water_fraction_at_humidity(r.value(*ah, case_key("engine.air-humidity")), T, p);
   }
   one_of(r, e, "blow-by", "blow-by-flow", " (share of charge or flow)");
-  r.get(e, "engine.blow-by", op.blowby_share);
-  r.get(e, "engine.blow-by-flow", op.blowby_flow);
+  for (const char* key : {"blow-by", "blow-by-flow"}) {  // as measured: "60 L/min", "3.6 m3/h"
+    const Node* n = e.find(key);
+    double flow = 0;
+    if (n && volume_flow(r, *n, in.reference, flow)) {
+      const CaseKey& k = case_key("engine.blow-by-flow");
+      if (!k.in_range(flow)) r.fail(*n, n->scalar, "a blow-by flow " + k.range_text());
+      op.blowby_flow = flow;
+      r.seen["engine.blow-by-flow"] = n;
+    } else if (n) {
+      r.get(e, std::string("engine.") + key, key == std::string("blow-by") ? op.blowby_share : op.blowby_flow);
+    }
+  }
   r.get(e, "engine.jacket-water-out", op.jacket_water_out);
   r.get(e, "engine.coldest-crankcase-surface", op.coldest_crankcase_surface);
   r.get(e, "engine.oil-temperature", in.oil_temperature);
   r.get(e, "engine.crankcase-pressure", op.crankcase_pressure);
   r.get(e, "engine.exhaust-pressure", op.exhaust_pressure);
   r.get(e, "engine.exhaust-temperature", in.exhaust_temperature);
-  r.get(e, "engine.start-every", in.start_every);
+  if (const Node* n = e.find("start-every")) {  // also "3 per week", "2 per day", "3/week", "2/d"
+    double v = 0;
+    std::string unit;
+    static const std::vector<std::pair<std::string, double>> periods = {
+        {"per week", 168}, {"/week", 168}, {"per day", 24}, {"/day", 24}, {"/d", 24}};
+    double period = 0;
+    if (number_and_unit(r, *n, v, unit))
+      for (const auto& [u, h] : periods)
+        if (u == unit) period = h;
+    if (period > 0) {
+      if (!(v > 0)) r.fail(*n, n->scalar, "a number of starts above 0");
+      in.start_every = period / v;  // running around the clock between starts
+      const CaseKey& k = case_key("engine.start-every");
+      if (!k.in_range(in.start_every)) r.fail(*n, n->scalar, "starts every " + k.range_text() + " of running");
+    } else {
+      r.get(e, "engine.start-every", in.start_every);
+    }
+  }
   r.get(e, "engine.jacket-water-at-start", op.jacket_water_at_start);
   r.get(e, "engine.oxidation-catalyst", in.catalyst_so3_conversion);
   for (const char* which : {"fuel-gas-sulfur-limit", "fuel-gas-halogen-limit"})
@@ -260,7 +334,7 @@ void read_engine(const Reader& r, const Node& e, EngineInputs& in) {
   r.get(e, "engine.o2-of-air", op.nox.o2_air);
 }
 
-void read_oil(const Reader& r, const Node& o, OilCharge& c, OilInputs& in, EngineRating& rating) {
+void read_oil(const Reader& r, const Node& o, OilCharge& c, OilInputs& in, EngineRating& rating, double power) {
   r.require_section(o, "oil");
   OilProperties& p = c.oil;
   r.get(o, "oil.density", p.density_15);
@@ -270,7 +344,26 @@ void read_oil(const Reader& r, const Node& o, OilCharge& c, OilInputs& in, Engin
   if (const Node* n = o.find("tbn-method"))
     p.fresh_tbn_method = r.word(*n, case_key("oil.tbn-method")) == "D2896" ? BaseNumberMethod::d2896 : BaseNumberMethod::d4739;
   r.get(o, "oil.fresh-tan", p.fresh_tan);
-  r.get(o, "oil.consumption", rating.specific_oil_consumption);
+  if (const Node* n = o.find("consumption")) {  // also as a flow from top-up logs: "0.3 L/h", "0.25 kg/h"
+    double v = 0;
+    std::string unit;
+    double kg_per_unit = 0;
+    if (number_and_unit(r, *n, v, unit)) {
+      if (unit == "L/h" || unit == "l/h") kg_per_unit = p.density_15 * 1e-3;
+      if (unit == "kg/h") kg_per_unit = 1;
+      if (unit == "g/h") kg_per_unit = 1e-3;
+    }
+    if (kg_per_unit > 0) {
+      if (!(power > 0)) r.fail(*n, n->scalar, "an engine 'power' to turn an oil flow into g/kWh (or the figure in g/kWh)");
+      rating.specific_oil_consumption = specific_consumption(v * kg_per_unit, power);
+      const CaseKey& k = case_key("oil.consumption");
+      if (!k.in_range(rating.specific_oil_consumption))
+        r.fail(*n, n->scalar, "an oil consumption " + k.range_text() + " at the engine's power");
+      r.seen["oil.consumption"] = n;
+    } else {
+      r.get(o, "oil.consumption", rating.specific_oil_consumption);
+    }
+  }
   if (const Node* n = o.find("makeup")) c.continuous_makeup = r.word(*n, case_key("oil.makeup")) == "continuous";
   r.get(o, "oil.residual-share", c.residual_share);
 }
@@ -466,6 +559,19 @@ UncertaintySettings read_uncertainty(const Reader& r, const Node& u) {
     };
     UncertainInput x;
     x.key = key;
+    {  // refused draws are shown in the unit the first figure was written in
+      const Node* first = item.find(dist == "normal" ? "mean" : dist == "lognormal" ? "median" : "low");
+      const std::string u = first ? unit_written(first->scalar) : "";
+      if (pk.type == KeyType::contaminant) {
+        x.unit = "ppmv";
+      } else if (!u.empty() || kind == Kind::fraction) {
+        x.unit = u.empty() ? "" : u;
+        x.shown_at_zero = from_core_unit(kind, u, 0);
+        x.shown_per_core = from_core_unit(kind, u, 1) - x.shown_at_zero;
+      }
+      const Mark m = item.mark;
+      x.where = r.doc(item).file + ":" + std::to_string(m.line) + ":" + std::to_string(m.column);
+    }
     if (dist == "normal") x.distribution = {Distribution::Kind::normal, value("mean", kind), value("sd", spread), 0};
     else if (dist == "lognormal") x.distribution = {Distribution::Kind::lognormal, value("median", kind), value("sigma-log", bare), 0};
     else if (dist == "uniform") x.distribution = {Distribution::Kind::uniform, value("low", kind), value("high", kind), 0};

@@ -1,6 +1,7 @@
 // Values with units from case files and CSV cells. The lists of units are closed: a unit not listed
-// for a kind is an error that names the accepted ones. The only alternative spelling is "Nm³" for
-// "Nm3" (in Nm3/h, Nm3/min, mg/Nm3 and mg/Nm3 CH4).
+// for a kind is an error that names the accepted ones (and the closest). Alternative spellings: "m³"
+// for "m3" (also in Nm³), and the everyday spellings of each kind's `aliases` (°C, C, l, kWe, MWe);
+// a contaminant may name what it is counted as ("mg Cl/Nm3" for the chlorine key, which is as Cl).
 //
 // Number syntax: [+|-] digits [. digits] [(e|E) [+|-] digits], e.g. 12, -0.5, 1.2e-3. No hex, no
 // "inf" or "nan", no thousands separators or decimal commas; magnitudes beyond 1e300 (and non-zero
@@ -13,6 +14,8 @@
 
 #include "text.hpp"
 
+#include <algorithm>
+#include <cctype>
 #include <charconv>
 #include <cmath>
 #include <system_error>
@@ -32,6 +35,7 @@ struct UnitDef {
 struct KindInfo {
   std::string_view name;
   std::vector<UnitDef> units;
+  std::vector<std::pair<std::string, std::string>> aliases;  // everyday spelling → accepted unit
   bool bare = false;                 // a bare number is accepted (factor 1)
   std::vector<std::string> names;    // the units' names, for accepted_units()
   KindInfo() = default;
@@ -70,6 +74,14 @@ KindInfo make_info(Kind k) {
     case Kind::count: i = {"count", {}, true}; break;
     case Kind::number: i = {"number", {}, true}; break;
   }
+  // Everyday spellings that can mean only one unit of the kind (docs/case-format.md, "Units by kind").
+  switch (k) {
+    case Kind::temperature: i.aliases = {{"\xC2\xB0" "C", "degC"}, {"C", "degC"}}; break;
+    case Kind::temperature_change: i.aliases = {{"\xC2\xB0" "C", "degC"}}; break;
+    case Kind::power: i.aliases = {{"kWe", "kW"}, {"MWe", "MW"}, {"We", "W"}}; break;
+    case Kind::volume: i.aliases = {{"l", "L"}, {"litre", "L"}, {"liter", "L"}}; break;
+    default: break;
+  }
   for (const auto& u : i.units) i.names.push_back(u.name);
   return i;
 }
@@ -97,9 +109,9 @@ std::string normalize_unit(std::string_view s) {
   for (std::size_t i = 0; i < s.size(); ++i) {
     if (is_space(s[i])) {
       if (!r.empty() && r.back() != ' ') r += ' ';
-    } else if (s.compare(i, 4, "Nm\xC2\xB3") == 0) {
-      r += "Nm3";
-      i += 3;
+    } else if (s.compare(i, 3, "m\xC2\xB3") == 0) {  // m³, Nm³
+      r += "m3";
+      i += 2;
     } else {
       r += s[i];
     }
@@ -238,11 +250,21 @@ bool parse_quantity_text(std::string_view text, Kind k, double& out, std::string
     }
     def = &bare;
   } else {
+    std::string name = unit;
+    for (const auto& [alias, canonical] : ki.aliases)
+      if (alias == unit) name = canonical;
     for (const auto& u : ki.units)
-      if (u.name == unit) def = &u;
+      if (u.name == name) def = &u;
     if (!def) {
+      std::string c;  // a suggestion only where case alone is wrong ("kw" for "kW"); "GW" is no "W"
+      for (const auto& n : ki.names)
+        if (n.size() == unit.size() && std::equal(n.begin(), n.end(), unit.begin(), [](char a, char b) {
+              return std::tolower(static_cast<unsigned char>(a)) == std::tolower(static_cast<unsigned char>(b));
+            }))
+          c = n;
       why = with_problem(k, ki.units.empty() ? "no unit is taken: '" + unit + "'"
-                                             : "'" + unit + "' is not one of them");
+                                             : "'" + unit + "' is not one of them" +
+                                                   (c.empty() ? "" : "; did you mean '" + c + "'?"));
       return false;
     }
   }
@@ -268,7 +290,9 @@ bool parse_quantity_text(std::string_view text, Kind k, double& out, std::string
 }
 
 double from_core_unit(Kind k, std::string_view unit, double core_value) {
-  const std::string u = normalize_unit(unit);
+  std::string u = normalize_unit(unit);
+  for (const auto& [alias, canonical] : info(k).aliases)
+    if (alias == u) u = canonical;
   for (const auto& d : info(k).units)
     if (d.name == u) return (core_value - d.offset) / d.factor;
   return core_value;
@@ -327,6 +351,20 @@ Concentration concentration(const Document& doc, const Node& node, Basis default
     c.basis = rest.compare(sp + 1, std::string::npos, "dry") == 0 ? Basis::dry : Basis::wet;
     basis_given = true;
     rest.resize(sp);
+  }
+  // "mg Cl/Nm3 CH4": the figure names what it is counted as; only the key's own basis is taken
+  if (rest.compare(0, 3, "mg ") == 0 && rest.find('/') != std::string::npos && rest.find('/') > 3) {
+    const std::string what = rest.substr(3, rest.find('/') - 3);
+    const std::string key = node.path.substr(node.path.find_last_of('.') + 1);
+    static const std::vector<std::pair<std::string, std::string>> as = {
+        {"h2s", "H2S"}, {"other-sulfur", "S"}, {"chlorine", "Cl"}, {"fluorine", "F"}};
+    std::string own;
+    for (const auto& [k, w] : as)
+      if (k == key) own = w;
+    if (what != own)
+      throw fail(own.empty() ? "'" + what + "' names no basis here: write mg/Nm3"
+                             : "the '" + key + "' key counts as " + own + ": write 'mg " + own + "/…' or 'mg/…', not 'mg " + what + "/…'");
+    rest = "mg" + rest.substr(3 + what.size());
   }
   const ConcUnit* found = nullptr;
   for (const auto& u : units)

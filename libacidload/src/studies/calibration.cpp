@@ -3,6 +3,7 @@
 #include <Eigen/Dense>
 #include <algorithm>
 #include <cmath>
+#include <optional>
 #include <limits>
 
 #include "acidload/core/error.hpp"
@@ -155,17 +156,39 @@ struct Problem {
     for (std::size_t i = 0; i < r.size(); ++i) v[static_cast<Eigen::Index>(i)] = r[i].standardized;
     return v;
   }
-  // central differences in fit space
-  Eigen::MatrixXd jacobian(const Eigen::VectorXd& phi, Eigen::Index n) const {
+  // central differences in fit space; at the edge of the range the model accepts, one-sided
+  // toward the inside (a fit that steps past a bound is not aborted)
+  Eigen::MatrixXd jacobian(const Eigen::VectorXd& phi, Eigen::Index n, const Eigen::VectorXd& r0) const {
     Eigen::MatrixXd J(n, phi.size());
     for (Eigen::Index j = 0; j < phi.size(); ++j) {
       const double h = 1e-5 * std::max(1.0, std::fabs(phi[j]));
       Eigen::VectorXd a = phi, b = phi;
       a[j] += h;
       b[j] -= h;
-      J.col(j) = (residuals(a) - residuals(b)) / (2 * h);
+      std::optional<Eigen::VectorXd> ra, rb;
+      std::optional<InputError> why;
+      try {
+        ra = residuals(a);
+      } catch (const InputError& e) {
+        why = e;
+      }
+      try {
+        rb = residuals(b);
+      } catch (const InputError& e) {
+        why = e;
+      }
+      if (ra && rb) J.col(j) = (*ra - *rb) / (2 * h);
+      else if (ra) J.col(j) = (*ra - r0) / h;
+      else if (rb) J.col(j) = (r0 - *rb) / h;
+      else throw stepped_out(j, *why);
     }
     return J;
+  }
+  // A refusal naming the parameter, the value the fit reached and the range the model accepts.
+  FitRefusedError stepped_out(Eigen::Index j, const InputError& e) const {
+    return FitRefusedError("cannot fit " + s.parameters[static_cast<std::size_t>(j)] + ": the fit reached " + e.key() +
+                           " = " + e.value() + ", outside what the model accepts (" + e.expected() +
+                           "); fix the parameter or fit fewer at once");
   }
 };
 
@@ -218,7 +241,7 @@ FitResult calibrate(const EngineCase& c, const std::vector<LabSample>& samples, 
   if (n <= p)
     throw FitRefusedError("cannot fit " + std::to_string(p) + " parameter(s) to " + std::to_string(n) +
                           " reading(s): a fit needs more readings than parameters");
-  Eigen::MatrixXd J = pr.jacobian(phi, n);
+  Eigen::MatrixXd J = pr.jacobian(phi, n, r);
   check_identifiable(J, s.parameters, "at the starting values");
 
   // Levenberg–Marquardt with Marquardt's diagonal scaling
@@ -256,7 +279,7 @@ FitResult calibrate(const EngineCase& c, const std::vector<LabSample>& samples, 
       out.converged = g.norm() < 1e-6 * (1 + cost) || mu > 1e10;
       break;
     }
-    J = pr.jacobian(phi, n);
+    J = pr.jacobian(phi, n, r);
     if (out.converged) break;
   }
   check_identifiable(J, s.parameters, "at the optimum");

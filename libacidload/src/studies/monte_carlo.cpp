@@ -76,6 +76,25 @@ EngineCase first_charge_to_cap(const EngineCase& c) {
 }
 }  // namespace
 
+namespace {
+// A draw the model refuses, named by the input, its distribution and the value in the user's unit.
+InputError refused_draw(const UncertainInput& in, int draw, double drawn, const InputError& e) {
+  static const char* const kinds[] = {"normal", "lognormal", "uniform", "triangular"};
+  const auto shown = [&](double v) {
+    return format_value(in.shown_at_zero + v * in.shown_per_core) + (in.unit.empty() ? "" : " " + in.unit);
+  };
+  const Distribution& d = in.distribution;
+  std::string dist = std::string(kinds[static_cast<int>(d.kind)]) + "(" + shown(d.a) + ", ";
+  dist += d.kind == Distribution::Kind::lognormal ? format_value(d.b) : shown(d.b);
+  if (d.kind == Distribution::Kind::triangular) dist += ", " + shown(d.c);
+  dist += ")";
+  return InputError("uncertainty input " + in.key + (in.where.empty() ? "" : " (" + in.where + ")"),
+                    shown(drawn) + " in draw " + std::to_string(draw + 1),
+                    "draws the model accepts (" + e.expected() + "): the " + dist +
+                        " distribution reaches past it; narrow it or use a bounded one (uniform, triangular)");
+}
+}  // namespace
+
 MonteCarloResult monte_carlo(const EngineCase& c0, const std::vector<UncertainInput>& inputs, int draws,
                              std::uint64_t seed, int threads) {
   check::in_range("draws", draws, 1, max_draws, "");
@@ -98,7 +117,12 @@ MonteCarloResult monte_carlo(const EngineCase& c0, const std::vector<UncertainIn
     for (std::size_t k = 0; k < inputs.size(); ++k) {
       const double u1 = uniform01(seed, static_cast<std::uint64_t>(i), 2 * k);
       const double u2 = uniform01(seed, static_cast<std::uint64_t>(i), 2 * k + 1);
-      set_parameter(x, inputs[k].key, sample(inputs[k].distribution, u1, u2));
+      const double drawn = sample(inputs[k].distribution, u1, u2);
+      try {
+        set_parameter(x, inputs[k].key, drawn);
+      } catch (const InputError& e) {
+        throw refused_draw(inputs[k], i, drawn, e);
+      }
     }
     RunOptions o = x.options;
     o.output_interval = 0;

@@ -21,6 +21,11 @@ struct Distribution {
 struct UncertainInput {
   std::string key;  //!< from parameter_table()
   Distribution distribution;
+  //! How a refused draw is shown to the user: in `unit`, as shown_at_zero + core value × shown_per_core
+  //! (the case reader sets these from the unit the distribution was written in; default: core units).
+  std::string unit;
+  double shown_at_zero = 0, shown_per_core = 1;
+  std::string where;  //!< where the input was written ("case.yaml:12:7"), for messages
 };
 
 //! The project's counter-based random stream: a uniform in (0, 1) for (seed, draw, dimension),
