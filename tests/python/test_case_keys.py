@@ -26,7 +26,8 @@ def schema_sections():
     d = s["$defs"]
     ref_state = [a for a in s["properties"]["reference-state"]["anyOf"] if a.get("type") == "object"][0]
     sections = {"": s["properties"], "reference-state": ref_state["properties"]}
-    for name in ("fuel", "engine", "oil", "model", "limits", "run", "record", "segment", "uncertainty", "uncertain-input"):
+    for name in ("fuel", "engine", "oil", "model", "limits", "run", "record", "segment", "uncertainty", "uncertain-input",
+                 "scrubbing", "stage", "economics"):
         sections[name] = d[name]["properties"]
     return sections
 
@@ -64,10 +65,12 @@ def test_the_schema_gives_each_key_its_kind_and_words():
             assert prop.get("type") == "array", (k["path"], prop)
 
 
-def test_uncertainty_parameters_are_the_calibratable_keys():
+def test_uncertainty_parameters_are_the_calibratable_keys_and_the_prices():
     calibratable = [k["path"] for k in registry() if k["calibratable"]]
+    prices = list(need_acidload()._core.price_keys())  # the prices a cost Monte Carlo varies (studies/economics)
+    assert all(p in {k["path"] for k in registry()} for p in prices)
     enum = schema_sections()["uncertain-input"]["parameter"]["enum"]
-    assert sorted(enum) == sorted(calibratable)
+    assert sorted(enum) == sorted(calibratable + prices)
 
 
 def test_fit_parameters_are_the_calibratable_keys():

@@ -53,7 +53,7 @@ def test_notebook_runs_headless_and_shows_the_programs_intervals(tmp_path, monke
     errors = [o for c in code for o in c.outputs if o.output_type == "error"]
     assert not errors, errors
     images = [o for c in code for o in c.outputs if o.output_type == "display_data" and "image/png" in o.data]
-    assert len(images) == 3, "the TBN/TAN/SAN/oxidation figure, the H2S sweep and the acids by species"
+    assert len(images) == 4, "the TBN/TAN/SAN/oxidation figure, the H2S sweep, the acids by species and the cost against the changeout level"
     text = "".join(o.get("text", "") for c in code for o in c.outputs if o.output_type == "stream")
     assert acidload.__version__ in text and "Harrowfield" in text
     expected = program_intervals(tmp_path)
@@ -70,6 +70,24 @@ def test_notebook_runs_headless_and_shows_the_programs_intervals(tmp_path, monke
     report = ROOT / "out" / "demo-site-report.html"  # the notebook's result.report()
     assert "report written to out/demo-site-report.html" in text and report.is_file()
     assert 'content="acidload report"' in report.read_text(encoding="utf-8")[:400]
+    # the costs: the cheapest option and the cheapest changeout level are the program's
+    costs = program_costs(tmp_path)
+    assert f"cheapest: {costs['cheapest']}" in text
+    assert f"cheapest changeout level of the bed: {costs['level']:.1f} ppmv" in text
+
+
+def program_costs(tmp_path):
+    """The cheapest option of cases/demo-site-costs.yaml (its summary.json) and the cheapest changeout level
+    of its iron-oxide bed, as the acidload program gives them."""
+    prog = acidload_program()
+    out = tmp_path / "costs-out"
+    subprocess.run([str(prog), "run", str(ROOT / "cases" / "demo-site-costs.yaml"), "--out", str(out)], check=True,
+                   capture_output=True, timeout=300)
+    summary = json.loads((out / "summary.json").read_text(encoding="utf-8"))
+    r = subprocess.run([str(prog), "costs", str(ROOT / "cases" / "demo-site-costs.yaml"), "--cheapest-level", "--variant",
+                        "iron-oxide bed"], check=True, capture_output=True, text=True, timeout=300)
+    answer = next(l for l in r.stdout.splitlines() if l.startswith("answer:"))
+    return {"cheapest": summary["economics"]["cheapest"], "level": float(answer.split()[1])}
 
 
 def test_script_writes_a_png(tmp_path):
@@ -81,6 +99,10 @@ def test_script_writes_a_png(tmp_path):
     assert r.returncode == 0, r.stderr
     data = png.read_bytes()
     assert data[:8] == b"\x89PNG\r\n\x1a\n" and len(data) > 20000
+    costs_png = (tmp_path / "compare-costs.png").read_bytes()
+    assert costs_png[:8] == b"\x89PNG\r\n\x1a\n" and len(costs_png) > 20000
+    costs = program_costs(tmp_path)
+    assert f"cheapest changeout level of the bed: {costs['level']:.1f} ppmv" in r.stdout
     expected = program_intervals(tmp_path)
     for name in SCRUBBING:
         line = next(l for l in r.stdout.splitlines() if l.startswith(name + " "))

@@ -6,6 +6,7 @@
   X(run)                         \
   X(report)                      \
   X(solve)                       \
+  X(costs)                       \
   X(convert)                     \
   X(fit)                         \
   X(forecast)                    \

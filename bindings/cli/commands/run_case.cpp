@@ -4,6 +4,7 @@
 #include <unistd.h>
 
 #include "../cli.hpp"
+#include "../cost_report.hpp"
 #include "../report.hpp"
 #include "acidload/io/report.hpp"
 #include "acidload/io/results.hpp"
@@ -25,10 +26,21 @@ int run_case(std::FILE* out, const acidload::io::CaseFile& c, const std::string&
     }
     rows.push_back(acidload::summarize(c.variants[i]));
   }
+  std::optional<acidload::io::EconomicsResults> econ;  // with an economics section: the costs too
+  if (!c.costs.empty()) {
+    econ.emplace();
+    econ->variants = acidload::compare_costs(c.costs);
+    econ->sensitivity = acidload::price_sensitivity(econ->variants, econ->sensitivity_step);
+  }
   if (shown) std::fprintf(stderr, "\r%60s\r", "");
-  if (!out_folder.empty()) acidload::io::write_results(out_folder, c, rows);
+  if (!out_folder.empty()) acidload::io::write_results(out_folder, c, rows, econ ? &*econ : nullptr);
   if (!summary_csv.empty()) acidload::io::write_summary_csv(summary_csv, acidload::io::summary_csv(c, rows), acidload::io::report_inputs(c, ""));
   print_comparison(out, c, rows);
+  if (econ) {
+    print_costs(out, econ->variants);
+    print_sensitivity(out, econ->variants, econ->sensitivity, econ->sensitivity_step);
+    print_scrubbing_caution(out);
+  }
   if (!out_folder.empty())
     std::fprintf(out, "\nResults written to %s/summary.json and %s/trajectories.csv\n", out_folder.c_str(),
                  out_folder.c_str());

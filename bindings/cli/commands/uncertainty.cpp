@@ -3,6 +3,7 @@
 #include "../report.hpp"
 #include "acidload/core/error.hpp"
 #include "acidload/studies/calibration.hpp"
+#include "acidload/studies/economics.hpp"
 
 namespace acidload_cli {
 namespace {
@@ -36,14 +37,16 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
   const int threads = o.threads.empty() ? 0 : static_cast<int>(count_option(o.threads, "--threads", 1, 256));
   const io::CaseFile file = io::load_case(o.case_file, o.overlays);
   const EngineCase& c = pick_variant(file, o.variant);
-  if (file.uncertainty.inputs.empty())
-    throw InputError("uncertainty", "(no section)", "an 'uncertainty' section with inputs in " + o.case_file,
+  // prices (economics.*) are for `costs --monte-carlo`; the drain interval does not depend on them
+  const std::vector<UncertainInput> inputs = without_prices(file.uncertainty.inputs);
+  if (inputs.empty())
+    throw InputError("uncertainty", "(no section)", "an 'uncertainty' section with inputs other than prices in " + o.case_file,
                      InputWhere{o.case_file, 1, 1, ""});
   const std::uint64_t used_seed = seed ? *seed : file.uncertainty.seed;
   const int n = draws ? static_cast<int>(*draws) : file.uncertainty.draws;
   const ProgressLine progress("uncertainty: " + std::to_string(n) + " draws");
-  const MonteCarloResult r = monte_carlo(c, file.uncertainty.inputs, n, used_seed, threads);
-  print_monte_carlo(out, c, file.uncertainty.inputs, r, used_seed);
+  const MonteCarloResult r = monte_carlo(c, inputs, n, used_seed, threads);
+  print_monte_carlo(out, c, inputs, r, used_seed);
   print_caution(out);
   return exit_ok;
 }

@@ -17,6 +17,7 @@ the core's own units are hours, K, Pa, kg, m³, mol and mg KOH/g. Errors are Val
 not replace, the engine maker's and oil supplier's limits and lab analysis.
 """
 from . import _core
+from ._economics import COST_ITEMS, Costs, cheapest_level, cost_monte_carlo, cost_sweep, costs
 from ._case import KEYWORDS, Case, Variant, case, case_from_dict, load_case, load_case_text
 from ._calibration import PARAMETERS, Fit, fit, fit_residuals, forecast, monte_carlo, read_lab
 from ._fleet import FLEET_COLUMNS, CaseOutcome, FleetResult, monte_carlo_many, run_many
@@ -38,6 +39,8 @@ __all__ = [
     "InverseAnswer", "LEVERS",
     # fleets: many cases on all cores or a Dask cluster
     "run_many", "monte_carlo_many", "FleetResult", "CaseOutcome", "FLEET_COLUMNS",
+    # economics
+    "costs", "Costs", "cheapest_level", "cost_sweep", "cost_monte_carlo", "COST_ITEMS",
     # calibration and uncertainty
     "read_lab", "fit", "Fit", "fit_residuals", "forecast", "monte_carlo", "PARAMETERS",
     # errors

@@ -114,14 +114,43 @@ io::Kind kind_from(const std::string& text) {
 struct CaseRun {
   io::CaseFile file;
   std::vector<VariantSummary> rows;
+  std::optional<io::EconomicsResults> economics;  // when the case has an economics section
+  const io::EconomicsResults* econ() const { return economics ? &*economics : nullptr; }
 };
 
 CaseRun run_case(const io::CaseFile& c) {
-  CaseRun r{c, {}};
+  CaseRun r{c, {}, std::nullopt};
   py::gil_scoped_release release;
   r.rows.reserve(c.variants.size());
   for (const EngineCase& v : c.variants) r.rows.push_back(summarize(v));
+  if (!c.costs.empty()) {
+    r.economics.emplace();
+    r.economics->variants = compare_costs(c.costs);
+    r.economics->sensitivity = price_sensitivity(r.economics->variants, r.economics->sensitivity_step);
+  }
   return r;
+}
+
+const CostCase& cost_case(const io::CaseFile& c, std::size_t variant) {
+  if (c.costs.empty()) throw InputError("economics", "(no section)", "an 'economics' section with the prices in " + c.file);
+  if (variant >= c.costs.size())
+    throw InputError("variant", std::to_string(variant), "a variant index from 0 to " + std::to_string(c.costs.size() - 1));
+  return c.costs[variant];
+}
+
+py::dict cheapest_dict(const CheapestLevel& a) {
+  py::dict d;
+  d["found"] = a.found;
+  d["stage"] = a.stage;
+  d["level_ppmv"] = a.level_ppmv;
+  d["total_per_mwh"] = a.total_per_mwh;
+  d["verified_low_per_mwh"] = a.verified_low;
+  d["verified_high_per_mwh"] = a.verified_high;
+  d["scan_ppmv"] = py::array_t<double>(a.grid_ppmv.size(), a.grid_ppmv.data());
+  d["scan_total_per_mwh"] = py::array_t<double>(a.grid_total.size(), a.grid_total.data());
+  d["reason"] = a.reason;
+  d["evaluations"] = a.evaluations;
+  return d;
 }
 
 // The trajectory of one variant as numpy arrays, one per field of TrajectoryPoint.
@@ -552,14 +581,14 @@ PYBIND11_MODULE(_core, m) {
         for (const auto& v : r.rows) n.push_back(v.name);
         return n;
       })
-      .def("summary_json", [](const CaseRun& r) { return io::summary_json(r.file, r.rows); },
+      .def("summary_json", [](const CaseRun& r) { return io::summary_json(r.file, r.rows, r.econ()); },
            py::call_guard<py::gil_scoped_release>(), "The summary as JSON text, exactly as 'acidload run --out' writes summary.json.")
       .def("trajectories_csv", [](const CaseRun& r) { return io::trajectories_csv(r.rows); },
            "The trajectories as CSV text, exactly as 'acidload run --out' writes trajectories.csv.")
       .def("trajectory", &trajectory_arrays, py::arg("index"), "The trajectory of variant `index` as numpy arrays.")
       .def("first_rates", [](const CaseRun& r, std::size_t i) { return rates_dict(r.rows.at(i).run.first_rates); },
            py::arg("index"), "The first segment's oil-balance rates of variant `index`.")
-      .def("write_results", [](const CaseRun& r, const std::string& folder) { io::write_results(folder, r.file, r.rows); },
+      .def("write_results", [](const CaseRun& r, const std::string& folder) { io::write_results(folder, r.file, r.rows, r.econ()); },
            py::arg("folder"), "Writes summary.json and trajectories.csv into folder, as the program does.")
       .def("summary_csv", [](const CaseRun& r) { return io::summary_csv(r.file, r.rows); },
            "The comparison table as CSV text, exactly as 'acidload run --summary-csv' writes it.")
@@ -584,6 +613,77 @@ PYBIND11_MODULE(_core, m) {
            py::arg("path"), py::arg("lab") = "", py::arg("parameters") = std::vector<std::string>{},
            "Writes the report page atomically; an existing file is replaced only if it is an acidload report.");
   m.def("run_case", &run_case, py::arg("case"), "Runs every variant of a case (the GIL released).");
+
+  // ---- economics of a case with an economics section (variants by index)
+  m.def("has_economics", [](const io::CaseFile& c) { return !c.costs.empty(); }, py::arg("case"),
+        "Whether the case has an economics section.");
+  m.def("stage_names", [](const io::CaseFile& c, std::size_t v) {
+          std::vector<std::string> n;
+          for (const TrainStage& t : cost_case(c, v).train) n.push_back(t.name);
+          return n;
+        }, py::arg("case"), py::arg("variant"), "The names of a variant's scrubbing stages, in gas-flow order.");
+  m.def("level_stage", [](const io::CaseFile& c, std::size_t v) { return level_stage(cost_case(c, v)); }, py::arg("case"),
+        py::arg("variant"), "The stage (0-based) a cheapest-level question varies by default.");
+  m.def("default_level_range", [](const io::CaseFile& c, std::size_t v, std::size_t stage) {
+          const LevelRange r = default_level_range(cost_case(c, v), stage);
+          return std::make_pair(r.low, r.high);
+        }, py::arg("case"), py::arg("variant"), py::arg("stage"), "The default range of a cheapest-level question [ppmv dry].");
+  m.def("cheapest_level", [](const io::CaseFile& c, std::size_t v, std::size_t stage, double low, double high, int points,
+                             double tolerance) {
+          CheapestLevel a;
+          {
+            py::gil_scoped_release release;
+            a = cheapest_level(cost_case(c, v), stage, low, high, points, tolerance);
+          }
+          return cheapest_dict(a);
+        }, py::arg("case"), py::arg("variant"), py::arg("stage"), py::arg("low_ppmv"), py::arg("high_ppmv"),
+        py::arg("points") = 13, py::arg("tolerance_ppmv") = 0.05,
+        "The outlet (changeout) level of a stage with the lowest total per MWh, verified forward (GIL released).");
+  m.def("cost_sweep", [](const io::CaseFile& c, std::size_t v, std::size_t stage, const std::vector<double>& levels) {
+          const CostCase& cc = cost_case(c, v);
+          py::array_t<double> items({levels.size(), cost_item_count});
+          py::array_t<double> totals(levels.size());
+          std::vector<CostItems> rows(levels.size());
+          {
+            py::gil_scoped_release release;
+            for (std::size_t i = 0; i < levels.size(); ++i) rows[i] = costs(with_outlet_level(cc, stage, levels[i])).per_mwh;
+          }
+          auto it = items.mutable_unchecked<2>();
+          auto t = totals.mutable_unchecked<1>();
+          for (std::size_t i = 0; i < levels.size(); ++i) {
+            t(i) = total(rows[i]);
+            for (std::size_t k = 0; k < cost_item_count; ++k) it(i, k) = rows[i][k];
+          }
+          return std::make_pair(totals, items);
+        }, py::arg("case"), py::arg("variant"), py::arg("stage"), py::arg("levels_ppmv"),
+        "Totals per MWh and the items per MWh (levels x items) at each outlet (changeout) level (GIL released).");
+  m.def("price_keys", []() { return price_keys(); }, "The economics keys an uncertainty input may vary.");
+  m.def("cost_items", []() {
+          std::vector<std::string> n;
+          for (CostItem i : all_cost_items) n.emplace_back(name(i));
+          return n;
+        }, "The names of the cost items, in the order of cost_sweep's columns.");
+  m.def("cost_monte_carlo", [](const io::CaseFile& c, int draws, long long seed, int threads) {
+          if (c.costs.empty()) throw InputError("economics", "(no section)", "an 'economics' section with the prices in " + c.file);
+          CostMonteCarlo r;
+          {
+            py::gil_scoped_release release;
+            r = cost_monte_carlo(c.costs, c.uncertainty.inputs, draws > 0 ? draws : c.uncertainty.draws,
+                                 seed < 0 ? c.uncertainty.seed : static_cast<std::uint64_t>(seed), threads);
+          }
+          py::dict d;
+          d["draws"] = r.draws;
+          d["p10_per_mwh"] = r.p10;
+          d["p50_per_mwh"] = r.p50;
+          d["p90_per_mwh"] = r.p90;
+          d["cheapest_share"] = r.cheapest_share;
+          py::list per;
+          for (const auto& x : r.total_per_mwh) per.append(py::array_t<double>(x.size(), x.data()));
+          d["total_per_mwh"] = per;
+          return d;
+        }, py::arg("case"), py::arg("draws") = 0, py::arg("seed") = -1, py::arg("threads") = 0,
+        "Monte Carlo of every variant's total per MWh over the case's uncertainty inputs (draws 0 and seed < 0: "
+        "the section's; GIL released).");
 
   // ---- studies
   m.def("drain_interval",
@@ -765,7 +865,7 @@ PYBIND11_MODULE(_core, m) {
         "sigma of ln; uniform: low, high; triangular: low, mode, high); identical for any thread count.");
   m.def("case_uncertainty", [](const io::CaseFile& f) {
     py::list out;
-    for (const auto& x : f.uncertainty.inputs) {
+    for (const auto& x : without_prices(f.uncertainty.inputs)) {  // prices: cost_monte_carlo
       const char* kinds[] = {"normal", "lognormal", "uniform", "triangular"};
       out.append(py::make_tuple(x.key, kinds[static_cast<int>(x.distribution.kind)], x.distribution.a, x.distribution.b,
                                 x.distribution.c));

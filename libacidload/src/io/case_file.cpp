@@ -214,6 +214,35 @@ EngineCase build(Reader& r, const Node& root, const std::string& name) {
   return c;
 }
 
+// A variant's scrubbing train and prices, from its merged tree: the engine then runs on the gas behind
+// the train; with prices (`priced`: the base has an economics section), its cost case keeps the raw gas.
+void scrub_and_price(Reader& r, const Node& tree, EngineCase& c, CaseFile& out, bool priced) {
+  std::vector<TrainStage> train;
+  double step = 24;
+  const Node* sn = tree.find("scrubbing");
+  if (sn) train = detail::read_scrubbing(r, *sn, step);
+  if (priced) {
+    CostCase cc;
+    cc.engine = c;
+    cc.train = train;
+    cc.step = step;
+    detail::read_economics(r, *tree.find("economics"), cc, out.sensitivity_step);
+    out.costs.push_back(std::move(cc));
+  }
+  if (train.empty()) return;
+  try {
+    c.record = scrub(c, train, step).record;
+  } catch (const InputError& e) {
+    // a changeout level the fresh bed cannot hold: at that stage's changeout-at
+    if (const Node* st = sn->find("stages"))
+      for (const Node& item : st->items)
+        if (const Node* at = item.find("changeout-at"))
+          if (const Node* nm = item.find("name"); nm && e.key().find("." + nm->scalar + ".") != std::string::npos)
+            r.fail(*at, at->scalar, e.expected());
+    r.fail(*sn, describe(*sn), e.key() + ": " + e.expected());
+  }
+}
+
 // "section.key" → the file that set it, for the sections of a variant's merged tree (the report's
 // given / default / fitted marks).
 std::map<std::string, std::string> key_sources(const Reader& r, const Node& root) {
@@ -294,7 +323,9 @@ CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::
     base_name = r.text(*b);
     if (base_name.empty()) r.fail(*b, "", "a name that is not empty");
   }
+  const bool priced = root.find("economics") != nullptr;
   out.variants.push_back(build(r, root, base_name));
+  scrub_and_price(r, root, out.variants.back(), out, priced);
   out.key_sources.push_back(key_sources(r, root));
   out.variant_keys.emplace_back();
   if (const Node* vs = root0.find("variants")) {
@@ -312,10 +343,13 @@ CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::
       const std::string name = r.text(*n);
       if (name.empty()) r.fail(*n, "", "a variant name that is not empty");
       if (!names.insert(name).second) r.fail(*n, name, "a variant name not used before");
+      if (const Node* e = v.find("economics"); e && !priced)
+        r.fail(*e, describe(*e), "an 'economics' section in the base case first (a variant may change its prices)");
       Node merged = root;
       const Node layer = without(v, {"name"});
       detail::merge_layer(merged, layer);
       out.variants.push_back(build(r, merged, name));
+      scrub_and_price(r, merged, out.variants.back(), out, priced);
       out.key_sources.push_back(key_sources(r, merged));
       std::vector<std::string> own;
       for (const auto& [key, file] : key_sources(r, layer)) own.push_back(key);

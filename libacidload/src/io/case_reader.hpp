@@ -78,6 +78,10 @@ void read_run(const Reader& r, const Node& run, double& horizon, RunOptions& o);
 void read_segment(const Reader& r, const Node& row, Segment& s, const EngineInputs& eng, const OilCharge& ch,
                   FuelAnalysis& fuel, double& power);
 UncertaintySettings read_uncertainty(const Reader& r, const Node& u);
+//! The `scrubbing` section: its stages in gas-flow order (case_economics.cpp); `step` [h] if given.
+std::vector<TrainStage> read_scrubbing(const Reader& r, const Node& s, double& step);
+//! The `economics` section into a cost case's prices and settings (case_economics.cpp).
+void read_economics(const Reader& r, const Node& e, CostCase& c, double& sensitivity_step);
 
 //! Merges a layer (overlay or variant) over a case tree: maps merge key by key, anything else
 //! replaces; a key of an either-or pair (registry `alternative`) removes its partner. `section` is

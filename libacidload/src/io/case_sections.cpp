@@ -10,6 +10,7 @@
 #include "acidload/core/species.hpp"
 #include "acidload/core/rates.hpp"
 #include "acidload/core/water.hpp"
+#include "acidload/studies/economics.hpp"
 #include "case_reader.hpp"
 #include "text.hpp"
 
@@ -532,7 +533,12 @@ UncertaintySettings read_uncertainty(const Reader& r, const Node& u) {
   const Node* in = u.find("inputs");
   if (!in || in->type != Node::Type::sequence || in->items.empty())
     r.fail(in ? *in : u, "(no inputs)", "an 'inputs' list of uncertain parameters");
-  const std::vector<std::string>& names = calibratable_keys();
+  // the calibratable parameters, and the prices a cost Monte Carlo varies (studies/economics)
+  static const std::vector<std::string> names = [] {
+    std::vector<std::string> v = calibratable_keys();
+    v.insert(v.end(), price_keys().begin(), price_keys().end());
+    return v;
+  }();
   for (const Node& item : in->items) {
     r.require_section(item, "uncertain-input");
     const Node* pn = item.find("parameter");

@@ -94,6 +94,8 @@ std::vector<CaseKey> build_table() {
   layer(b.other("record", T::section, "–", "an operating record"));
   b.other("variants", T::list, "–", "named variants to compare, each merged over the base");
   b.other("uncertainty", T::section, "–", "inputs for Monte Carlo");
+  layer(b.other("scrubbing", T::section, "–", "gas cleaning before the engine: a train of stages"));
+  layer(b.other("economics", T::section, "–", "prices: what oil, scrubbing and downtime cost"));
 
   b.section = "reference-state";
   b.q("temperature", K::temperature, 200, 400, "degC", "0 degC", "temperature of the reference state",
@@ -326,6 +328,69 @@ std::vector<CaseKey> build_table() {
           "partial drain: the share drained (required)",
           "OilEvent::amount");
 
+  // ---- scrubbing (docs/model.md §18)
+  b.section = "scrubbing";
+  open_low(b.q("step", K::duration, 0, 1e5, "h", "24 h", "longest stretch of constant outlet handed to the oil balance",
+               "CostCase::step"));
+  b.other("stages", T::list, "–", "the stages in gas-flow order (below); none: raw gas", "CostCase::train");
+
+  b.section = "stage";
+  b.other("name", T::text, "stage N", "a name for tables", "TrainStage::name");
+  b.w("kind", {"iron-oxide", "activated-carbon", "biological", "caustic", "fixed"}, "required",
+      "iron-oxide or activated-carbon (media beds), biological, caustic or fixed (a stated removal)", "ScrubStage::kind");
+  b.q("efficiency", K::fraction, 0, 1, "%", "99 % (beds); required otherwise",
+      "beds: share of the gas the bed treats (the rest channels past); other stages: H2S removed", "ScrubStage::efficiency");
+  open_low(b.q("capacity", K::mass_ratio, 1e-4, 2, "kg/kg", "0.2 kg/kg",
+               "beds: sulfur held at exhaustion, kg S per kg media (the supplier's figure governs)", "ScrubStage::capacity"));
+  b.q("bed-mass", K::mass, 1e-3, 1e7, "kg", "required (beds)", "beds: media in the bed", "ScrubStage::bed_mass");
+  b.q("breakthrough-width", K::fraction, 1e-3, 2, "%", "20 %",
+      "beds: share of the bed life from 10 % to 90 % breakthrough (assumed: fit it to the outlet readings)",
+      "ScrubStage::breakthrough_width");
+  alt(b.other("changeout-at", T::special, "required (beds): this or changeout-every",
+              "beds: H2S at the bed's outlet that triggers a changeout, in ppmv (dry)", "ChangeoutRule::outlet_h2s"),
+      "changeout-every");
+  alt(b.q("changeout-every", K::duration, 1, 1e6, "h", "–", "beds: running hours between changeouts (a schedule)",
+          "ChangeoutRule::every_hours"), "changeout-at");
+  b.q("other-sulfur-removal", K::fraction, 0, 1, "%", "0", "carbon and fixed stages: share of the other sulfur removed",
+      "ScrubStage::other_sulfur_removal");
+  b.q("halogen-removal", K::fraction, 0, 1, "%", "0", "carbon and fixed stages: share of organic Cl and F removed",
+      "ScrubStage::halogen_removal");
+  b.q("capital", K::money, 0, 1e12, "", "0", "installed cost, annualised by the capital recovery factor", "StageCosts::capital");
+  b.q("life", K::years, 1e-3, 200, "years", "15 years", "life for the capital recovery factor", "StageCosts::life_years");
+  b.q("running-cost", K::money, 0, 1e12, "", "0", "fixed running cost per year (power, water, upkeep)", "StageCosts::running");
+
+  // ---- economics (docs/model.md §19); prices in the case's currency
+  b.section = "economics";
+  b.other("currency", T::text, "–", "a label for the money figures (no exchange rates)", "CostCase::currency");
+  open_low(b.q("hours-per-year", K::duration, 0, 8784, "h", "the record's running hours", "running hours a year",
+               "CostCase::hours_per_year"));
+  b.q("electricity-price", K::price_per_energy, 0, 1e5 / 3.6e9, "per MWh", "0", "value of electricity not generated",
+      "Prices::electricity");
+  b.q("oil-price", K::price_per_volume, 0, 1e7, "per L", "0", "new oil", "Prices::oil");
+  b.q("oil-per-change", K::volume, 0, 100, "L", "the charge less its residual share", "new oil per oil change",
+      "CostCase::oil_per_change");
+  b.q("oil-change-labour", K::money, 0, 1e9, "", "0", "per oil change", "Prices::oil_change_labour");
+  b.q("oil-change-downtime", K::duration, 0, 1e4, "h", "0", "engine hours lost per oil change", "Prices::oil_change_downtime");
+  b.q("lab-cost", K::money, 0, 1e9, "", "0", "per oil sample", "Prices::lab_sample");
+  b.q("sampling-interval", K::duration, 0, 1e6, "h", "no samples", "running hours between oil samples", "Prices::sampling_interval");
+  b.q("iron-oxide-price", K::price_per_mass, 0, 1e6, "per kg", "0", "fresh iron-oxide media", "Prices::iron_oxide");
+  b.q("carbon-price", K::price_per_mass, 0, 1e6, "per kg", "0", "fresh impregnated carbon", "Prices::carbon");
+  b.q("disposal-price", K::price_per_mass, 0, 1e6, "per kg", "0", "spent media taken away", "Prices::disposal");
+  b.q("changeout-labour", K::money, 0, 1e9, "", "0", "per media changeout", "Prices::changeout_labour");
+  b.q("changeout-downtime", K::duration, 0, 1e4, "h", "0", "engine hours lost per media changeout (0 with a lead-lag pair)",
+      "Prices::changeout_downtime");
+  b.q("caustic-price", K::price_per_mass, 0, 1e6, "per kg", "0", "NaOH", "Prices::caustic");
+  b.q("caustic-excess", K::number, 1, 10, "", "1", "NaOH used over the stoichiometric 2 mol per mol S", "Prices::caustic_excess");
+  b.q("biological-consumables", K::price_per_mass, 0, 1e6, "per kg", "0",
+      "biological stages: nutrients, water and air per kg of sulfur removed", "Prices::biological");
+  b.q("discount-rate", K::fraction, 0, 1, "%", "6 %", "for the capital recovery factor", "Prices::discount_rate");
+  b.q("wear-cost", K::money, 0, 1e12, "", "0", "engine wear: cost per 1000 h of overhaul brought forward", "Prices::wear_cost");
+  b.q("wear-hours", K::duration, 0, 1e3, "h", "0 (no penalty)",
+      "engine wear: overhaul hours brought forward per 1000 running hours per ppmv of mean H2S at the engine (your own figure)",
+      "Prices::wear_hours");
+  b.q("sensitivity-step", K::fraction, 1e-3, 0.99, "%", "20 %", "each price moved by this share in the sensitivity table",
+      "EconomicsResults::sensitivity_step");
+
   // ---- uncertainty
   b.section = "uncertainty";
   b.q("draws", K::count, 1, max_draws, "", "10000", "number of draws (at most 1e6: about 3 h of one core for a one-year hourly record)", "UncertaintySettings::draws");
@@ -333,7 +398,9 @@ std::vector<CaseKey> build_table() {
   b.other("inputs", T::list, "required", "the uncertain inputs (below)", "UncertaintySettings::inputs");
 
   b.section = "uncertain-input";
-  b.other("parameter", T::special, "required", "a calibratable key, e.g. `model.so3-share` or `fuel.h2s`", "UncertainInput::key");
+  b.other("parameter", T::special, "required",
+          "a calibratable key, e.g. `model.so3-share` or `fuel.h2s`, or a price of `economics` (for `costs --monte-carlo`)",
+          "UncertainInput::key");
   b.w("distribution", {"normal", "lognormal", "uniform", "triangular"}, "required", "the distribution's shape",
       "Distribution::kind");
   b.other("mean", T::special, "–", "normal: the mean, in the parameter's units", "Distribution::a");
@@ -450,6 +517,12 @@ std::string_view kind_id(Kind k) {
     case Kind::oxidation: return "oxidation";
     case Kind::oxidation_rate: return "oxidation_rate";
     case Kind::molar_energy: return "molar_energy";
+    case Kind::money: return "money";
+    case Kind::price_per_volume: return "price_per_volume";
+    case Kind::price_per_mass: return "price_per_mass";
+    case Kind::price_per_energy: return "price_per_energy";
+    case Kind::years: return "years";
+    case Kind::mass_ratio: return "mass_ratio";
     case Kind::count: return "count";
     case Kind::number: return "number";
   }

@@ -45,7 +45,9 @@ struct KindInfo {
 constexpr Kind all_kinds[] = {Kind::temperature, Kind::temperature_change, Kind::power, Kind::volume, Kind::mass,
                               Kind::molar_flow, Kind::fraction, Kind::acid_number, Kind::specific_consumption,
                               Kind::duration, Kind::pressure, Kind::density, Kind::per_hour, Kind::oxidation,
-                              Kind::oxidation_rate, Kind::molar_energy, Kind::count, Kind::number};
+                              Kind::oxidation_rate, Kind::molar_energy, Kind::money, Kind::price_per_volume,
+                              Kind::price_per_mass, Kind::price_per_energy, Kind::years, Kind::mass_ratio,
+                              Kind::count, Kind::number};
 
 KindInfo make_info(Kind k) {
   // Nm³ is an amount: V_m at 0 °C and 101.325 kPa (the normal state).
@@ -71,6 +73,12 @@ KindInfo make_info(Kind k) {
     case Kind::oxidation: i = {"oxidation", {{"A/cm", 1}, {"A/0.1mm", 100}}}; break;
     case Kind::oxidation_rate: i = {"oxidation rate", {{"A/cm/h", 1}}}; break;
     case Kind::molar_energy: i = {"molar energy", {{"J/mol", 1}, {"kJ/mol", 1e3}}}; break;
+    case Kind::money: i = {"amount of money", {}, true}; break;
+    case Kind::price_per_volume: i = {"price per volume", {{"per L", 1e3}, {"per m3", 1}}}; break;
+    case Kind::price_per_mass: i = {"price per mass", {{"per kg", 1}, {"per t", 1e-3}}}; break;
+    case Kind::price_per_energy: i = {"price per energy", {{"per MWh", 1 / 3.6e9}, {"per kWh", 1 / 3.6e6}}}; break;
+    case Kind::years: i = {"years", {{"years", 1}, {"year", 1}}}; break;
+    case Kind::mass_ratio: i = {"mass ratio", {{"kg/kg", 1}}, true}; break;
     case Kind::count: i = {"count", {}, true}; break;
     case Kind::number: i = {"number", {}, true}; break;
   }
@@ -183,6 +191,8 @@ std::string expectation(Kind k) {
     case Kind::fraction: return "a fraction: a bare number (0.4) or a percentage with the unit % (40 %)";
     case Kind::count: return "a count: a bare number >= 0";
     case Kind::number: return number_form;
+    case Kind::money: return "an amount of money: a bare number in the case's currency (45000)";
+    case Kind::mass_ratio: return "a mass ratio: a bare number or with the unit kg/kg (0.2 kg/kg)";
     default: {
       const std::string n(i.name);
       const bool vowel = !n.empty() && std::string("aeiou").find(n[0]) != std::string::npos;

@@ -54,7 +54,7 @@ std::string csv_field(const std::string& s) {
 }
 }  // namespace
 
-std::string summary_json(const CaseFile& c, const std::vector<VariantSummary>& rows) {
+std::string summary_json(const CaseFile& c, const std::vector<VariantSummary>& rows, const EconomicsResults* economics) {
   std::ostringstream j;
   j << "{\n  \"acidload-version\": " << quote(version()) << ",\n  \"case-file\": " << quote(c.file)
     << ",\n  \"case\": " << quote(c.title) << ",\n  \"note\": "
@@ -169,7 +169,9 @@ std::string summary_json(const CaseFile& c, const std::vector<VariantSummary>& r
     j << "      \"so3-share\": " << num(v.so3_share) << ",\n      \"so3-share-equilibrium-bound\": " << num(v.so3_share_bound)
       << ",\n      \"engine-hours\": " << num(v.run.engine_hours) << "\n    }";
   }
-  j << "\n  ]\n}\n";
+  j << "\n  ]";
+  if (economics) j << ",\n  \"economics\": " << economics_json(*economics, 2);
+  j << "\n}\n";
   return j.str();
 }
 
@@ -479,11 +481,12 @@ void write_owned_file(const std::string& path, const std::string& text, const st
   ::fsync(lock.fd());
 }
 
-void write_results(const std::string& folder, const CaseFile& c, const std::vector<VariantSummary>& rows) {
+void write_results(const std::string& folder, const CaseFile& c, const std::vector<VariantSummary>& rows,
+                   const EconomicsResults* economics) {
   std::vector<std::string> inputs{c.file};
   inputs.insert(inputs.end(), c.overlays.begin(), c.overlays.end());
   // everything is computed before the disk is touched
-  write_results_folder(folder, {{"summary.json", summary_json(c, rows)}, {"trajectories.csv", trajectories_csv(rows)}},
+  write_results_folder(folder, {{"summary.json", summary_json(c, rows, economics)}, {"trajectories.csv", trajectories_csv(rows)}},
                        inputs);
 }
 

@@ -293,6 +293,28 @@ std::size_t level_stage(const CostCase& c) {
                    "a train with a media bed or a fixed-efficiency stage for the cheapest-level question");
 }
 
+namespace {
+// The running-hours mean H2S entering stage k [ppmv dry].
+double mean_inlet_ppmv(const CostCase& c, std::size_t k) {
+  if (k == 0) {
+    double h = 0, sum = 0;
+    for (const Segment& s : c.engine.record) sum += dry_ppmv(s.fuel) * s.hours, h += s.hours;
+    return h > 0 ? sum / h : dry_ppmv(c.engine.record.front().fuel);
+  }
+  std::vector<TrainStage> upstream(c.train.begin(), c.train.begin() + static_cast<std::ptrdiff_t>(k));
+  return scrub(c.engine, upstream, c.step).mean_engine_h2s_ppmv;
+}
+}  // namespace
+
+LevelRange default_level_range(const CostCase& c, std::size_t k) {
+  if (k >= c.train.size()) throw InputError("stage", std::to_string(k + 1), "a stage of the train (1 to " + std::to_string(c.train.size()) + ")");
+  const double inlet = mean_inlet_ppmv(c, k);
+  const ScrubStage& s = c.train[k].stage;
+  if (!is_media_bed(s.kind)) return {0, inlet};
+  const double low = std::fmax(0.5, 1.5 * (1 - s.efficiency) * inlet);
+  return {std::fmin(low, 0.5 * inlet), 0.95 * inlet};
+}
+
 CostCase with_outlet_level(const CostCase& c, std::size_t k, double level) {
   if (k >= c.train.size()) throw InputError("stage", std::to_string(k + 1), "a stage of the train (1 to " + std::to_string(c.train.size()) + ")");
   check::in_range("outlet level", level, 0.0, 1e5, "ppmv");
@@ -304,11 +326,7 @@ CostCase with_outlet_level(const CostCase& c, std::size_t k, double level) {
     return x;
   }
   // a fixed-efficiency stage: removal from its mean inlet (the outlet of the stage before, or the raw gas)
-  double inlet = dry_ppmv(c.engine.record.front().fuel);
-  if (k > 0) {
-    std::vector<TrainStage> upstream(c.train.begin(), c.train.begin() + static_cast<std::ptrdiff_t>(k));
-    inlet = scrub(c.engine, upstream, c.step).mean_engine_h2s_ppmv;
-  }
+  const double inlet = mean_inlet_ppmv(c, k);
   s.efficiency = inlet > 0 ? std::clamp(1 - level / inlet, 0.0, 1.0) : 0;
   return x;
 }
@@ -436,6 +454,13 @@ void set_price(CostCase& c, std::string_view key, double v) {
     for (const auto& k : price_keys()) all += (all.empty() ? "" : ", ") + k;
     throw InputError("parameter", std::string(key), "one of: " + all);
   }
+}
+
+std::vector<UncertainInput> without_prices(const std::vector<UncertainInput>& inputs) {
+  std::vector<UncertainInput> out;
+  for (const UncertainInput& in : inputs)
+    if (std::find(price_keys().begin(), price_keys().end(), in.key) == price_keys().end()) out.push_back(in);
+  return out;
 }
 
 CostMonteCarlo cost_monte_carlo(const std::vector<CostCase>& cases, const std::vector<UncertainInput>& inputs, int draws,

@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "acidload/studies/calibration.hpp"
+#include "acidload/studies/economics.hpp"
 #include "acidload/studies/monte_carlo.hpp"
 #include "acidload/studies/whatif.hpp"
 #include "acidload/io/keys.hpp"
@@ -43,6 +44,10 @@ struct CaseFile {
   std::vector<std::string> overlays;   //!< overlay files applied, in order
   int format_version = case_format_version;  //!< as written in the file
   UncertaintySettings uncertainty;           //!< the `uncertainty` section, if any
+  //! One per variant, in order, when the case has an `economics` section (else empty): the variant's
+  //! raw-gas engine case, its scrubbing train and the prices. (`variants` hold the gas behind the train.)
+  std::vector<CostCase> costs;
+  double sensitivity_step = 0.2;  //!< `economics.sensitivity-step`: each price moved by this share [-]
   //! Per variant (parallel to `variants`): each "section.key" the files set ("fuel.h2s", "oil.volume")
   //! and the file that set it last (the case file or an overlay); a key not listed took its default.
   std::vector<std::map<std::string, std::string>> key_sources;

@@ -28,6 +28,12 @@ enum class Kind {
   oxidation,            //!< A/cm, A/0.1mm      → A/cm (A/0.1mm × 100: 0.1 mm = 0.01 cm)
   oxidation_rate,       //!< A/cm/h             → A/cm per h
   molar_energy,         //!< J/mol, kJ/mol      → J/mol
+  money,                //!< a bare number: an amount in the case's currency → [currency]
+  price_per_volume,     //!< per L, per m3      → currency per m³
+  price_per_mass,       //!< per kg, per t      → currency per kg
+  price_per_energy,     //!< per MWh, per kWh   → currency per J
+  years,                //!< years              → [year]
+  mass_ratio,           //!< kg/kg, or a bare number → [kg/kg]
   count,                //!< a bare number ≥ 0  → [-]
   number,               //!< a bare number      → [-]
 };

@@ -5,12 +5,15 @@
 #include <vector>
 
 #include "acidload/io/case_file.hpp"
+#include "acidload/io/economics_results.hpp"
 #include "acidload/studies/whatif.hpp"
 
 namespace acidload::io {
 
-//! The summary as JSON text: every figure of the comparison table, units in the key names.
-std::string summary_json(const CaseFile& c, const std::vector<VariantSummary>& rows);
+//! The summary as JSON text: every figure of the comparison table, units in the key names; with
+//! `economics`, its block under "economics" (economics_results.hpp).
+std::string summary_json(const CaseFile& c, const std::vector<VariantSummary>& rows,
+                         const EconomicsResults* economics = nullptr);
 //! The trajectories of every variant as CSV text (one row per trajectory point).
 std::string trajectories_csv(const std::vector<VariantSummary>& rows);
 
@@ -29,7 +32,8 @@ std::string fleet_summary_csv(const std::vector<FleetCase>& cases);
 
 //! Writes summary.json and trajectories.csv into the results folder `folder` (write_results_folder:
 //! the case file and its overlays are the run's inputs).
-void write_results(const std::string& folder, const CaseFile& c, const std::vector<VariantSummary>& rows);
+void write_results(const std::string& folder, const CaseFile& c, const std::vector<VariantSummary>& rows,
+                   const EconomicsResults* economics = nullptr);
 
 //! The marker file inside every results folder: it says the folder is acidload's and lists the
 //! files acidload wrote there.

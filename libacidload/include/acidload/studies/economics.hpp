@@ -93,6 +93,14 @@ CostCase with_outlet_level(const CostCase& c, std::size_t stage, double outlet_p
 //! Total per MWh at a level.
 double total_per_mwh_at(const CostCase& c, std::size_t stage, double outlet_ppmv);
 
+//! The range a cheapest-level question searches by default: for a media bed from 1.5 times what the
+//! fresh bed lets through (at least 0.5 ppmv) to 0.95 of the stage's mean inlet; for a fixed stage from
+//! 0 to its mean inlet [ppmv dry].
+struct LevelRange {
+  double low = 0, high = 0;
+};
+LevelRange default_level_range(const CostCase& c, std::size_t stage);
+
 struct CheapestLevel {
   bool found = false;
   std::size_t stage = 0;
@@ -132,6 +140,8 @@ struct CostMonteCarlo {
 //! The economics keys an uncertainty input may vary, in the section's units (prices per core unit).
 const std::vector<std::string>& price_keys();
 void set_price(CostCase& c, std::string_view key, double value);
+//! The inputs that are no prices (what the drain-interval Monte Carlo varies).
+std::vector<UncertainInput> without_prices(const std::vector<UncertainInput>& inputs);
 CostMonteCarlo cost_monte_carlo(const std::vector<CostCase>& cases, const std::vector<UncertainInput>& inputs,
                                 int draws, std::uint64_t seed, int threads = 0);
 
