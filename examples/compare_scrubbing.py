@@ -49,7 +49,7 @@ def plot(result, h2s, sweep, variants=SCRUBBING):
             t = v.trajectory
             ax.plot(t["oil_hours"], t[key], color=colour, label=name)
             limit_values.add(v.limits[limit]["limit"])
-            if v.drain_interval_h is not None and v.limit_reached != "max-hours":
+            if v.drain_interval_h is not None:  # None: no oil-condition limit within the planned maximum
                 ax.axvline(v.drain_interval_h, color=colour, linestyle=":", linewidth=1)
         for value in sorted(limit_values):  # the limit, once per value (the variants share it here)
             ax.axhline(value, color="red", linestyle="--", linewidth=1)

@@ -24,6 +24,31 @@ std::string in_column(const std::string& name, std::size_t width) {
   return name.substr(0, cut) + "…";
 }
 const char* method_name(BaseNumberMethod m) { return m == BaseNumberMethod::d2896 ? "D2896" : "D4739"; }
+
+// The dew points and walls of cold running, and the exhaust, of a variant's first segment.
+void print_temperatures(std::FILE* out, const Transfer& t) {
+  std::fprintf(out, "  cold running: blow-by water dew point %s, crankcase wetness %.0f %%; in-cylinder acid dew point %s;\n",
+               t.blowby_water_dew_point > 0 ? (std::to_string(static_cast<int>(std::lround(c_of(t.blowby_water_dew_point)))) + " degC").c_str() : "none",
+               t.wetness * 100,
+               t.cylinder_acid_dew_point > 0 ? (std::to_string(static_cast<int>(std::lround(c_of(t.cylinder_acid_dew_point)))) + " degC").c_str() : "none (no SO3)");
+  std::fprintf(out, "                liner wall %.0f degC running, %.0f degC at a start; warm-up adds %.1f %% to the liner acid\n",
+               c_of(t.liner_temperature), c_of(t.liner_temperature_at_start),
+               t.inflow.sulfuric_liner > t.inflow.sulfuric_warmup && t.inflow.sulfuric_liner > 0
+                   ? 100 * t.inflow.sulfuric_warmup / (t.inflow.sulfuric_liner - t.inflow.sulfuric_warmup) : 0.0);
+}
+
+void print_emissions(std::FILE* out, const char* what, const Emissions& e) {
+  std::fprintf(out, "  %s (O2 %.1f %% dry, H2O %.1f %% wet; figures dry at %.0f %% O2, O2 of air %.1f %%):\n", what,
+               e.o2_dry * 100, e.water_wet * 100, e.o2_reference * 100, e.o2_air * 100);
+  std::fprintf(out, "    SO2 %.3g mg/Nm3 (%.3g ppmv), SO3 %.3g mg/Nm3, HCl %.3g mg/Nm3, HF %.3g mg/Nm3, NOx %.3g mg/Nm3 as NO2\n",
+               e.so2.mg_per_m3_dry_at_ref, e.so2.ppmv_dry_at_ref, e.so3.mg_per_m3_dry_at_ref, e.hcl.mg_per_m3_dry_at_ref,
+               e.hf.mg_per_m3_dry_at_ref, e.nox.mg_per_m3_dry_at_ref);
+}
+
+void print_warnings(std::FILE* out, const std::string& variant, const std::vector<Warning>& w) {
+  for (const Warning& x : w)
+    std::fprintf(out, "  warning [%s]: %s = %s: %s\n", variant.c_str(), x.key.c_str(), x.value.c_str(), x.reason.c_str());
+}
 }  // namespace
 
 void print_check(std::FILE* out, const io::CaseFile& c) {
@@ -52,9 +77,20 @@ void print_check(std::FILE* out, const io::CaseFile& c) {
                  method_name(v.charge.oil.fresh_tbn_method), v.charge.oil.fresh_tan, s.oil_consumption,
                  v.charge.continuous_makeup ? "continuous" : "top-up");
     const LimitSettings& l = v.model.limits;
-    std::fprintf(out, "  limits: TBN <= %.0f %% of fresh (%s), TAN >= fresh + %.2f, crossover %s, SAN > %.2f, ox %.0f, nitr %.0f A/cm, cap %.0f h\n",
+    std::fprintf(out, "  limits: TBN <= %.0f %% of fresh (%s), TAN >= fresh + %.2f, crossover %s, SAN > %.2f, ox %.0f, nitr %.0f A/cm,\n"
+                      "          viscosity +%.0f %%, antioxidant %.0f %% left; lab only: water %.2f %%, i-pH %.1f; planned maximum %.0f h\n",
                  l.tbn_share_of_fresh * 100, method_name(l.tbn_method), l.tan_rise, l.crossover ? "on" : "off", l.san,
-                 l.oxidation, l.nitration, l.max_hours);
+                 l.oxidation, l.nitration, l.viscosity_rise * 100, l.antioxidant_remaining * 100, l.water * 100,
+                 l.initial_ph, l.max_hours);
+    Transfer t;
+    segment_rates(s, v.charge, v.model, &t);
+    print_temperatures(out, t);
+    print_emissions(out, "exhaust, engine out", emissions(t.exhaust, s.operation.nox.o2_reference, s.operation.nox.o2_air));
+    if (v.catalyst_so3_conversion >= 0)
+      print_emissions(out, "after the oxidation catalyst",
+                      emissions(after_oxidation_catalyst(t.exhaust, v.catalyst_so3_conversion), s.operation.nox.o2_reference,
+                                s.operation.nox.o2_air));
+    print_warnings(out, v.name, input_warnings(s.fuel, s.operation, v.fuel_gas_limits));
     double hours = 0;
     for (const Segment& x : v.record) hours += x.hours;
     std::fprintf(out, "  record: %zu segment(s), %.1f h\n", v.record.size(), hours);
@@ -63,34 +99,55 @@ void print_check(std::FILE* out, const io::CaseFile& c) {
 
 void print_comparison(std::FILE* out, const io::CaseFile& c, const std::vector<VariantSummary>& rows) {
   if (!c.title.empty()) std::fprintf(out, "%s\n\n", c.title.c_str());
-  std::fprintf(out, "%-31s %-29s %6s %8s %11s  %-10s %5s %5s %5s %6s\n", "", "acid into the oil [g KOH/h]", "S to",
-               "TBN fall", "drain", "limit", "TBN", "TAN", "SAN", "H2SO4");
-  std::fprintf(out, "%-31s %5s %5s %5s %5s %5s %6s %8s %11s  %-10s %5s %5s %5s %6s\n", "variant", "H2SO4", "SO2", "HCl",
-               "HF", "HNO3", "oil %", "/100 h", "interval", "reached", "end", "end", "end", "dew C");
+  std::fprintf(out, "%-31s %-29s %-11s %-11s %-25s %5s %5s %5s %6s\n", "", "acid into the oil [g KOH/h]", " S to oil %",
+               "TBN fall", "drain interval", "TBN", "TAN", "SAN", "H2SO4");
+  std::fprintf(out, "%-31s %5s %5s %5s %5s %5s %5s %5s %5s %5s %-25s %5s %5s %5s %6s\n", "variant", "H2SO4", "SO2", "HCl",
+               "HF", "HNO3", "fresh", "avg", "fresh", "avg", "and the limit reached", "end", "end", "end", "dew C");
+  const auto hours = [](double h) { return std::to_string(static_cast<long>(h + 0.5)) + " h"; };
   for (const VariantSummary& v : rows) {
-    const std::string interval =
-        v.charge.first ? std::to_string(static_cast<long>(v.charge.drain_interval + 0.5)) + " h" : "not reached";
-    const std::string limit = v.charge.first ? std::string(name(*v.charge.first)) : "-";
-    std::fprintf(out, "%s %5.2f %5.2f %5.2f %5.2f %5.2f %6.3f %8.3f %11s  %-10s %5.2f %5.2f %5.2f %6.1f\n",
+    std::string outcome;
+    if (v.charge.oil_limit_reached()) outcome = hours(v.charge.drain_interval) + "  " + std::string(name(*v.charge.first));
+    else if (v.charge.first) outcome = "no limit within " + hours(v.charge.drain_interval);  // the planned maximum
+    else outcome = "no limit in the record (" + hours(v.charge.oil_hours) + ")";
+    char avg[16] = "    -";
+    if (v.sulfur_share_to_oil_average >= 0) std::snprintf(avg, sizeof avg, "%5.3f", v.sulfur_share_to_oil_average * 100);
+    std::fprintf(out, "%s %5.2f %5.2f %5.2f %5.2f %5.2f %5.3f %5s %5.3f %5.3f %-25s %5.2f %5.2f %5.2f %6.1f\n",
                  in_column(v.name, 31).c_str(), v.inflow_koh.sulfuric, v.inflow_koh.sulfurous_fresh, v.inflow_koh.hydrochloric,
-                 v.inflow_koh.hydrofluoric, v.inflow_koh.nitric, v.sulfur_share_to_oil * 100, -v.initial_tbn_rate * 100,
-                 interval.c_str(), limit.c_str(), v.tbn_end, v.tan_end, v.san_end,
+                 v.inflow_koh.hydrofluoric, v.inflow_koh.nitric, v.sulfur_share_to_oil * 100, avg, -v.initial_tbn_rate * 100,
+                 -v.tbn_fall_rate_average * 100, outcome.c_str(), v.tbn_end, v.tan_end, v.san_end,
                  v.dew_points.sulfuric > 0 ? c_of(v.dew_points.sulfuric) : 0.0);
+    if (v.steady_state) {
+      const OilState& x = *v.steady_state;
+      const OilProperties& oil = c.variants[static_cast<std::size_t>(&v - rows.data())].charge.oil;
+      std::fprintf(out, "  settles at: TBN %.2f (D4739), TAN %.2f, SAN %.2f mg KOH/g, oxidation %.1f, nitration %.1f A/cm, "
+                        "viscosity %+.0f %%, antioxidant %.0f %% left\n",
+                   tbn(x, oil, BaseNumberMethod::d4739), acidload::tan(x, oil), san(x), x.oxidation, x.nitration,
+                   viscosity_rise(x, oil) * 100, x.antioxidant * 100);
+    }
     if (v.run.charges.size() > 1)  // a record with oil changes: every charge's outcome
       for (const ChargeSummary& ch : v.run.charges) {
-        const std::string when = ch.first ? std::to_string(static_cast<long>(ch.drain_interval + 0.5)) + " h"
-                                          : "not reached";
-        std::fprintf(out, "  charge %d (from %.0f h, ran %.0f h%s): limit %s%s\n", ch.index + 1, ch.start_engine_hours,
-                     ch.oil_hours, ch.ended_by_change ? ", then changed" : "", ch.first ? std::string(name(*ch.first)).c_str() : "none",
-                     ch.first ? (" at " + when + " of oil").c_str() : " in the record");
+        const std::string what = ch.oil_limit_reached() ? "limit " + std::string(name(*ch.first)) + " at " + hours(ch.drain_interval) + " of oil"
+                                 : ch.first ? "no limit within " + hours(ch.drain_interval)
+                                            : "no limit in the record";
+        std::fprintf(out, "  charge %d (from %.0f h, ran %.0f h%s): %s\n", ch.index + 1, ch.start_engine_hours, ch.oil_hours,
+                     ch.ended_by_change ? ", then changed" : "", what.c_str());
       }
   }
   const LimitSettings& l = c.variants.front().model.limits;
   std::fprintf(out, "\nUnits: acid into the oil in g KOH/h; S to oil %% = share of the fuel's sulfur; TBN fall in mg KOH/g\n"
-                    "per 100 h at the start (summary.json gives it per hour and negative, as initial-tbn-rate-mg-koh-per-g-per-h,\n"
-                    "and the sulfur share as a fraction); TBN, TAN, SAN in mg KOH/g; dew point in degC.\n");
-  std::fprintf(out, "\nTBN by %s at the drain interval (or at the end of the record). SO2 uptake shown for fresh oil.\n",
+                    "per 100 h (summary.json gives the rates per hour and negative, initial-tbn-rate-mg-koh-per-g-per-h and\n"
+                    "tbn-rate-charge-average-mg-koh-per-g-per-h, and the sulfur shares as fractions); TBN, TAN, SAN in\n"
+                    "mg KOH/g; dew point in degC.\n");
+  std::fprintf(out, "\nTBN by %s at the drain interval (or at the end of the record). 'fresh': the fresh charge in the first\n"
+                    "segment (SO2 uptake falls as the base is used); 'avg': averaged over the charge to its first limit.\n"
+                    "'no limit within N h': no oil-condition limit before the planned maximum hours (limits.max-hours).\n",
                method_name(l.tbn_method));
+  bool any = false;
+  for (const VariantSummary& v : rows) any = any || !v.warnings.empty();
+  if (any) {
+    std::fprintf(out, "\nPlausibility (warnings, not refusals):\n");
+    for (const VariantSummary& v : rows) print_warnings(out, v.name, v.warnings);
+  }
 }
 
 void print_conversion(std::FILE* out, const EngineCase& c, const std::string& figure, const std::string& species) {
@@ -277,6 +334,20 @@ void print_caution(std::FILE* out) {
                "\nCaution: estimates that support, not replace, the engine maker's and oil supplier's limits, lab\n"
                "analysis, local codes and licensed practice. Never extend a drain interval without lab confirmation.\n"
                "H2S is toxic (the nose stops warning above ~100 ppm) and flammable; used oil with free acid is corrosive.\n");
+}
+
+void print_oil_cautions(std::FILE* out, const io::CaseFile& c) {
+  bool high_tbn = false, catalyst = false;
+  for (const EngineCase& v : c.variants) {
+    high_tbn = high_tbn || v.charge.oil.fresh_tbn > high_tbn_caution;
+    catalyst = catalyst || v.catalyst_so3_conversion >= 0;
+  }
+  if (high_tbn)
+    std::fprintf(out, "Caution: a higher-TBN oil carries more ash (sulfated ash, ASTM D874): ash deposits on valves, plugs and\n"
+                      "catalysts; gas engines are limited to low-ash oils. Use it only with the engine maker's approval.\n");
+  if (catalyst)
+    std::fprintf(out, "Caution: an oxidation catalyst turns SO2 into SO3, which raises the exhaust acid dew point and the wall\n"
+                      "temperature the heat recovery downstream must keep; sulfur and silicon also poison the catalyst.\n");
 }
 
 void print_fleet(std::FILE* out, const std::vector<io::FleetCase>& fleet) {

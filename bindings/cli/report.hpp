@@ -39,5 +39,9 @@ void print_monte_carlo(std::FILE* out, const acidload::EngineCase& c, const std:
 void print_fleet(std::FILE* out, const std::vector<acidload::io::FleetCase>& fleet);
 //! The one-line caution every result carries, and the fuller one.
 void print_caution(std::FILE* out);
+//! Cautions on the oil and the exhaust where a case calls for them: the ash of a higher-TBN oil, an oxidation catalyst.
+void print_oil_cautions(std::FILE* out, const acidload::io::CaseFile& c);
+//! Fresh TBN above which the ash caution is shown [mg KOH/g] (low-ash gas-engine oils are about 4-7; common practice).
+inline constexpr double high_tbn_caution = 7.5;
 
 }  // namespace acidload_cli

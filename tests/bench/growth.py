@@ -3,7 +3,8 @@ size of the work, each size one run of the program in a child process (wall time
 peak resident memory from wait4). Sizes: record length 1e2–1e7 rows (`acidload check` and
 `acidload run` of the demo site with the record as a CSV file), Monte Carlo draws 1e2–1e6
 (`acidload uncertainty` of the demo history), lab samples 10–1e4 (`acidload fit` of three parameters),
-fleet size 1–1000 (variants of one case in one `acidload run`; acidload has no fleet feature yet).
+fleet size 1–1000 (that many case files in one `acidload run`, a fleet; and that many variants of one case),
+variants read by `acidload check` 1e2–1e4 (reading is linear in their number).
 Usage: growth.py ACIDLOAD_PROGRAM [--quick]"""
 import os
 import shutil
@@ -120,15 +121,26 @@ def lab_samples(tmp):
 
 
 def fleet(tmp):
-    print("Fleet size: N variants of the demo site (each its own H2S) in one acidload run (no fleet feature yet)")
-    print(f"   {'':>10} {'variants':>10} {'time':>11} {'peak':>12}")
     case = (root / "cases" / "demo-site.yaml").read_text()
     base = case_with_record(case, "x").split("\nrecord:")[0]
+    print("Fleet size: N case files (the demo site without variants, each its own H2S) in one acidload run")
+    print(f"   {'':>10} {'cases':>10} {'time':>11} {'peak':>12}")
+    folder = pathlib.Path(tmp) / "fleet"
+    folder.mkdir()
     for n in [1, 10, 100, 1000]:
+        for i in range(len(list(folder.iterdir())), n):
+            (folder / f"engine-{i:04d}.yaml").write_text(base.replace("h2s: 300 ppmv", f"h2s: {50 + i * 0.5} ppmv", 1) + "\n")
+        row("", n, run_rss([program, "run", str(folder)]), "case")
+    print()
+    print("Fleet size: N variants of the demo site (each its own H2S) in one acidload run; and read only (check)")
+    print(f"   {'':>10} {'variants':>10} {'time':>11} {'peak':>12}")
+    for n in [1, 10, 100, 1000, 10000]:
         text = base + "\nvariants:\n" + "".join(f"  - name: h2s {i}\n    fuel:\n      h2s: {50 + i * 0.5} ppmv\n" for i in range(n - 1))
         path = pathlib.Path(tmp) / f"fleet-{n}.yaml"
         path.write_text(text if n > 1 else base + "\n")
-        row("", n, run_rss([program, "run", str(path)]), "variant")
+        if n <= 1000:
+            row("run", n, run_rss([program, "run", str(path)]), "variant")
+        row("check", n, run_rss([program, "check", str(path)]), "variant")
     print()
 
 

@@ -66,7 +66,7 @@ def test_notebook_runs_headless_and_shows_the_programs_intervals(tmp_path, monke
     assert set(shown) == set(SCRUBBING)
     for name in SCRUBBING:
         assert abs(shown[name] - expected[name]) <= 5e-4, (name, shown[name], expected[name])
-    assert "H2S for 4000 h:" in text
+    assert "H2S for 1500 h:" in text
     report = ROOT / "out" / "demo-site-report.html"  # the notebook's result.report()
     assert "report written to out/demo-site-report.html" in text and report.is_file()
     assert 'content="acidload report"' in report.read_text(encoding="utf-8")[:400]

@@ -16,7 +16,7 @@ from conftest import ROOT, need, need_acidload
 sys.path.insert(0, str(ROOT / "tests" / "reference" / "python"))
 
 REL = 1e-7
-FIELDS = ("mass", "base", "strong_acid", "weak_acid", "salts", "oxidation", "nitration", "additive_acidity")
+FIELDS = ("mass", "base", "strong_acid", "weak_acid", "salts", "oxidation", "nitration", "additive_acidity", "antioxidant")
 SOURCE = "SciPy solve_ivp reference (tests/reference/python/oil_reference.py)"
 
 
@@ -166,18 +166,20 @@ def test_demo_case_trajectory_with_floor_crossing_and_san():
                           organic_neutralised_share=0.5)
     beta = 0.2
     state = ref.State(mass=720e-3 * 880, base=5.4, additive_acidity=1.5)
+    rates = dict(v.rates)  # k_A and m come with the rates (k_A from the oxidation law: docs/model.md §16)
     hours = tr["oil_hours"]
     assert np.all(tr["charge"] == 1) and np.all(np.diff(hours) > 0)
     crossings = []
     for i in range(1, len(hours)):
-        res = ref.integrate(v.rates, k_ref, state, hours[i] - hours[i - 1])
+        res = ref.integrate(rates, k_ref, state, hours[i] - hours[i - 1])
         crossings += [hours[i - 1] + t for t in res.floor_crossings]
         state = res.state
         tbn_d4739 = state.base                      # b + weak base of D4739 (0)
         tan = state.additive_acidity + state.weak_acid + state.strong_acid + beta * state.salts  # oil.hpp: tan()
         for name, lib, want in (("tbn_d4739", tr["tbn_d4739"][i], tbn_d4739), ("tan", tr["tan"][i], tan),
                                 ("san", tr["san"][i], state.strong_acid), ("oxidation", tr["oxidation"][i], state.oxidation),
-                                ("nitration", tr["nitration"][i], state.nitration)):
+                                ("nitration", tr["nitration"][i], state.nitration),
+                                ("antioxidant", tr["antioxidant"][i], state.antioxidant)):
             assert abs(lib - want) <= REL * max(abs(want), 0.01), \
                 f"{name} at {hours[i]} h: acidload {lib}, {SOURCE} {want}"
     assert len(crossings) == 1

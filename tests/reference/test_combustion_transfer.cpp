@@ -2,6 +2,8 @@
 #include "../support/reference_check.hpp"
 #include "../support/sanity_case.hpp"
 
+#include <string>
+
 #include "acidload/core/combustion.hpp"
 #include "acidload/core/constants.hpp"
 #include "acidload/core/heating_value.hpp"
@@ -61,18 +63,26 @@ TEST_CASE("sanity case: defaults put 0.1-0.5 % of fuel sulfur into the oil") {
 }
 
 TEST_CASE("TA Luft NOx limit at 5 % O2 converts to the actual O2") {
-  // (20.9 − O2)/(20.9 − O2_ref), the emission-limit convention; 500 mg/Nm³ at 5 % O2 (TA Luft 2002 §5.4.1.4 [seen])
-  REFERENCE_CHECK("NOx at 9 % O2", nox_at_actual_o2(500, 0.09, 0.05), 500 * 11.9 / 15.9, relative, 1e-14, "mg/Nm3", "O2 correction, by definition");
+  // (O2_air − O2)/(O2_air − O2_ref), the emission-limit convention; 500 mg/Nm³ at 5 % O2 (TA Luft 2002 §5.4.1.4 [seen]);
+  // O2_air 21 % in TA Luft's correction, 20.9 % in US EPA methods (both from memory)
+  REFERENCE_CHECK("NOx at 9 % O2, O2 of air 21 %", nox_at_actual_o2(500, 0.09, 0.05, 0.21), 500 * 12.0 / 16.0, relative, 1e-14,
+                  "mg/Nm3", "O2 correction, by definition; 21 % (TA Luft, from memory)");
+  REFERENCE_CHECK("NOx at 9 % O2, O2 of air 20.9 %", nox_at_actual_o2(500, 0.09, 0.05, 0.209), 500 * 11.9 / 15.9, relative,
+                  1e-14, "mg/Nm3", "O2 correction, by definition; 20.9 % (US EPA, from memory)");
 }
 
 TEST_CASE("the NO2 formed reproduces the stated NOx figure at its reference O2") {
   // by the definition of the O2-corrected figure: convert the exhaust's NO2 back to 5 % O2
   const FuelGas g = acidload_test::sanity_gas();
-  const Operation op = acidload_test::sanity_operation(g);
-  Combustion c = burn(g, op.air, 0.02);
-  const double n = nox_per_mol_fuel(c, op.nox, op.fuel_flow, op.electrical_power);
-  add_nox(c, n);
-  const double actual = n * molar_mass(Gas::NO2) * 1e6 / (c.dry_products_total() * molar_volume(ReferenceState::normal()));
-  const double at_ref = actual * (20.9 - 5.0) / (20.9 - 100 * c.dry_o2_fraction());
-  REFERENCE_CHECK("NOx back at 5 % O2", at_ref, 500.0, relative, 1e-12, "mg/Nm3", "O2 correction, by definition");
+  for (const double air : {0.21, 0.209}) {
+    Operation op = acidload_test::sanity_operation(g);
+    op.nox.o2_air = air;
+    Combustion c = burn(g, op.air, 0.02);
+    const double n = nox_per_mol_fuel(c, op.nox, op.fuel_flow, op.electrical_power);
+    add_nox(c, n);
+    const double actual = n * molar_mass(Gas::NO2) * 1e6 / (c.dry_products_total() * molar_volume(ReferenceState::normal()));
+    const double at_ref = actual * (100 * air - 5.0) / (100 * air - 100 * c.dry_o2_fraction());
+    const std::string what = air == 0.21 ? "NOx back at 5 % O2 (O2 of air 21 %)" : "NOx back at 5 % O2 (O2 of air 20.9 %)";
+    REFERENCE_CHECK(what.c_str(), at_ref, 500.0, relative, 1e-12, "mg/Nm3", "O2 correction, by definition");
+  }
 }

@@ -17,8 +17,9 @@ namespace odeint = boost::numeric::odeint;
 namespace {
 
 // ---- the reference model ---------------------------------------------------------------
-// x = {M, B, S, W, C, O, N, T}: mass [kg] and amounts b·M, s·M, a_w·M, c_n·M, o·M, n·M, t_add·M.
-using Vec = std::array<double, 8>;
+// x = {M, B, S, W, C, O, N, T, A}: mass [kg] and amounts b·M, s·M, a_w·M, c_n·M, o·M, n·M, t_add·M and
+// the antioxidant reserve A·M (A as a share of fresh; zero-order use k_A·M while any is left).
+using Vec = std::array<double, 9>;
 enum class Mode { above, floor_acid, floor_weak };
 
 struct Reference {
@@ -27,13 +28,27 @@ struct Reference {
 
   double makeup_base() const { return r.continuous_makeup ? r.consumption * (k.fresh_base - k.base_floor) : 0; }
 
-  void rhs(Mode mode, const Vec& x, Vec& d) const {
+  // once the reserve is spent, radicals the makeup's antioxidant (k = c/M per h of fresh reserve) cannot
+  // intercept oxidise at m times the protected rate: factor m − (m − 1)·min(1, k/k_A)
+  double factor(bool spent, const Vec& x) const {
+    if (!spent) return 1;
+    const double km = r.continuous_makeup ? r.consumption / x[0] : 0;
+    return r.depleted_factor - (r.depleted_factor - 1) * std::fmin(1.0, km / r.antioxidant_depletion);
+  }
+  bool spent_of(const Vec& x) const {
+    const double km = r.continuous_makeup ? r.consumption / x[0] : 0;
+    return x[8] <= 0 && r.antioxidant_depletion > km;
+  }
+
+  void rhs(Mode mode, bool spent, const Vec& x, Vec& d) const {
     const double M = x[0], c = r.consumption, bmin = k.base_floor, phi = k.organic_neutralised_share;
     const bool cont = r.continuous_makeup;
-    const double rw = r.organic_acid, R = r.strong_acid, Bmk = makeup_base();
+    const double f = factor(spent, x);
+    const double rw = r.organic_acid * f, R = r.strong_acid, Bmk = makeup_base();
     const double l1 = r.sulfurous_fresh / (k.fresh_base - bmin);
     d[0] = cont ? 0 : -c;
-    d[5] = r.oxidation * M - c * x[5] / M;
+    d[5] = r.oxidation * f * M - c * x[5] / M;
+    d[8] = spent ? 0 : -r.antioxidant_depletion * M - c * x[8] / M + (cont ? c : 0);
     d[6] = r.nitration - c * x[6] / M;
     d[7] = -k.additive_depletion * x[7] - c * x[7] / M + (cont ? c * k.fresh_additive : 0);
     switch (mode) {
@@ -62,7 +77,8 @@ struct Reference {
   Mode mode_of(const Vec& x) const {
     if (x[1] / x[0] > k.base_floor * (1 + 1e-12)) return Mode::above;
     if (x[2] > 1e-14 * x[0] || r.strong_acid > makeup_base()) return Mode::floor_acid;
-    if (makeup_base() - r.strong_acid < k.organic_neutralised_share * r.organic_acid * x[0]) return Mode::floor_weak;
+    if (makeup_base() - r.strong_acid < k.organic_neutralised_share * r.organic_acid * factor(spent_of(x), x) * x[0])
+      return Mode::floor_weak;
     return Mode::above;
   }
   // the quantity whose zero ends a mode
@@ -71,36 +87,54 @@ struct Reference {
   }
 };
 
-// Integrates over `hours`, switching modes at located zeros. Returns the switch times.
-std::vector<double> integrate(const Reference& ref, Vec& x, double hours) {
+// Integrates over `hours`, switching modes at located zeros. Returns the base switch times; the
+// times the antioxidant ran out go to `spent_times` when given.
+std::vector<double> integrate(const Reference& ref, Vec& x, double hours, std::vector<double>* spent_times = nullptr) {
   std::vector<double> switches;
   double t = 0;
   while (t < hours) {
     const Mode mode = ref.mode_of(x);
+    const bool spent = ref.spent_of(x);
     if (mode == Mode::floor_acid) x[1] = ref.k.base_floor * x[0];
     if (mode == Mode::floor_weak) x[1] = ref.k.base_floor * x[0], x[2] = 0;
-    auto sys = [&](const Vec& y, Vec& d, double) { ref.rhs(mode, y, d); };
+    if (spent) x[8] = 0;
+    auto sys = [&](const Vec& y, Vec& d, double) { ref.rhs(mode, spent, y, d); };
     auto stepper = odeint::make_dense_output(1e-13, 1e-13, odeint::runge_kutta_dopri5<Vec>());
     stepper.initialize(x, t, std::min(1.0, hours - t));
     bool switched = false;
     const bool can_switch = mode == Mode::above || (mode == Mode::floor_acid && x[2] > 0);
+    const bool can_spend = !spent && x[8] > 0 && ref.r.antioxidant_depletion > 0;
     while (stepper.current_time() < hours) {
       stepper.do_step(sys);
       double t1 = std::min(stepper.current_time(), hours);
       Vec y;
       stepper.calc_state(t1, y);
-      if (can_switch && ref.switch_function(mode, y) < 0) {
-        double lo = stepper.previous_time(), hi = t1;  // bisection on the dense output
-        for (int i = 0; i < 200 && hi - lo > 1e-13 * hi; ++i) {
-          const double mid = 0.5 * (lo + hi);
-          Vec z;
-          stepper.calc_state(mid, z);
-          (ref.switch_function(mode, z) < 0 ? hi : lo) = mid;
-        }
+      const bool base_switch = can_switch && ref.switch_function(mode, y) < 0;
+      const bool ao_switch = can_spend && y[8] < 0;
+      if (base_switch || ao_switch) {
+        // bisection on the dense output for each zero; the earlier one ends the mode
+        const auto locate = [&](auto below) {
+          double lo = stepper.previous_time(), hi = t1;
+          for (int i = 0; i < 200 && hi - lo > 1e-13 * hi; ++i) {
+            const double mid = 0.5 * (lo + hi);
+            Vec z;
+            stepper.calc_state(mid, z);
+            (below(z) ? hi : lo) = mid;
+          }
+          return hi;
+        };
+        const double tb = base_switch ? locate([&](const Vec& z) { return ref.switch_function(mode, z) < 0; }) : hours * 2;
+        const double ta = ao_switch ? locate([](const Vec& z) { return z[8] < 0; }) : hours * 2;
+        const double hi = std::fmin(tb, ta);
         stepper.calc_state(hi, x);
         t = hi;
-        switches.push_back(hi);
-        if (mode == Mode::above) x[1] = ref.k.base_floor * x[0]; else x[2] = 0;
+        if (tb <= ta) {
+          switches.push_back(hi);
+          if (mode == Mode::above) x[1] = ref.k.base_floor * x[0]; else x[2] = 0;
+        } else {
+          if (spent_times) spent_times->push_back(hi);
+          x[8] = 0;
+        }
         switched = true;
         break;
       }
@@ -117,15 +151,16 @@ std::vector<double> integrate(const Reference& ref, Vec& x, double hours) {
 
 Vec amounts(const OilState& s) {
   return {s.mass, s.base * s.mass, s.strong_acid * s.mass, s.weak_acid * s.mass, s.salts * s.mass,
-          s.oxidation * s.mass, s.nitration * s.mass, s.additive_acidity * s.mass};
+          s.oxidation * s.mass, s.nitration * s.mass, s.additive_acidity * s.mass, s.antioxidant * s.mass};
 }
 
 double worst_seen = 0;  // the largest scaled deviation of any check_close, for the validation table
 
 void check_close(const OilState& lib, const Vec& ref, double rel) {
   const Vec a = amounts(lib);
-  const char* names[] = {"mass", "base", "strong acid", "weak acid", "salts", "oxidation", "nitration", "additive"};
-  for (int i = 0; i < 8; ++i) {
+  const char* names[] = {"mass", "base", "strong acid", "weak acid", "salts", "oxidation", "nitration", "additive",
+                         "antioxidant"};
+  for (int i = 0; i < 9; ++i) {
     const double scale = std::fmax(std::fabs(ref[i]), 1.0 * ref[0] * (i == 0 ? 0 : 1e-2));  // 0.01 mg KOH/g of oil floor
     const std::string what = std::string(names[i]) + ": acidload " + std::to_string(a[i] / lib.mass) +
                              ", reference " + std::to_string(ref[i] / ref[0]) + " (per kg of oil)";
@@ -159,6 +194,7 @@ void ref_top_up(Vec& x, const OilProperties& oil, const OilBalance& k, double dm
   x[0] += dm;
   x[1] += dm * k.fresh_base;
   x[7] += dm * oil.fresh_tan;
+  x[8] += dm;  // fresh oil brings its full antioxidant reserve
   const double avail = x[1] - k.base_floor * x[0];
   if (x[2] > 0 && avail > 0) {
     const double d = std::fmin(x[2], avail);
@@ -370,4 +406,76 @@ TEST_CASE("free acid cleared into the organic-acid-limited floor — vs Odeint")
   check_ledgers(start, s, ledger);
   REFERENCE_CHECK("oil balance, free acid cleared to the organic-limited floor (worst scaled deviation)", worst_seen, 0.0,
                   absolute, 1e-7, "rel", "Boost.Odeint Dormand-Prince, tol 1e-13, amounts form");
+}
+
+TEST_CASE("antioxidant reserve spent inside a segment: induction, then faster oxidation — vs Odeint") {
+  worst_seen = 0;
+  const OilProperties oil = test_oil();
+  const OilBalance k = balance_constants(oil);
+  double worst_spent = 0;
+  for (const bool continuous : {true, false}) {
+    OilState s = fresh_oil(oil, 528);
+    const OilState start = s;
+    Vec x = amounts(s);
+    OilLedger ledger;
+    OilRates r = rates(continuous ? 1.2 : 0.9, 0.3, continuous, 0.2);
+    r.antioxidant_depletion = 1.0 / 900;  // faster than makeup (0.2/528 per h): the reserve runs out
+    r.depleted_factor = 6;
+    double lib_spent = -1, elapsed = 0;
+    std::vector<double> ref_spent;
+    for (int i = 0; i < 6; ++i) {
+      const SegmentOutcome out = advance(s, k, r, 300, ledger);
+      std::vector<double> sp;
+      integrate(Reference{k, r}, x, 300, &sp);
+      if (out.antioxidant_spent_at >= 0 && lib_spent < 0) lib_spent = elapsed + out.antioxidant_spent_at;
+      if (!sp.empty() && ref_spent.empty()) ref_spent.push_back(elapsed + sp.front());
+      elapsed += 300;
+      check_close(s, x, 1e-7);
+      if (!continuous) {
+        const double dm = 528 - s.mass;
+        top_up(s, oil, dm, ledger);
+        ref_top_up(x, oil, k, dm);
+        check_close(s, x, 1e-7);
+      }
+    }
+    REQUIRE(lib_spent > 0);
+    REQUIRE(!ref_spent.empty());
+    INFO("antioxidant spent: acidload " << lib_spent << " h, bisection on the integrator " << ref_spent.front() << " h");
+    CHECK(std::fabs(lib_spent - ref_spent.front()) <= 1e-7 * ref_spent.front());
+    worst_spent = std::fmax(worst_spent, std::fabs(lib_spent - ref_spent.front()) / ref_spent.front());
+    if (continuous) {
+      CHECK(s.antioxidant == 0);  // makeup cannot refill it
+      CHECK(antioxidant_spent(s, r));
+      CHECK(oxidation_rate_now(s, r) > r.oxidation);
+    }
+    check_ledgers(start, s, ledger);
+  }
+  REFERENCE_CHECK("oil balance with the antioxidant reserve spent, makeup and top-ups (worst scaled deviation)", worst_seen,
+                  0.0, absolute, 1e-7, "rel", "Boost.Odeint Dormand-Prince, tol 1e-13, amounts form");
+  REFERENCE_CHECK("time the antioxidant reserve runs out (worst relative deviation)", worst_spent, 0.0, absolute, 1e-7,
+                  "rel", "bisection on the Odeint dense output");
+}
+
+TEST_CASE("hand check: the antioxidant lasts τ_A without makeup, and its zero-order steady state with makeup") {
+  // without makeup the zero-order reserve falls linearly: A = 1 − t/τ_A, spent at exactly τ_A
+  // (derived from dA/dt = −1/τ_A); with makeup k < k_A it reaches 0 at t = ln(1 + k/(k_A − k))/k
+  // (derived from dA/dt = k − k_A − k·A, A(0) = 1).
+  const OilProperties oil = test_oil();
+  const OilBalance k = balance_constants(oil);
+  OilRates r = rates(0, 0, false, 1e-9);
+  r.antioxidant_depletion = 1.0 / 1500;
+  OilState s = fresh_oil(oil, 528);
+  OilLedger l;
+  const SegmentOutcome out = advance(s, k, r, 2000, l);
+  REFERENCE_CHECK("induction period without makeup", out.antioxidant_spent_at, 1500.0, relative, 1e-9, "h",
+                  "derived: zero-order depletion, A = 1 − t/τ_A");
+  OilRates rc = rates(0, 0, true, 0.1);
+  rc.antioxidant_depletion = 1.0 / 1500;
+  const double km = 0.1 / 528, ka = 1.0 / 1500;
+  OilState c = fresh_oil(oil, 528);
+  const SegmentOutcome oc = advance(c, k, rc, 5000, l);
+  REFERENCE_CHECK("antioxidant spent under makeup", oc.antioxidant_spent_at, std::log1p(km / (ka - km)) / km, relative, 1e-9,
+                  "h", "derived: dA/dt = k − k_A − k A, A(0) = 1");
+  CHECK(depleted_oxidation_factor(6, km, ka) == doctest::Approx(6 - 5 * km / ka));
+  CHECK(depleted_oxidation_factor(6, 2 * ka, ka) == 1);  // makeup outruns the use: fully protected
 }

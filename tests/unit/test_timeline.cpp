@@ -68,7 +68,7 @@ TEST_CASE("directions of the drain interval") {
   }
 }
 
-TEST_CASE("no contaminants: only oxidation, nitration, TAN or the cap end the charge") {
+TEST_CASE("no contaminants: an oil-condition limit (oxidation, antioxidant, viscosity …) ends the charge") {
   Segment s = hours(8000, 0);
   const RunResult r = simulate(sanity_charge(), {}, {s});
   const ChargeSummary& c = r.charges.front();
@@ -76,7 +76,10 @@ TEST_CASE("no contaminants: only oxidation, nitration, TAN or the cap end the ch
   CHECK(c.reached_at[static_cast<std::size_t>(Limit::tbn_fall)] < 0);
   REQUIRE(c.first);
   const Limit l = *c.first;
-  CHECK((l == Limit::oxidation || l == Limit::nitration || l == Limit::tan_rise || l == Limit::max_hours));
+  CHECK((l == Limit::oxidation || l == Limit::nitration || l == Limit::tan_rise || l == Limit::antioxidant ||
+         l == Limit::viscosity));
+  CHECK(c.oil_limit_reached());
+  CHECK(c.drain_interval < 4000);  // clean gas still ends by a mechanism within the 1000–4000 h of practice
   for (const auto& p : r.trajectory) CHECK(p.san == 0);
 }
 
@@ -111,10 +114,13 @@ TEST_CASE("continuous makeup can settle short of every limit: not reached, with 
   ModelParameters m;
   m.limits.max_hours = 20000;
   m.oxidation.rate_at_reference = 0.001;
+  m.oxidation.induction_hours = 1e5;  // an antioxidant reserve that makeup keeps ahead of
   Segment s = hours(20000, 40);
   s.operation.nox.value = 0;
   const RunResult r = simulate(c, m, {s});
   CHECK(r.charges.front().first == Limit::max_hours);
+  CHECK(!r.charges.front().oil_limit_reached());
+  CHECK(r.steady_state);  // the horizon is the plant's plan, not a limit: the settled state is given
   Segment shorter = s;
   shorter.hours = 5000;
   const RunResult r2 = simulate(c, m, {shorter});

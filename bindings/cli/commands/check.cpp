@@ -20,6 +20,7 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
   const CheckOptions o = parse(args);
   const acidload::io::CaseFile c = acidload::io::load_case(o.case_file, o.overlays);
   print_check(out, c);
+  print_oil_cautions(out, c);
   std::fprintf(out, "\n%s: no mistakes found\n", o.case_file.c_str());
   return exit_ok;
 }

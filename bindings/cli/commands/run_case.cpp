@@ -46,6 +46,7 @@ int run_case(std::FILE* out, const acidload::io::CaseFile& c, const std::string&
                  out_folder.c_str());
   if (!summary_csv.empty()) std::fprintf(out, "Comparison table written to %s\n", summary_csv.c_str());
   print_caution(out);
+  print_oil_cautions(out, c);
   return exit_ok;
 }
 

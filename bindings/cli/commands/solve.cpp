@@ -87,9 +87,17 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
                o.lever.c_str(), target);
   std::fprintf(out, "range searched: %.4g to %.4g %s (interval %.0f h and %.0f h at its ends)\n", show(search.low),
                show(search.high), unit, r.interval_at_low, r.interval_at_high);
-  if (r.found)
-    std::fprintf(out, "answer: %.4f %s — the model run at the answer gives %.1f h (%d runs)\n", show(r.value), unit,
-                 r.interval_at_value, r.evaluations);
+  if (r.found) {
+    // three significant figures: the inputs behind a drain interval carry no more (the root itself in brackets)
+    std::fprintf(out, "answer: %.3g %s — the model run at the answer gives %.0f h (%d runs; root %.6g)\n", show(r.value),
+                 unit, r.interval_at_value, r.evaluations, show(r.value));
+    std::vector<Warning> w;
+    if (*lever == Lever::jacket_water_out) w = jacket_water_warnings(r.value);
+    if (*lever == Lever::fresh_tbn && r.value > high_tbn_caution)
+      w.push_back({"oil.fresh-tbn", std::to_string(static_cast<int>(std::lround(r.value))) + " mg KOH/g",
+                   "more base means more ash: gas engines are limited to low-ash oils; only with the engine maker's approval"});
+    for (const Warning& x : w) std::fprintf(out, "warning: %s = %s: %s\n", x.key.c_str(), x.value.c_str(), x.reason.c_str());
+  }
   else if (target >= c.model.limits.max_hours)
     std::fprintf(out, "no answer: %s\n", r.reason.c_str());
   else
@@ -97,6 +105,12 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
                  "no answer in the range: the interval is %.0f h at %.4g %s and %.0f h at %.4g %s, both %s the target\n",
                  r.interval_at_low, show(search.low), unit, r.interval_at_high, show(search.high), unit,
                  r.interval_at_low > target ? "above" : "below");
+  if (!r.found) {  // which limit holds the interval at the far end: the lever cannot move it
+    const VariantSummary far = summarize(with_lever(c, *lever, r.interval_at_high > r.interval_at_low ? search.high : search.low));
+    if (far.charge.oil_limit_reached())
+      std::fprintf(out, "at the far end of the range the %s limit ends the charge (%.0f h)\n",
+                   std::string(name(*far.charge.first)).c_str(), far.charge.drain_interval);
+  }
   print_caution(out);
   return exit_ok;
 }

@@ -51,6 +51,8 @@ class _OilProperties:
     salt_titration_share: float  # [-]
     organic_neutralised_share: float  # [-]
     density_15: float  # [kg/m³]
+    viscosity_per_oxidation: float  # [-] per A/cm
+    viscosity_per_nitration: float  # [-] per A/cm
     def __init__(self) -> None: ...
     def fresh_reactive_base(self) -> float: ...  # [mg KOH/g]
 
@@ -63,9 +65,10 @@ class _OilState:
     oxidation: float  # [A/cm]
     nitration: float  # [A/cm]
     additive_acidity: float
+    antioxidant: float  # share of fresh [0-1]
     def __init__(self, *, mass: float = ..., base: float = ..., strong_acid: float = 0.0, weak_acid: float = 0.0,
                  salts: float = 0.0, oxidation: float = 0.0, nitration: float = 0.0,
-                 additive_acidity: float = 0.0) -> None: ...
+                 additive_acidity: float = 0.0, antioxidant: float = 1.0) -> None: ...
 
 class _OilRates:
     strong_acid: float  # [g KOH/h]
@@ -73,6 +76,8 @@ class _OilRates:
     nitration: float  # [A/cm · kg/h]
     oxidation: float  # [A/cm per h]
     organic_acid: float  # [mg KOH/g per h]
+    antioxidant_depletion: float  # [share of fresh per h]
+    depleted_factor: float  # [-]
     consumption: float  # [kg/h]
     continuous_makeup: bool
     def __init__(self) -> None: ...
@@ -91,11 +96,13 @@ class _OilLedger:
     base_consumed: float
     acid_entered: float
     acid_removed: float
+    sulfurous_taken_up: float
     def __init__(self) -> None: ...
 
 class _SegmentOutcome:
     floor_reached_at: float  # [h], -1 if not
     acid_cleared_at: float  # [h], -1 if not
+    antioxidant_spent_at: float  # [h], -1 if not
     end_regime: _Regime
 
 class _OilModule:

@@ -33,6 +33,8 @@ TRAJECTORY_UNITS: Dict[str, str] = {
     "oxidation": "A/cm",
     "nitration": "A/cm",
     "oil_mass": "kg",           # oil in circulation
+    "antioxidant": "-",         # antioxidant reserve, share of fresh
+    "viscosity_rise": "-",      # kinematic viscosity at 100 degC over fresh, less 1
 }
 
 
@@ -74,13 +76,46 @@ class VariantResult:
 
     @property
     def drain_interval_h(self) -> Optional[float]:
-        """Oil hours at the first limit reached [h], or None when no limit is reached in the record."""
+        """Oil hours at the first oil-condition limit reached [h], or None when none is reached: not in
+        the record, or not within the planned maximum hours (then see :attr:`no_limit_within_h`)."""
         return self.summary["drain-interval-h"]
 
     @property
     def limit_reached(self) -> Optional[str]:
-        """The limit that ends the first charge ("tbn-fall", "crossover", …), or None."""
+        """The oil-condition limit that ends the first charge ("tbn-fall", "antioxidant", …), or None."""
         return self.summary["limit-reached"]
+
+    @property
+    def no_limit_within_h(self) -> Optional[float]:
+        """When no oil-condition limit ends the first charge: the hours it ran without one [h] (the planned
+        maximum, ``limits.max-hours``, or the end of the record); None when a limit was reached."""
+        return self.summary["no-limit-within-h"]
+
+    @property
+    def steady_state(self) -> Optional[Dict[str, float]]:
+        """Where the oil settles when no oil-condition limit is reached (continuous makeup), or None."""
+        return self.summary["steady-state"]
+
+    @property
+    def exhaust(self) -> Dict[str, Any]:
+        """Engine-out exhaust: SO2, SO3, HCl, HF, NOx (as NO2), H2O, O2 in ppmv and mg/Nm3, wet, dry and dry
+        at the case's O2 reference (``o2-reference``, ``o2-of-air``)."""
+        return self.summary["exhaust"]
+
+    @property
+    def warnings(self) -> List[Dict[str, str]]:
+        """Plausibility warnings (not refusals): key, value and reason."""
+        return self.summary["warnings"]
+
+    @property
+    def fresh_and_average(self) -> Dict[str, Optional[float]]:
+        """Fresh-oil figures (first segment, fresh charge) beside their averages over the charge to its first
+        limit: sulfur share to the oil [-] and TBN rate [mg KOH/g per h]."""
+        s = self.summary
+        return {"sulfur_share_to_oil_fresh": s["sulfur-share-to-oil"],
+                "sulfur_share_to_oil_charge_average": s["sulfur-share-to-oil-charge-average"],
+                "tbn_rate_fresh": s["initial-tbn-rate-mg-koh-per-g-per-h"],
+                "tbn_rate_charge_average": s["tbn-rate-charge-average-mg-koh-per-g-per-h"]}
 
     @property
     def limits(self) -> Dict[str, Dict[str, Any]]:
@@ -160,7 +195,13 @@ class Result:
         DataFrame indexed by variant name (needs pandas)."""
         rows = []
         for v in self.summary["variants"]:
-            row = {"drain_interval_h": v["drain-interval-h"], "limit_reached": v["limit-reached"]}
+            row = {"drain_interval_h": v["drain-interval-h"], "limit_reached": v["limit-reached"],
+                   "no_limit_within_h": v["no-limit-within-h"],
+                   "s_to_oil_pct_fresh": 100 * v["sulfur-share-to-oil"],
+                   "s_to_oil_pct_charge_average": (None if v["sulfur-share-to-oil-charge-average"] is None
+                                                   else 100 * v["sulfur-share-to-oil-charge-average"]),
+                   "tbn_fall_per_100h_fresh": -100 * v["initial-tbn-rate-mg-koh-per-g-per-h"],
+                   "tbn_fall_per_100h_charge_average": -100 * v["tbn-rate-charge-average-mg-koh-per-g-per-h"]}
             for k, x in v["at-drain-or-end"].items():
                 row[k.replace("-", "_") + "_at_end"] = x
             for k, x in v["acid-inflow-g-koh-per-h"].items():

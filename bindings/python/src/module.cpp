@@ -191,6 +191,8 @@ py::dict trajectory_arrays(const CaseRun& run, std::size_t i) {
   column("oxidation", [](const TrajectoryPoint& p) { return p.state.oxidation; });
   column("nitration", [](const TrajectoryPoint& p) { return p.state.nitration; });
   column("oil_mass", [](const TrajectoryPoint& p) { return p.state.mass; });
+  column("antioxidant", [](const TrajectoryPoint& p) { return p.state.antioxidant; });
+  column("viscosity_rise", [](const TrajectoryPoint& p) { return p.viscosity_rise; });
   return out;
 }
 
@@ -201,6 +203,8 @@ py::dict rates_dict(const OilRates& r) {
   d["nitration"] = r.nitration;
   d["oxidation"] = r.oxidation;
   d["organic_acid"] = r.organic_acid;
+  d["antioxidant_depletion"] = r.antioxidant_depletion;
+  d["depleted_factor"] = r.depleted_factor;
   d["consumption"] = r.consumption;
   d["continuous_makeup"] = r.continuous_makeup;
   return d;
@@ -410,16 +414,18 @@ PYBIND11_MODULE(_core, m) {
       .def_readwrite("salt_titration_share", &OilProperties::salt_titration_share, "β [-]")
       .def_readwrite("organic_neutralised_share", &OilProperties::organic_neutralised_share, "φ_B [-]")
       .def_readwrite("density_15", &OilProperties::density_15, "density at 15 °C [kg/m³]")
+      .def_readwrite("viscosity_per_oxidation", &OilProperties::viscosity_per_oxidation, "c_o, viscosity rise per A/cm of oxidation [-]")
+      .def_readwrite("viscosity_per_nitration", &OilProperties::viscosity_per_nitration, "c_n, viscosity rise per A/cm of nitration [-]")
       .def("fresh_reactive_base", &OilProperties::fresh_reactive_base, "b_fresh [mg KOH/g]");
   py::class_<OilState>(oil, "OilState", "The oil's state; concentrations [mg KOH/g] unless stated.")
       .def(py::init<>())
       .def(py::init([](double mass, double base, double strong_acid, double weak_acid, double salts, double oxidation,
-                       double nitration, double additive_acidity) {
-             return OilState{mass, base, strong_acid, weak_acid, salts, oxidation, nitration, additive_acidity};
+                       double nitration, double additive_acidity, double antioxidant) {
+             return OilState{mass, base, strong_acid, weak_acid, salts, oxidation, nitration, additive_acidity, antioxidant};
            }),
            py::kw_only(), py::arg("mass"), py::arg("base"), py::arg("strong_acid") = 0.0, py::arg("weak_acid") = 0.0,
            py::arg("salts") = 0.0, py::arg("oxidation") = 0.0, py::arg("nitration") = 0.0,
-           py::arg("additive_acidity") = 0.0)
+           py::arg("additive_acidity") = 0.0, py::arg("antioxidant") = 1.0)
       .def_readwrite("mass", &OilState::mass, "oil in circulation [kg]")
       .def_readwrite("base", &OilState::base, "b, reactive base [mg KOH/g]")
       .def_readwrite("strong_acid", &OilState::strong_acid, "s, free strong acid (= SAN) [mg KOH/g]")
@@ -428,11 +434,13 @@ PYBIND11_MODULE(_core, m) {
       .def_readwrite("oxidation", &OilState::oxidation, "o [A/cm]")
       .def_readwrite("nitration", &OilState::nitration, "n [A/cm]")
       .def_readwrite("additive_acidity", &OilState::additive_acidity, "t_add [mg KOH/g]")
+      .def_readwrite("antioxidant", &OilState::antioxidant, "A, antioxidant reserve as a share of fresh [0-1]")
       .def("__repr__", [](const OilState& s) {
         return "OilState(mass=" + format_value(s.mass) + ", base=" + format_value(s.base) + ", strong_acid=" +
                format_value(s.strong_acid) + ", weak_acid=" + format_value(s.weak_acid) + ", salts=" +
                format_value(s.salts) + ", oxidation=" + format_value(s.oxidation) + ", nitration=" +
-               format_value(s.nitration) + ", additive_acidity=" + format_value(s.additive_acidity) + ")";
+               format_value(s.nitration) + ", additive_acidity=" + format_value(s.additive_acidity) +
+               ", antioxidant=" + format_value(s.antioxidant) + ")";
       });
   py::class_<OilRates>(oil, "OilRates", "Rates constant over a segment.")
       .def(py::init<>())
@@ -441,6 +449,8 @@ PYBIND11_MODULE(_core, m) {
       .def_readwrite("nitration", &OilRates::nitration, "nitration inflow [A/cm · kg/h]")
       .def_readwrite("oxidation", &OilRates::oxidation, "k_ox [A/cm per h]")
       .def_readwrite("organic_acid", &OilRates::organic_acid, "α·k_ox [mg KOH/g per h]")
+      .def_readwrite("antioxidant_depletion", &OilRates::antioxidant_depletion, "k_A, zero-order antioxidant use [share of fresh per h]")
+      .def_readwrite("depleted_factor", &OilRates::depleted_factor, "m, oxidation with the antioxidant spent over protected [-]")
       .def_readwrite("consumption", &OilRates::consumption, "oil burnt or lost [kg/h]")
       .def_readwrite("continuous_makeup", &OilRates::continuous_makeup, "makeup equals consumption");
   py::class_<OilBalance>(oil, "OilBalance", "Constants of the oil balance.")
@@ -456,7 +466,8 @@ PYBIND11_MODULE(_core, m) {
       .def_readwrite("base_removed", &OilLedger::base_removed, "reactive base carried out with oil [g KOH]")
       .def_readwrite("base_consumed", &OilLedger::base_consumed, "reactive base used up neutralising acid [g KOH]")
       .def_readwrite("acid_entered", &OilLedger::acid_entered, "strong acid, SO2 and organic acid in [g KOH]")
-      .def_readwrite("acid_removed", &OilLedger::acid_removed, "free acid carried out with oil [g KOH]");
+      .def_readwrite("acid_removed", &OilLedger::acid_removed, "free acid carried out with oil [g KOH]")
+      .def_readwrite("sulfurous_taken_up", &OilLedger::sulfurous_taken_up, "of the acid entered, SO2 taken up [g KOH]");
   py::enum_<Regime>(oil, "Regime", "What the oil does in a segment: above the base floor, at the floor with free strong acid, at the floor with the organic acid limiting.")
       .value("above_floor", Regime::above_floor)
       .value("floor_acid", Regime::floor_acid)
@@ -464,6 +475,7 @@ PYBIND11_MODULE(_core, m) {
   py::class_<SegmentOutcome>(oil, "SegmentOutcome", "What the oil did during a segment: the floor crossing and acid clearing times [h].")
       .def_readonly("floor_reached_at", &SegmentOutcome::floor_reached_at, "[h] into the segment, -1 if not")
       .def_readonly("acid_cleared_at", &SegmentOutcome::acid_cleared_at, "[h] into the segment, -1 if not")
+      .def_readonly("antioxidant_spent_at", &SegmentOutcome::antioxidant_spent_at, "[h] into the segment, -1 if not")
       .def_readonly("end_regime", &SegmentOutcome::end_regime);
   oil.def("balance_constants", &balance_constants, py::arg("oil"), "The constants of the balance for an oil.");
   oil.def("fresh_oil", &fresh_oil, py::arg("oil"), py::arg("mass_kg"), "A fresh charge of mass [kg].");

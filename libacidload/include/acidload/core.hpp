@@ -30,6 +30,7 @@
 #include "acidload/core/heating_value.hpp"
 #include "acidload/core/limits.hpp"
 #include "acidload/core/oil.hpp"
+#include "acidload/core/plausibility.hpp"
 #include "acidload/core/rates.hpp"
 #include "acidload/core/scrubber.hpp"
 #include "acidload/core/so3_equilibrium.hpp"

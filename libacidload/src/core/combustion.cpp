@@ -83,9 +83,10 @@ void add_nox(Combustion& c, double n) {
   c.products[i(Gas::NO2)] += n;
 }
 
-double nox_at_actual_o2(double at_ref, double o2_actual, double o2_ref) {
+double nox_at_actual_o2(double at_ref, double o2_actual, double o2_ref, double o2_air) {
   check::in_range("nox.o2-reference", o2_ref, 0.0, 0.2, "mol/mol");
-  return at_ref * (20.9 - 100 * o2_actual) / (20.9 - 100 * o2_ref);  // emission-limit O2 correction
+  check::in_range("emissions.o2-of-air", o2_air, 0.2, 0.22, "mol/mol (21 % or 20.9 %)");
+  return at_ref * (o2_air - o2_actual) / (o2_air - o2_ref);  // emission-limit O2 correction
 }
 
 double nox_per_mol_fuel(const Combustion& base, const NoxEmission& nox, double fuel_flow, double power) {
@@ -98,13 +99,15 @@ double nox_per_mol_fuel(const Combustion& base, const NoxEmission& nox, double f
     return nox.value * 1e-3 * (power * 1e-3) / M / fuel_flow;  // kg/h / (kg/mol) / (mol fuel/h)
   }
   // mg/Nm³ dry at O2_ref → at the actual O2 → mol per mol fuel. The NO2 formed takes O2 and changes
-  // the dry volume; with D0, O0 the dry and O2 moles before it, n = K(20.9 D0 − 100 O0 + 89.55 n),
-  // K = c_ref·1e-6·V_m / (M (20.9 − 100 O2_ref)): linear in n, so solved exactly.
+  // the dry volume; with D0, O0 the dry and O2 moles before it and A = O2 of air [%],
+  // n = K(A D0 − 100 O0 + (100 − A/2) n), K = c_ref·1e-6·V_m / (M (A − 100 O2_ref)): linear in n, solved exactly.
   check::in_range("nox.o2-reference", nox.o2_reference, 0.0, 0.2, "mol/mol");
+  check::in_range("emissions.o2-of-air", nox.o2_air, 0.2, 0.22, "mol/mol (21 % or 20.9 %)");
   const double vm = molar_volume(ReferenceState::normal());
-  const double K = nox.value * 1e-6 * vm / (M * (20.9 - 100 * nox.o2_reference));
+  const double A = 100 * nox.o2_air;
+  const double K = nox.value * 1e-6 * vm / (M * (A - 100 * nox.o2_reference));
   const double D0 = base.dry_products_total(), O0 = base.products[static_cast<std::size_t>(Gas::O2)];
-  return K * (20.9 * D0 - 100 * O0) / (1 - (100 - 0.5 * 20.9) * K);
+  return K * (A * D0 - 100 * O0) / (1 - (100 - 0.5 * A) * K);
 }
 
 }  // namespace acidload

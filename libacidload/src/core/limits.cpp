@@ -5,7 +5,8 @@
 namespace acidload {
 
 std::string_view name(Limit l) {
-  constexpr std::string_view n[] = {"tbn-fall", "tan-rise", "crossover", "san", "oxidation", "nitration", "max-hours"};
+  constexpr std::string_view n[] = {"tbn-fall",  "tan-rise",    "crossover", "san",      "oxidation",
+                                    "nitration", "viscosity",   "antioxidant", "anti-wear", "max-hours"};
   return n[static_cast<std::size_t>(l)];
 }
 
@@ -13,7 +14,8 @@ std::string_view description(Limit l) {
   constexpr std::string_view d[] = {"TBN fallen to its limit share of fresh", "TAN risen by its limit over fresh",
                                     "TAN at or above TBN",                     "free strong acid (SAN) present",
                                     "oxidation at its limit",                  "nitration at its limit",
-                                    "hours cap reached"};
+                                    "viscosity at 100 degC risen to its limit", "antioxidant reserve down to its limit",
+                                    "anti-wear additive down to its limit",     "the planned maximum hours reached"};
   return d[static_cast<std::size_t>(l)];
 }
 
@@ -23,7 +25,12 @@ void validate(const LimitSettings& s) {
   check::in_range("limits.san", s.san, 0.0, 50.0, "mg KOH/g");
   check::in_range("limits.oxidation", s.oxidation, 0.0, 1000.0, "A/cm");
   check::in_range("limits.nitration", s.nitration, 0.0, 1000.0, "A/cm");
+  check::in_range("limits.viscosity-change", s.viscosity_rise, 0.0, 5.0, "(share of fresh)");
+  check::fraction("limits.antioxidant-remaining", s.antioxidant_remaining);
+  check::fraction("limits.anti-wear-remaining", s.anti_wear_remaining);
   check::in_range("limits.max-hours", s.max_hours, 1.0, 1e6, "h");
+  check::in_range("limits.water", s.water, 0.0, 1.0, "(share by mass)");
+  check::in_range("limits.initial-ph", s.initial_ph, 0.0, 14.0, "");
 }
 
 double LimitReading::margin() const { return rising ? limit - value : value - limit; }
@@ -63,6 +70,23 @@ LimitReading read_limit(Limit l, const LimitSettings& s, const OilProperties& oi
       r.value = x.nitration;
       r.limit = s.nitration;
       r.reached = r.value >= r.limit;
+      break;
+    case Limit::viscosity:
+      r.value = viscosity_rise(x, oil);
+      r.limit = s.viscosity_rise;
+      r.reached = r.value >= r.limit;
+      break;
+    case Limit::antioxidant:
+      r.value = x.antioxidant;
+      r.limit = s.antioxidant_remaining;
+      r.rising = false;
+      r.reached = r.value <= r.limit;
+      break;
+    case Limit::anti_wear:
+      r.value = anti_wear_remaining(x, oil);
+      r.limit = s.anti_wear_remaining;
+      r.rising = false;
+      r.reached = r.value <= r.limit;
       break;
     case Limit::max_hours:
       r.value = hours;

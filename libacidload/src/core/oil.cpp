@@ -30,6 +30,8 @@ void validate(const OilProperties& o) {
   check::fraction("model.salt-titration-share", o.salt_titration_share);
   check::fraction("model.organic-neutralised-share", o.organic_neutralised_share);
   check::in_range("oil.density", o.density_15, 600.0, 1200.0, "kg/m3");
+  check::in_range("oil.viscosity-per-oxidation", o.viscosity_per_oxidation, 0.0, 1.0, "per A/cm");
+  check::in_range("oil.viscosity-per-nitration", o.viscosity_per_nitration, 0.0, 1.0, "per A/cm");
 }
 
 void validate(const OxidationLaw& l) {
@@ -40,14 +42,25 @@ void validate(const OxidationLaw& l) {
   check::in_range("model.ring-zone-offset", l.ring_zone_offset, 0.0, 150.0, "K");
   check::in_range("model.organic-acid-yield", l.organic_acid_yield, 0.0, 5.0, "mg KOH/g per A/cm");
   check::in_range("model.nitration-yield", l.nitration_yield, 0.0, 1e6, "A/cm per mol/kg");
+  check::in_range("model.induction-hours", l.induction_hours, 1.0, 1e6, "h");
+  check::in_range("model.depleted-factor", l.depleted_factor, 1.0, 100.0, "(rate with the antioxidant spent over the protected rate)");
 }
 
-double oxidation_rate(const OxidationLaw& l, double T) {
+double oxidation_temperature_factor(const OxidationLaw& l, double T) {
   check::temperature("ring-zone temperature", T);
-  if (l.kind == OxidationLaw::Kind::doubling)
-    return l.rate_at_reference * std::exp2((T - l.reference_temperature) / l.doubling_interval);
-  return l.rate_at_reference *
-         std::exp(-l.activation_energy / constants::molar_gas_constant * (1 / T - 1 / l.reference_temperature));
+  if (l.kind == OxidationLaw::Kind::doubling) return std::exp2((T - l.reference_temperature) / l.doubling_interval);
+  return std::exp(-l.activation_energy / constants::molar_gas_constant * (1 / T - 1 / l.reference_temperature));
+}
+
+double oxidation_rate(const OxidationLaw& l, double T) { return l.rate_at_reference * oxidation_temperature_factor(l, T); }
+
+double antioxidant_depletion_rate(const OxidationLaw& l, double T) {
+  return oxidation_temperature_factor(l, T) / l.induction_hours;
+}
+
+double depleted_oxidation_factor(double m, double makeup, double depletion) {
+  if (depletion <= 0) return 1;
+  return m - (m - 1) * std::fmin(1.0, makeup / depletion);
 }
 
 OilState fresh_oil(const OilProperties& oil, double mass) {
@@ -56,6 +69,7 @@ OilState fresh_oil(const OilProperties& oil, double mass) {
   s.mass = mass;
   s.base = oil.fresh_reactive_base();
   s.additive_acidity = oil.fresh_tan;
+  s.antioxidant = 1;
   return s;
 }
 
@@ -64,6 +78,12 @@ double tan(const OilState& s, const OilProperties& oil) {
   return s.additive_acidity + s.weak_acid + s.strong_acid + oil.salt_titration_share * s.salts;
 }
 double san(const OilState& s) { return s.strong_acid; }
+double viscosity_rise(const OilState& s, const OilProperties& oil) {
+  return oil.viscosity_per_oxidation * s.oxidation + oil.viscosity_per_nitration * s.nitration;
+}
+double anti_wear_remaining(const OilState& s, const OilProperties& oil) {
+  return oil.fresh_tan > 0 ? s.additive_acidity / oil.fresh_tan : 1.0;
+}
 
 void validate(const OilRates& r) {
   check::non_negative("rates.strong-acid", r.strong_acid);
@@ -72,6 +92,8 @@ void validate(const OilRates& r) {
   check::non_negative("rates.oxidation", r.oxidation);
   check::non_negative("rates.organic-acid", r.organic_acid);
   check::non_negative("oil consumption", r.consumption);
+  check::non_negative("rates.antioxidant-depletion", r.antioxidant_depletion);
+  check::in_range("rates.depleted-factor", r.depleted_factor, 1.0, 100.0, "");
 }
 
 OilBalance balance_constants(const OilProperties& oil) {
@@ -241,8 +263,8 @@ double crossing(const Linear& e, double y0, const Mass& m, double target, double
 
 // The equations of each state in a regime.
 struct Equations {
-  Linear base, strong, weak, oxidation, nitration, additive, base_plus_salts;
-  bool base_fixed = false, strong_fixed = false;
+  Linear base, strong, weak, oxidation, nitration, additive, base_plus_salts, antioxidant;
+  bool base_fixed = false, strong_fixed = false, antioxidant_fixed = false;
 };
 
 struct Context {
@@ -252,7 +274,16 @@ struct Context {
   double makeup_rate;   // k = c/M [1/h] with continuous makeup, else 0
   double makeup_base;   // B_mk = c·(b_fresh − b_min) [g KOH/h] with continuous makeup, else 0
   double so2_coeff;     // l1 = SO2 uptake of fresh oil / (b_fresh − b_min) [kg/h]
+  bool spent = false;   // antioxidant reserve spent: oxidation at k_ox·f
+  double oxidation = 0; // oxidation rate of this piece [A/cm per h]
+  double organic = 0;   // organic acid formed in this piece [mg KOH/g per h]
 };
+
+double makeup_rate_of(const OilState& s, const OilRates& r) { return r.continuous_makeup ? r.consumption / s.mass : 0; }
+
+bool spent_at(const OilState& s, const OilRates& r) {
+  return s.antioxidant <= 0 && r.antioxidant_depletion > makeup_rate_of(s, r);
+}
 
 Context make_context(const OilState& s, const OilBalance& k, const OilRates& r) {
   Context c{k, r, {s.mass, r.continuous_makeup ? 0.0 : r.consumption}, 0, 0, 0};
@@ -261,13 +292,20 @@ Context make_context(const OilState& s, const OilBalance& k, const OilRates& r) 
     c.makeup_base = r.consumption * (k.fresh_base - k.base_floor);
   }
   c.so2_coeff = r.sulfurous_fresh / (k.fresh_base - k.base_floor);
+  c.spent = spent_at(s, r);
+  const double f = c.spent ? depleted_oxidation_factor(r.depleted_factor, c.makeup_rate, r.antioxidant_depletion) : 1.0;
+  c.oxidation = r.oxidation * f;
+  c.organic = r.organic_acid * f;
   return c;
 }
 
 Equations equations(Regime g, const Context& c) {
-  const double km = c.makeup_rate, phi = c.k.organic_neutralised_share, rw = c.r.organic_acid;
+  const double km = c.makeup_rate, phi = c.k.organic_neutralised_share, rw = c.organic;
   Equations e;
-  e.oxidation = {c.r.oxidation, 0, km, 0};
+  e.oxidation = {c.oxidation, 0, km, 0};
+  // dA/dt = −k_A + k (1 − A) while any is left (zero order: the radicals, not A, set the pace)
+  e.antioxidant = {km - c.r.antioxidant_depletion, 0, km, 0};
+  e.antioxidant_fixed = c.spent;
   e.nitration = {0, c.r.nitration, km, 0};
   e.additive = {km * c.k.fresh_additive, 0, km + c.k.additive_depletion, 0};
   e.base_plus_salts = {km * c.k.fresh_base, 0, km, 0};  // u = b + c_n: base consumed becomes salt 1:1
@@ -293,7 +331,7 @@ Equations equations(Regime g, const Context& c) {
 Regime regime_at(const OilState& s, const Context& c) {
   if (s.base > c.k.base_floor) return Regime::above_floor;
   if (s.strong_acid > 0 || c.r.strong_acid > c.makeup_base) return Regime::floor_acid;
-  if (c.makeup_base - c.r.strong_acid < c.k.organic_neutralised_share * c.r.organic_acid * s.mass)
+  if (c.makeup_base - c.r.strong_acid < c.k.organic_neutralised_share * c.organic * s.mass)
     return Regime::floor_weak;
   return Regime::above_floor;  // at the floor, but the makeup lifts the base again
 }
@@ -309,9 +347,10 @@ void advance_piece(OilState& s, Regime g, const Context& c, const Equations& e, 
   if (c.r.continuous_makeup) ledger.base_added += cons * c.k.fresh_base * t;
   ledger.base_removed += cons * b.integral;
   ledger.base_consumed += g == Regime::above_floor
-                              ? R * t + c.k.organic_neutralised_share * c.r.organic_acid * IM + so2
+                              ? R * t + c.k.organic_neutralised_share * c.organic * IM + so2
                               : c.makeup_base * t;
-  ledger.acid_entered += R * t + c.r.organic_acid * IM + so2;
+  ledger.acid_entered += R * t + c.organic * IM + so2;
+  ledger.sulfurous_taken_up += so2;
   ledger.acid_removed += cons * (sa.integral + w.integral);
   s.mass = c.mass.at(t);
   s.base = b.y;
@@ -321,8 +360,16 @@ void advance_piece(OilState& s, Regime g, const Context& c, const Equations& e, 
   s.oxidation = value(e.oxidation, s.oxidation, c.mass, t);
   s.nitration = value(e.nitration, s.nitration, c.mass, t);
   s.additive_acidity = value(e.additive, s.additive_acidity, c.mass, t);
+  s.antioxidant = e.antioxidant_fixed ? 0.0 : std::fmax(0.0, std::fmin(1.0, value(e.antioxidant, s.antioxidant, c.mass, t)));
 }
 }  // namespace
+
+bool antioxidant_spent(const OilState& s, const OilRates& r) { return spent_at(s, r); }
+
+double oxidation_rate_now(const OilState& s, const OilRates& r) {
+  if (!spent_at(s, r)) return r.oxidation;
+  return r.oxidation * depleted_oxidation_factor(r.depleted_factor, makeup_rate_of(s, r), r.antioxidant_depletion);
+}
 
 Regime regime_of(const OilState& s, const OilBalance& k, const OilRates& r) {
   return regime_at(s, make_context(s, k, r));
@@ -348,7 +395,7 @@ SegmentOutcome advance(OilState& s, const OilBalance& k, const OilRates& r, doub
                          format_value(0.9 * s.mass / r.consumption) + " h at this consumption)");
   SegmentOutcome out;
   double done = 0;
-  for (int piece = 0; piece < 8 && done < hours; ++piece) {
+  for (int piece = 0; piece < 16 && done < hours; ++piece) {
     const Context c = make_context(s, k, r);
     const Regime g = regime_at(s, c);
     const Equations e = equations(g, c);
@@ -356,6 +403,21 @@ SegmentOutcome advance(OilState& s, const OilBalance& k, const OilRates& r, doub
     double t_switch = -1;
     if (g == Regime::above_floor) t_switch = crossing(e.base, s.base, c.mass, k.base_floor, left);
     if (g == Regime::floor_acid && s.strong_acid > 0) t_switch = crossing(e.strong, s.strong_acid, c.mass, 0, left);
+    // the antioxidant reserve running out is a switch too: oxidation and organic acids speed up there
+    const double t_spent = !c.spent && s.antioxidant > 0 && r.antioxidant_depletion > c.makeup_rate
+                               ? crossing(e.antioxidant, s.antioxidant, c.mass, 0, left) : -1;
+    if (t_spent >= 0 && t_spent < left && (t_switch < 0 || t_spent < t_switch)) {
+      advance_piece(s, g, c, e, t_spent, ledger);
+      if (g == Regime::above_floor && s.base < k.base_floor) {  // rounding: the base switch lies just after
+        s.salts += s.base - k.base_floor;
+        s.base = k.base_floor;
+      }
+      if (g == Regime::floor_acid && s.strong_acid < 0) s.strong_acid = 0;
+      s.antioxidant = 0;
+      if (out.antioxidant_spent_at < 0) out.antioxidant_spent_at = done + t_spent;
+      done += t_spent;
+      continue;
+    }
     if (t_switch < 0 || t_switch >= left) {
       advance_piece(s, g, c, e, left, ledger);
       if (g == Regime::above_floor && s.base < k.base_floor) {  // rounding at the very end
@@ -414,6 +476,7 @@ void add_fresh(OilState& s, const OilProperties& oil, double added, OilLedger& l
   s.salts *= f_old;
   s.oxidation *= f_old;
   s.nitration *= f_old;
+  s.antioxidant = s.antioxidant * f_old + f_new;  // fresh oil brings its full reserve
   s.mass = m;
   ledger.base_added += added * oil.fresh_reactive_base();
   neutralise_at_once(s, oil.base_floor, ledger);

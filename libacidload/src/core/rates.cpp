@@ -27,6 +27,8 @@ OilRates oil_rates(const Transfer& t, const OxidationLaw& law, double sump_T, do
   r.nitration = law.nitration_yield * t.inflow.nitric;  // [A/cm per mol/kg] × [mol/h] = A/cm·kg/h
   r.oxidation = oxidation_rate(law, sump_T + law.ring_zone_offset);
   r.organic_acid = law.organic_acid_yield * r.oxidation;  // α·k_ox
+  r.antioxidant_depletion = antioxidant_depletion_rate(law, sump_T + law.ring_zone_offset);  // k_A(T)
+  r.depleted_factor = law.depleted_factor;
   r.consumption = consumption;
   r.continuous_makeup = continuous;
   return r;

@@ -27,8 +27,10 @@ void validate(const TransferParameters& p) {
   check::fraction("model.capture-hf", p.capture_hf);
   check::fraction("model.capture-so2", p.capture_so2);
   check::in_range("model.wet-so2-factor", p.wet_so2_factor, 1.0, 100.0, "");
-  check::positive("model.wetness-scale", p.wetness_scale);
+  check::positive("model.wetness-width", p.wetness_width);
   check::in_range("model.warm-up-time", p.warmup_hours, 0.0, 24.0, "h");
+  check::fraction("model.warm-up-start-load", p.warmup_start_load);
+  check::in_range("model.load-ramp-time", p.load_ramp_hours, 0.0, 24.0, "h");
   check::fraction("model.capture-no2", p.capture_no2);
 }
 
@@ -44,10 +46,11 @@ void validate(const Operation& op) {
   check::in_range("engine.crankcase-pressure", op.crankcase_pressure, 5e4, 2e5, "Pa");
   check::in_range("engine.exhaust-pressure", op.exhaust_pressure, 5e4, 5e5, "Pa");
   check::in_range("engine.starts-per-hour", op.starts_per_hour, 0.0, 10.0, "1/h");
+  check::in_range("engine.jacket-water-at-start", op.jacket_water_at_start, 233.15, 423.15, "K");
 }
 
 double AcidInflow::strong_koh() const {
-  const double eq = koh_equivalents(Acid::H2SO4) * (sulfuric_liner + sulfuric_blowby) +
+  const double eq = koh_equivalents(Acid::H2SO4) * (sulfuric_liner + sulfuric_blowby) +  // liner includes warm-up
                     koh_equivalents(Acid::HCl) * hydrochloric + koh_equivalents(Acid::HF) * hydrofluoric +
                     koh_equivalents(Acid::HNO3) * nitric;  // [mol KOH/h]
   return eq * koh_molar_mass() * 1e3;                     // [g KOH/h]
@@ -77,10 +80,42 @@ double liner_uptake_factor(double subcooling, double scale) {
   return scale / 10.0 * sp;
 }
 
-double crankcase_wetness(double dew, double cold, double scale, double starts_per_hour, double warmup) {
-  const double ws = 1.0 / (1.0 + std::exp(-(dew - cold) / scale));  // condensation at the coldest surface
+double crankcase_wetness(double dew, double cold, double width, double starts_per_hour, double warmup) {
+  const double scale = width / (2 * std::log(9.0));                 // logistic 10–90 % over `width`
+  const double ws = 1.0 / (1.0 + std::exp(-(dew - cold) / scale));  // share of wetted surface below the dew point
   const double fw = std::fmin(1.0, starts_per_hour * warmup);       // share of time warming up
   return 1.0 - (1.0 - ws) * (1.0 - fw);
+}
+
+double warmup_liner_wall(double t, double js, double jr, double tw, double rise, double e, double load, double sigma,
+                         double tr) {
+  const double jacket = tw > 0 && t < tw ? js + (jr - js) * t / tw : jr;
+  const double share = tr > 0 && t < tr ? sigma + (1 - sigma) * t / tr : 1.0;
+  return jacket + rise * std::pow(load * share, e);
+}
+
+double warmup_liner_extra(double dew, double js, double jr, double tw, double rise, double e, double load, double sigma,
+                          double tr, double scale) {
+  // 5-point Gauss–Legendre nodes and weights on [−1, 1] (Abramowitz & Stegun, Table 25.4)
+  static constexpr double x[5] = {0.0, 0.5384693101056831, -0.5384693101056831, 0.9061798459386640, -0.9061798459386640};
+  static constexpr double w[5] = {0.5688888888888889, 0.4786286704993665, 0.4786286704993665, 0.2369268850561891,
+                                  0.2369268850561891};
+  const double g_run = liner_uptake_factor(dew - (jr + rise * std::pow(load, e)), scale);
+  const auto integrand = [&](double t) {
+    const double share = tr > 0 && t < tr ? sigma + (1 - sigma) * t / tr : 1.0;  // sulfur flow follows the load
+    return share * liner_uptake_factor(dew - warmup_liner_wall(t, js, jr, tw, rise, e, load, sigma, tr), scale) - g_run;
+  };
+  // two smooth pieces: up to the earlier ramp end, then to the later one
+  const double a = std::fmin(tw, tr), b = std::fmax(tw, tr);
+  constexpr int panels = 16;
+  double sum = 0;
+  for (const auto [lo, hi] : {std::pair{0.0, a}, std::pair{a, b}}) {
+    if (hi <= lo) continue;
+    const double h = (hi - lo) / panels;
+    for (int k = 0; k < panels; ++k)
+      for (int j = 0; j < 5; ++j) sum += 0.5 * h * w[j] * integrand(lo + h * (k + 0.5 + 0.5 * x[j]));
+  }
+  return sum;
 }
 
 Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParameters& p, bool check_parameters) {
@@ -113,6 +148,7 @@ Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParame
   t.unburnt_fluorine = bb_unburnt_fuel * fuel.fluorine;
 
   // Liner path: acid condensing on the liner below the in-cylinder acid dew point.
+  const double jacket_start = std::fmin(op.jacket_water_at_start, op.jacket_water_out);  // a warm standby never cools it
   t.liner_temperature = op.jacket_water_out + p.liner_wall_rise * std::pow(op.load, p.liner_wall_rise_load_exponent);
   if (c.products[i(Gas::SO3)] > 0) {
     const double pw = c.wet_fraction(Gas::H2O) * p.liner_pressure;
@@ -120,13 +156,27 @@ Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParame
     t.cylinder_acid_dew_point = dew_point::sulfuric_verhoff_banchero(pw, ps) + p.cylinder_dew_point_offset;
     t.liner_subcooling = t.cylinder_acid_dew_point - t.liner_temperature;
     t.liner_share = p.liner_uptake * liner_uptake_factor(t.liner_subcooling, p.liner_subcooling_scale);
-    if (t.liner_share > 0.5)
+    // cold running: after each start the liner is colder while jacket water and load come up
+    if (op.starts_per_hour > 0)
+      t.warmup_liner_per_start = warmup_liner_extra(t.cylinder_acid_dew_point, jacket_start,
+                                                    op.jacket_water_out, p.warmup_hours, p.liner_wall_rise,
+                                                    p.liner_wall_rise_load_exponent, op.load, p.warmup_start_load,
+                                                    p.load_ramp_hours, p.liner_subcooling_scale);
+    // per running hour; warm-ups that would overlap (starts · warm-up > 1) count as warming up all the time
+    const double warm = std::fmax(p.warmup_hours, p.load_ramp_hours);
+    const double per_hour = op.starts_per_hour * warm > 1 ? t.warmup_liner_per_start / warm
+                                                          : op.starts_per_hour * t.warmup_liner_per_start;
+    t.inflow.sulfuric_warmup = std::fmax(0.0, p.liner_uptake * per_hour * t.sulfur_flow);
+    if (t.liner_share + p.liner_uptake * std::fmax(0.0, per_hour) > 0.5)
       throw InputError("model.liner-uptake", format_value(p.liner_uptake),
                        "parameters that keep the liner uptake below half the fuel sulfur (it is " +
-                           format_value(t.liner_share) + ")");
+                           format_value(t.liner_share + p.liner_uptake * std::fmax(0.0, per_hour)) + ")");
   }
+  t.liner_temperature_at_start = warmup_liner_wall(0, jacket_start, op.jacket_water_out, p.warmup_hours,
+                                                   p.liner_wall_rise, p.liner_wall_rise_load_exponent, op.load,
+                                                   p.warmup_start_load, p.load_ramp_hours);
   // Liner uptake: a share of the fuel S, taken from the cylinder gas's SO2 and SO3 in proportion.
-  const double liner_s = t.liner_share * t.sulfur_flow;
+  const double liner_s = t.liner_share * t.sulfur_flow + t.inflow.sulfuric_warmup;
   const double exhaust_s = t.exhaust[i(Gas::SO2)] + t.exhaust[i(Gas::SO3)];
   if (liner_s > 0) {
     const double keep = 1 - liner_s / exhaust_s;
@@ -143,7 +193,7 @@ Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParame
   if (bb_total > 0 && bb_water / bb_total * op.crankcase_pressure >= water::if97_p_min)
     t.blowby_water_dew_point = water::dew_point(bb_water / bb_total, op.crankcase_pressure);
   t.wetness = crankcase_wetness(t.blowby_water_dew_point > 0 ? t.blowby_water_dew_point : 0,
-                                op.coldest_crankcase_surface, p.wetness_scale, op.starts_per_hour, p.warmup_hours);
+                                op.coldest_crankcase_surface, p.wetness_width, op.starts_per_hour, p.warmup_hours);
   t.inflow.sulfuric_blowby = p.capture_so3 * t.blowby_burnt[i(Gas::SO3)];
   t.inflow.hydrochloric = p.capture_hcl * t.blowby_burnt[i(Gas::HCl)];
   t.inflow.hydrofluoric = p.capture_hf * t.blowby_burnt[i(Gas::HF)];

@@ -129,6 +129,8 @@ EngineCase build(Reader& r, const Node& root, const std::string& name) {
   }
   c.charge.mass = oin.volume * c.charge.oil.density_15;
   c.exhaust_temperature = eng.exhaust_temperature;
+  c.catalyst_so3_conversion = eng.catalyst_so3_conversion;
+  c.fuel_gas_limits = eng.fuel_gas_limits;
 
   // the base segment
   Segment base;

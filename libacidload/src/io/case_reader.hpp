@@ -57,6 +57,8 @@ struct EngineInputs {
   double oil_temperature = 273.15 + 88;
   double start_every = 0;         //!< h between starts, 0 = none
   double exhaust_temperature = 723.15;
+  double catalyst_so3_conversion = -1;  //!< < 0: no oxidation catalyst
+  FuelGasLimits fuel_gas_limits;
 };
 
 struct OilInputs {

@@ -318,7 +318,21 @@ void read_engine(const Reader& r, const Node& e, EngineInputs& in) {
       r.get(e, "engine.start-every", in.start_every);
     }
   }
+  r.get(e, "engine.jacket-water-at-start", op.jacket_water_at_start);
+  r.get(e, "engine.oxidation-catalyst", in.catalyst_so3_conversion);
+  for (const char* which : {"fuel-gas-sulfur-limit", "fuel-gas-halogen-limit"})
+    if (const Node* n = e.find(which)) {
+      const Concentration c = r.contaminant(*n, Basis::dry);
+      const bool sulfur = which[9] == 's';  // "fuel-gas-s…" or "fuel-gas-h…"
+      double& per_methane = sulfur ? in.fuel_gas_limits.sulfur_per_methane : in.fuel_gas_limits.halogens_per_methane;
+      double& per_energy = sulfur ? in.fuel_gas_limits.sulfur_per_energy : in.fuel_gas_limits.halogens_per_energy;
+      if (c.unit == ConcentrationUnit::mg_per_m3_methane) per_methane = c.value * 1e-6;      // mg → kg per Nm³ CH4
+      else if (c.unit == ConcentrationUnit::mg_per_MJ) per_energy = c.value * 1e-12;        // mg/MJ → kg/J
+      else r.fail(*n, n->scalar, "a fuel-gas limit in mg/Nm3 CH4 or mg/MJ (per kWh: divide by 3.6)");
+      r.seen[std::string("engine.") + which] = n;
+    }
   if (const Node* n = e.find("nox")) op.nox = read_nox(r, *n);
+  r.get(e, "engine.o2-of-air", op.nox.o2_air);
 }
 
 void read_oil(const Reader& r, const Node& o, OilCharge& c, OilInputs& in, EngineRating& rating, double power) {
@@ -374,8 +388,16 @@ void read_model(const Reader& r, const Node& m, ModelParameters& p, OilPropertie
   g("capture-so2", t.capture_so2);
   g("capture-no2", t.capture_no2);
   g("wet-so2-factor", t.wet_so2_factor);
-  g("wetness-scale", t.wetness_scale);
+  g("wetness-width", t.wetness_width);
+  double scale = -1;
+  if (r.get(m, "model.wetness-scale", scale)) t.wetness_width = 2 * std::log(9.0) * scale;  // the older form
   g("warm-up-time", t.warmup_hours);
+  g("warm-up-start-load", t.warmup_start_load);
+  g("load-ramp-time", t.load_ramp_hours);
+  g("induction-time", o.induction_hours);
+  g("depleted-oxidation-factor", o.depleted_factor);
+  g("viscosity-per-oxidation", oil.viscosity_per_oxidation);
+  g("viscosity-per-nitration", oil.viscosity_per_nitration);
   if (const Node* n = m.find("oxidation-law"))
     o.kind = r.word(*n, case_key("model.oxidation-law")) == "doubling" ? OxidationLaw::Kind::doubling : OxidationLaw::Kind::arrhenius;
   g("oxidation-rate", o.rate_at_reference);
@@ -409,6 +431,11 @@ void read_limits(const Reader& r, const Node& l, LimitSettings& s) {
   r.get(l, "limits.san", s.san);
   r.get(l, "limits.oxidation", s.oxidation);
   r.get(l, "limits.nitration", s.nitration);
+  r.get(l, "limits.viscosity-change", s.viscosity_rise);
+  r.get(l, "limits.antioxidant-remaining", s.antioxidant_remaining);
+  if (r.get(l, "limits.anti-wear-remaining", s.anti_wear_remaining)) s.enabled[static_cast<std::size_t>(Limit::anti_wear)] = true;
+  r.get(l, "limits.water", s.water);
+  r.get(l, "limits.initial-ph", s.initial_ph);
   r.get(l, "limits.max-hours", s.max_hours);
   s.enabled[static_cast<std::size_t>(Limit::crossover)] = s.crossover;
   if (const Node* n = l.find("ignore")) {

@@ -162,6 +162,19 @@ std::vector<CaseKey> build_table() {
   b.q("exhaust-temperature", K::temperature, 400, 1500, "degC", "450 degC", "for the SO3 equilibrium bound",
       "EngineCase::exhaust_temperature");
   b.q("start-every", K::duration, 0.1, 1e6, "h", "no starts", "running hours between starts", "Segment::starts");
+  b.q("jacket-water-at-start", K::temperature, 233.15, constants::engine_temperature_max, "degC", "50 degC",
+      "jacket water when the engine starts (preheated standby; 40–60 °C common practice; above `jacket-water-out`: taken as that)",
+      "Operation::jacket_water_at_start");
+  b.q("o2-of-air", K::fraction, 0.2, 0.22, "%", "21 %",
+      "O2 of air in the O2 correction of NOx and the exhaust figures: 21 % (EU permits, TA Luft) or 20.9 % (US EPA)",
+      "NoxEmission::o2_air");
+  b.q("oxidation-catalyst", K::fraction, 0, 1, "%", "none",
+      "an oxidation catalyst in the exhaust: the share of SO2 it turns to SO3 (raises the exhaust acid dew point)",
+      "EngineCase::catalyst_so3_conversion");
+  b.c("fuel-gas-sulfur-limit", "the engine maker's limit on total sulfur in the fuel gas, in `mg/Nm3 CH4` or `mg/MJ` "
+      "(mg/kWh ÷ 3.6); above it a warning", "FuelGasLimits::sulfur_per_*").default_text = "none";
+  b.c("fuel-gas-halogen-limit", "the engine maker's limit on organic Cl + F in the fuel gas, in `mg/Nm3 CH4` or `mg/MJ`; "
+      "above it a warning", "FuelGasLimits::halogens_per_*").default_text = "none";
   b.other("nox", T::special, "0",
           "engine-out NOx as NO2: `<n> mg/Nm3 at <n> % O2` (dry, 0 °C) or `<n> g/kWh`", "Operation::nox");
 
@@ -204,9 +217,20 @@ std::vector<CaseKey> build_table() {
           "TransferParameters::capture_so2"));
   cal(b.q("capture-no2", K::fraction, 0, 1, "%", "1 %", "κ_N, NO2 taken up", "TransferParameters::capture_no2"));
   cal(b.q("wet-so2-factor", K::number, 1, 100, "", "3", "SO2 uptake wet over dry", "TransferParameters::wet_so2_factor"));
-  open_low(b.q("wetness-scale", K::temperature_change, 0, inf, "K", "3 K", "width of the condensation step at the coldest surface",
-               "TransferParameters::wetness_scale"));
-  b.q("warm-up-time", K::duration, 0, 24, "h", "0.5 h", "a start keeps the crankcase wet this long", "TransferParameters::warmup_hours");
+  open_low(alt(b.q("wetness-width", K::temperature_change, 0, inf, "K", "15 K",
+          "10–90 % width of the crankcase condensation step: the spread of the wetted surfaces' temperatures above the coldest",
+          "TransferParameters::wetness_width"),
+      "wetness-scale"));
+  open_low(alt(b.q("wetness-scale", K::temperature_change, 0, inf, "K", "–",
+          "older form of `wetness-width`: the logistic scale s (width = 2 ln 9 · s = 4.39 s)", "TransferParameters::wetness_width"),
+      "wetness-width"));
+  b.q("warm-up-time", K::duration, 0, 24, "h", "0.5 h",
+      "after a start: jacket water comes up to its running value and the crankcase stays wet this long",
+      "TransferParameters::warmup_hours");
+  b.q("warm-up-start-load", K::fraction, 0, 1, "%", "30 %", "load when a started engine takes load, share of the running load",
+      "TransferParameters::warmup_start_load");
+  b.q("load-ramp-time", K::duration, 0, 24, "h", "0.1 h", "time to reach the running load after a start",
+      "TransferParameters::load_ramp_hours");
   b.w("oxidation-law", {"doubling", "arrhenius"}, "doubling", "how the oxidation rate follows temperature", "OxidationLaw::kind");
   cal(b.q("oxidation-rate", K::oxidation_rate, 0, 10, "A/cm/h", "0.008 A/cm/h", "k_ox at the reference temperature",
           "OxidationLaw::rate_at_reference"));
@@ -220,6 +244,14 @@ std::vector<CaseKey> build_table() {
           "OxidationLaw::organic_acid_yield"));
   cal(b.q("nitration-yield", K::number, 0, 1e6, "", "1500", "A/cm of nitration per mol/kg of NO2 taken up",
           "OxidationLaw::nitration_yield"));
+  cal(b.q("induction-time", K::duration, 1, 1e6, "h", "1500 h",
+          "τ_A, hours the fresh antioxidant reserve lasts without makeup at the reference temperature", "OxidationLaw::induction_hours"));
+  cal(b.q("depleted-oxidation-factor", K::number, 1, 100, "", "5", "m, oxidation once the antioxidant is spent over the protected rate",
+          "OxidationLaw::depleted_factor"));
+  cal(b.q("viscosity-per-oxidation", K::number, 0, 1, "", "0.008", "c_o, viscosity rise at 100 °C per A/cm of oxidation",
+          "OilProperties::viscosity_per_oxidation"));
+  cal(b.q("viscosity-per-nitration", K::number, 0, 1, "", "0.004", "c_n, viscosity rise at 100 °C per A/cm of nitration",
+          "OilProperties::viscosity_per_nitration"));
   cal(b.q("weak-base-d2896", K::acid_number, 0, 10, "mg KOH/g", "0.6 mg KOH/g", "weak base D2896 titrates that neutralises no acid",
           "OilProperties::weak_base_d2896"));
   cal(b.q("weak-base-d4739", K::acid_number, 0, 10, "mg KOH/g", "0 mg KOH/g", "weak base D4739 titrates that neutralises no acid",
@@ -242,9 +274,21 @@ std::vector<CaseKey> build_table() {
   b.q("san", K::acid_number, 0, 50, "mg KOH/g", "0 mg KOH/g", "SAN above this (0: any free strong acid)", "LimitSettings::san");
   b.q("oxidation", K::oxidation, 0, 1000, "A/cm", "20 A/cm", "FTIR oxidation limit", "LimitSettings::oxidation");
   b.q("nitration", K::oxidation, 0, 1000, "A/cm", "20 A/cm", "FTIR nitration limit", "LimitSettings::nitration");
-  b.q("max-hours", K::duration, 1, 1e6, "h", "8000 h", "hours cap on a charge", "LimitSettings::max_hours");
+  b.q("viscosity-change", K::fraction, 0, 5, "%", "20 %", "kinematic viscosity at 100 °C up by this share over fresh",
+      "LimitSettings::viscosity_rise");
+  b.q("antioxidant-remaining", K::fraction, 0, 1, "%", "25 %", "antioxidant reserve down to this share of fresh",
+      "LimitSettings::antioxidant_remaining");
+  b.q("anti-wear-remaining", K::fraction, 0, 1, "%", "off",
+      "anti-wear additive (its acidity) down to this share of fresh; setting it switches the limit on",
+      "LimitSettings::anti_wear_remaining");
+  b.q("water", K::fraction, 0, 1, "%", "0.5 %", "lab only: water in the oil above this share", "LimitSettings::water");
+  b.q("initial-ph", K::number, 0, 14, "", "4.5", "lab only: i-pH (ASTM D7946) at or below this", "LimitSettings::initial_ph");
+  b.q("max-hours", K::duration, 1, 1e6, "h", "8000 h",
+      "the plant's planned maximum hours on a charge: the horizon; reaching it is no limit ('no limit within N h')",
+      "LimitSettings::max_hours");
   b.other("ignore", T::list, "–",
-          "limits switched off: `tbn-fall`, `tan-rise`, `crossover`, `san`, `oxidation`, `nitration`, `max-hours`",
+          "limits switched off: `tbn-fall`, `tan-rise`, `crossover`, `san`, `oxidation`, `nitration`, `viscosity`, "
+          "`antioxidant`, `anti-wear`, `max-hours`",
           "LimitSettings::enabled");
 
   // ---- run

@@ -294,8 +294,10 @@ std::string written(const std::string& key, double v) {
       {"model.weak-base-d4739", "mg KOH/g"},    {"model.base-floor", "mg KOH/g"},
       {"model.additive-depletion", "1/h"},      {"engine.jacket-water-out", "K"},
       {"oil.fresh-tbn", "mg KOH/g"},            {"oil.volume", "m3"},
-      {"fuel.h2s", "ppmv"}};
-  static const std::vector<std::string> bare = {"model.wet-so2-factor", "model.organic-acid-yield", "model.nitration-yield"};
+      {"fuel.h2s", "ppmv"},                     {"model.induction-time", "h"}};
+  static const std::vector<std::string> bare = {"model.wet-so2-factor", "model.organic-acid-yield", "model.nitration-yield",
+                                                "model.depleted-oxidation-factor", "model.viscosity-per-oxidation",
+                                                "model.viscosity-per-nitration"};
   const auto it = unit.find(key);
   if (it != unit.end()) return g(v) + " " + it->second;
   if (std::find(bare.begin(), bare.end(), key) != bare.end()) return g(v);

@@ -78,9 +78,16 @@ std::string summary_json(const CaseFile& c, const std::vector<VariantSummary>& r
       << ", \"sulfurous-fresh-oil\": " << num(v.inflow.sulfurous_fresh) << ", \"hydrochloric\": " << num(v.inflow.hydrochloric)
       << ", \"hydrofluoric\": " << num(v.inflow.hydrofluoric) << ", \"nitric\": " << num(v.inflow.nitric) << "},\n";
     j << "      \"sulfur-share-to-oil\": " << num(v.sulfur_share_to_oil) << ",\n";
+    j << "      \"sulfur-share-to-oil-charge-average\": "
+      << (v.sulfur_share_to_oil_average >= 0 ? num(v.sulfur_share_to_oil_average) : "null") << ",\n";
     j << "      \"initial-tbn-rate-mg-koh-per-g-per-h\": " << num(v.initial_tbn_rate) << ",\n";
-    j << "      \"drain-interval-h\": " << (ch.first ? num(ch.drain_interval) : "null") << ",\n";
-    j << "      \"limit-reached\": " << (ch.first ? quote(std::string(name(*ch.first))) : "null") << ",\n";
+    j << "      \"tbn-rate-charge-average-mg-koh-per-g-per-h\": " << num(v.tbn_fall_rate_average) << ",\n";
+    // an oil-condition limit, or none: the planned maximum hours is a horizon, not a result
+    j << "      \"drain-interval-h\": " << (ch.oil_limit_reached() ? num(ch.drain_interval) : "null") << ",\n";
+    j << "      \"limit-reached\": " << (ch.oil_limit_reached() ? quote(std::string(name(*ch.first))) : "null") << ",\n";
+    j << "      \"no-limit-within-h\": "
+      << (ch.oil_limit_reached() ? "null" : num(ch.first ? ch.drain_interval : ch.oil_hours)) << ",\n";
+    j << "      \"antioxidant-spent-at-h\": " << (ch.antioxidant_spent_at >= 0 ? num(ch.antioxidant_spent_at) : "null") << ",\n";
     j << "      \"at-drain-or-end\": {\"tbn-mg-koh-per-g\": " << num(v.tbn_end) << ", \"tan-mg-koh-per-g\": " << num(v.tan_end)
       << ", \"san-mg-koh-per-g\": " << num(v.san_end) << "},\n";
     j << "      \"limits\": {";
@@ -97,15 +104,20 @@ std::string summary_json(const CaseFile& c, const std::vector<VariantSummary>& r
       const ChargeSummary& x = v.run.charges[k];
       j << (k ? ", " : "") << "{\"start-engine-hours-h\": " << num(x.start_engine_hours) << ", \"oil-hours-h\": "
         << num(x.oil_hours) << ", \"ended-by-oil-change\": " << (x.ended_by_change ? "true" : "false")
-        << ", \"drain-interval-h\": " << (x.first ? num(x.drain_interval) : "null") << ", \"limit-reached\": "
-        << (x.first ? quote(std::string(name(*x.first))) : "null") << "}";
+        << ", \"drain-interval-h\": " << (x.oil_limit_reached() ? num(x.drain_interval) : "null") << ", \"limit-reached\": "
+        << (x.oil_limit_reached() ? quote(std::string(name(*x.first))) : "null") << "}";
     }
     j << "],\n";
     j << "      \"floor-reached-at-h\": " << (ch.floor_reached_at >= 0 ? num(ch.floor_reached_at) : "null") << ",\n";
     if (v.steady_state) {
       const OilState& s = *v.steady_state;
-      j << "      \"steady-state\": {\"base-mg-koh-per-g\": " << num(s.base) << ", \"san-mg-koh-per-g\": " << num(s.strong_acid)
-        << ", \"oxidation-a-per-cm\": " << num(s.oxidation) << ", \"nitration-a-per-cm\": " << num(s.nitration) << "},\n";
+      const OilProperties& oil = c.variants[i].charge.oil;
+      j << "      \"steady-state\": {\"base-mg-koh-per-g\": " << num(s.base) << ", \"tbn-d4739-mg-koh-per-g\": "
+        << num(tbn(s, oil, BaseNumberMethod::d4739)) << ", \"tan-mg-koh-per-g\": " << num(acidload::tan(s, oil))
+        << ", \"san-mg-koh-per-g\": " << num(s.strong_acid)
+        << ", \"oxidation-a-per-cm\": " << num(s.oxidation) << ", \"nitration-a-per-cm\": " << num(s.nitration)
+        << ", \"viscosity-rise\": " << num(viscosity_rise(s, oil)) << ", \"antioxidant-remaining\": " << num(s.antioxidant)
+        << ", \"anti-wear-remaining\": " << num(anti_wear_remaining(s, oil)) << "},\n";
     } else {
       j << "      \"steady-state\": null,\n";
     }
@@ -114,6 +126,46 @@ std::string summary_json(const CaseFile& c, const std::vector<VariantSummary>& r
       << c_of(v.dew_points.sulfuric) << ", \"sulfuric-zarenezhad\": " << c_of(v.dew_points.sulfuric_zarenezhad)
       << ", \"sulfuric-okkes\": " << c_of(v.dew_points.sulfuric_okkes) << ", \"hydrochloric\": "
       << c_of(v.dew_points.hydrochloric) << ", \"minimum-wall\": " << c_of(v.dew_points.minimum_wall_temperature) << "},\n";
+    {
+      const Transfer& t = v.run.first_transfer;
+      j << "      \"temperatures-degc\": {\"blow-by-water-dew-point\": " << c_of(t.blowby_water_dew_point)
+        << ", \"in-cylinder-acid-dew-point\": " << c_of(t.cylinder_acid_dew_point) << ", \"liner-wall-running\": "
+        << c_of(t.liner_temperature) << ", \"liner-wall-at-start\": " << c_of(t.liner_temperature_at_start) << "},\n";
+      j << "      \"crankcase-wetness\": " << num(t.wetness) << ",\n";
+      j << "      \"warm-up-liner-acid-mol-s-per-h\": " << num(t.inflow.sulfuric_warmup) << ",\n";
+    }
+    const auto figures = [&](const Emissions& e) {
+      std::ostringstream o;
+      const auto one = [&](const char* key, const EmissionFigure& f, bool last) {
+        o << quote(key) << ": {\"ppmv-wet\": " << num(f.ppmv_wet) << ", \"ppmv-dry\": " << num(f.ppmv_dry)
+          << ", \"mg-per-nm3-wet\": " << num(f.mg_per_m3_wet) << ", \"mg-per-nm3-dry\": " << num(f.mg_per_m3_dry)
+          << ", \"ppmv-dry-at-o2-reference\": " << num(f.ppmv_dry_at_ref) << ", \"mg-per-nm3-dry-at-o2-reference\": "
+          << num(f.mg_per_m3_dry_at_ref) << "}" << (last ? "" : ", ");
+      };
+      o << "{\"o2-reference\": " << num(e.o2_reference) << ", \"o2-of-air\": " << num(e.o2_air) << ", \"o2-dry\": "
+        << num(e.o2_dry) << ", \"h2o-wet\": " << num(e.water_wet) << ", \"flow-wet-nm3-per-h\": " << num(e.flow_wet)
+        << ", \"flow-dry-nm3-per-h\": " << num(e.flow_dry) << ", \"so2-kg-per-h\": " << num(e.so2_mass_flow) << ", ";
+      one("so2", e.so2, false), one("so3", e.so3, false), one("hcl", e.hcl, false), one("hf", e.hf, false);
+      one("nox-as-no2", e.nox, false), one("h2o", e.h2o, false), one("o2", e.o2, true);
+      o << "}";
+      return o.str();
+    };
+    j << "      \"exhaust\": " << figures(v.emissions) << ",\n";
+    j << "      \"exhaust-after-catalyst\": " << (v.emissions_after_catalyst ? figures(*v.emissions_after_catalyst) : "null")
+      << ",\n";
+    if (v.dew_points_after_catalyst) {
+      const ExhaustDewPoints& d = *v.dew_points_after_catalyst;
+      j << "      \"exhaust-dew-points-after-catalyst-degc\": {\"water\": " << c_of(d.water) << ", \"sulfuric\": "
+        << c_of(d.sulfuric) << ", \"hydrochloric\": " << c_of(d.hydrochloric) << ", \"minimum-wall\": "
+        << c_of(d.minimum_wall_temperature) << "},\n";
+    } else {
+      j << "      \"exhaust-dew-points-after-catalyst-degc\": null,\n";
+    }
+    j << "      \"warnings\": [";
+    for (std::size_t w = 0; w < v.warnings.size(); ++w)
+      j << (w ? ", " : "") << "{\"key\": " << quote(v.warnings[w].key) << ", \"value\": " << quote(v.warnings[w].value)
+        << ", \"reason\": " << quote(v.warnings[w].reason) << "}";
+    j << "],\n";
     j << "      \"so3-share\": " << num(v.so3_share) << ",\n      \"so3-share-equilibrium-bound\": " << num(v.so3_share_bound)
       << ",\n      \"engine-hours\": " << num(v.run.engine_hours) << "\n    }";
   }

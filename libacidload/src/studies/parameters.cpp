@@ -23,6 +23,10 @@ const std::vector<ParameterInfo>& parameter_table() {
       {"model.ring-zone-offset", "K", Bound::interval, 0, 150, logit_sd},
       {"model.organic-acid-yield", "mg KOH/g per A/cm", Bound::interval, 0, 5, logit_sd},
       {"model.nitration-yield", "A/cm per mol/kg", Bound::interval, 0, 1e6, logit_sd},
+      {"model.induction-time", "h", Bound::positive, 0, 0, ln10},
+      {"model.depleted-oxidation-factor", "-", Bound::positive, 0, 0, ln10},
+      {"model.viscosity-per-oxidation", "per A/cm", Bound::positive, 0, 0, ln10},
+      {"model.viscosity-per-nitration", "per A/cm", Bound::positive, 0, 0, ln10},
       {"model.weak-base-d2896", "mg KOH/g", Bound::interval, 0, 10, logit_sd},
       {"model.weak-base-d4739", "mg KOH/g", Bound::interval, 0, 10, logit_sd},
       {"model.base-floor", "mg KOH/g", Bound::interval, 0, 40, logit_sd},
@@ -65,6 +69,10 @@ double* field(EngineCase& c, std::string_view key, std::size_t segment) {
   if (key == "model.ring-zone-offset") return &o.ring_zone_offset;
   if (key == "model.organic-acid-yield") return &o.organic_acid_yield;
   if (key == "model.nitration-yield") return &o.nitration_yield;
+  if (key == "model.induction-time") return &o.induction_hours;
+  if (key == "model.depleted-oxidation-factor") return &o.depleted_factor;
+  if (key == "model.viscosity-per-oxidation") return &oil.viscosity_per_oxidation;
+  if (key == "model.viscosity-per-nitration") return &oil.viscosity_per_nitration;
   if (key == "model.weak-base-d2896") return &oil.weak_base_d2896;
   if (key == "model.weak-base-d4739") return &oil.weak_base_d4739;
   if (key == "model.base-floor") return &oil.base_floor;

@@ -6,6 +6,7 @@
 
 #include "acidload/core/error.hpp"
 #include "acidload/core/rates.hpp"
+#include "acidload/core/species.hpp"
 
 namespace acidload {
 
@@ -63,6 +64,7 @@ struct Runner {
   int charge_index = 0;
   RateCache cache{};
   bool any_segment = false;             // the last segment's rates (in the cache) give the steady state
+  double fuel_s = 0, oil_s = 0;         // fuel sulfur and sulfur to the oil of the current charge up to its first limit [mol]
   double since_output = 0;              // hours since the last output point
 
   ChargeSummary& current() { return result.charges.back(); }
@@ -73,6 +75,7 @@ struct Runner {
     c.start_engine_hours = engine_h;
     c.reached_at.fill(-1);
     result.charges.push_back(c);
+    fuel_s = oil_s = 0;
     oil_h = oil_hours;
   }
 
@@ -89,18 +92,22 @@ struct Runner {
     p.tbn_d4739 = tbn(state, charge.oil, BaseNumberMethod::d4739);
     p.tan = acidload::tan(state, charge.oil);
     p.san = san(state);
+    p.viscosity_rise = acidload::viscosity_rise(state, charge.oil);
     result.trajectory.push_back(p);
   }
 
   void close_charge() {
     ChargeSummary& c = current();
     c.oil_hours = oil_h;
+    if (!c.first && fuel_s > 0) c.sulfur_share_to_oil_average = oil_s / fuel_s;
     if (!c.first)
       for (Limit l : all_limits) c.at_end[static_cast<std::size_t>(l)] = read_limit(l, model.limits, charge.oil, state, oil_h);
   }
 
-  // Marks limits reached at the end of a step of length dt from `before`; locates each exactly.
-  void check_limits(const OilState& before, const OilRates& r, double dt) {
+  // Marks limits reached at the end of a step of length dt from `before`; locates each exactly. `t` is the
+  // step's transfer, for the charge averages up to the first limit.
+  void check_limits(const OilState& before, const OilRates& r, double dt, const Transfer& t) {
+    const bool had_first = current().first.has_value();
     ChargeSummary& c = current();
     for (Limit l : all_limits) {
       const auto i = static_cast<std::size_t>(l);
@@ -148,6 +155,12 @@ struct Runner {
         OilLedger scratch;
         const double back = t_first - (oil_h - dt);
         if (back > 0) advance(x, k, r, back, scratch);
+        if (!had_first) {  // charge averages up to the first limit: only the part of the step before it
+          const double strong_s = t.inflow.sulfuric_liner + t.inflow.sulfuric_blowby;
+          fuel_s += t.sulfur_flow * std::fmax(back, 0.0);
+          oil_s += strong_s * std::fmax(back, 0.0) + scratch.sulfurous_taken_up / (2 * koh_molar_mass() * 1e3);
+          if (fuel_s > 0) c.sulfur_share_to_oil_average = oil_s / fuel_s;
+        }
         for (Limit l : all_limits)
           c.at_end[static_cast<std::size_t>(l)] = read_limit(l, model.limits, charge.oil, x, t_first);
       }
@@ -195,6 +208,7 @@ struct Runner {
     for (const OilEvent& e : s.events) apply(e);
     const OilRates r = cache.of(s, charge, model);
     if (first) result.first_transfer = cache.transfer, result.first_rates = r;
+    const Transfer& t = cache.transfer;  // this segment's, for the charge averages
     any_segment = true;
     const double cal = s.calendar_hours < 0 ? s.hours : s.calendar_hours;
     if (cal < s.hours) throw InputError("segment.calendar-hours", format_value(cal), "at least the running hours " + format_value(s.hours));
@@ -205,6 +219,7 @@ struct Runner {
       if (opt.output_interval > 0) dt = std::fmin(dt, std::fmax(opt.output_interval - since_output, 0.0));
       if (dt <= 0) dt = std::fmin(s.hours - done, opt.output_interval);
       const OilState before = state;
+      const double so2_before = result.ledger.sulfurous_taken_up;
       if (only_san_left()) {  // the rest of the segment in one step, if no free acid can appear in it
         double rest = s.hours - done;
         if (opt.output_interval > 0) rest = std::fmin(rest, std::fmax(opt.output_interval - since_output, dt));
@@ -215,13 +230,21 @@ struct Runner {
         else if (o.floor_reached_at > dt) dt = o.floor_reached_at;    // no free acid before the floor
       }
       const SegmentOutcome out = advance(state, k, r, dt, result.ledger);
+      const double so2_mol = (result.ledger.sulfurous_taken_up - so2_before) / (2 * koh_molar_mass() * 1e3);
+      const bool counting = !current().first;
       if (out.floor_reached_at >= 0 && current().floor_reached_at < 0) current().floor_reached_at = oil_h + out.floor_reached_at;
+      if (out.antioxidant_spent_at >= 0 && current().antioxidant_spent_at < 0)
+        current().antioxidant_spent_at = oil_h + out.antioxidant_spent_at;
       done += dt;
       engine_h += dt;
       oil_h += dt;
       calendar_h += dt / s.hours * cal;
       starts += dt / s.hours * s.starts;
-      check_limits(before, r, dt);
+      check_limits(before, r, dt, t);
+      if (counting && !current().first) {  // the whole step counts toward the charge averages
+        fuel_s += t.sulfur_flow * dt;
+        oil_s += (t.inflow.sulfuric_liner + t.inflow.sulfuric_blowby) * dt + so2_mol;
+      }
       since_output += dt;
       if (opt.output_interval > 0 && since_output >= opt.output_interval - 1e-9) {
         since_output = 0;
@@ -262,7 +285,8 @@ RunResult simulate(const OilCharge& charge, const ModelParameters& model, const 
   r.engine_hours = run.engine_h;
   r.calendar_hours = run.calendar_h;
   r.starts = run.starts;
-  if (run.any_segment && !r.charges.back().first && charge.continuous_makeup && run.cache.oil_consumption > 0)
+  if (run.any_segment && !r.charges.back().oil_limit_reached() && charge.continuous_makeup &&
+      run.cache.oil_consumption > 0)
     r.steady_state = steady_state(run.state, run.k, run.cache.rates);  // under the last segment's rates
   return r;
 }

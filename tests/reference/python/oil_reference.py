@@ -8,7 +8,10 @@ absolute amounts instead) and integrated by ``scipy.integrate.solve_ivp`` (DOP85
 events for the two switches of regime:
 
 - the floor crossing, b = b_min, where the reactive base runs out and strong acid stays free;
-- the clearing of free strong acid, s = 0, when the makeup base outruns the strong acid again.
+- the clearing of free strong acid, s = 0, when the makeup base outruns the strong acid again;
+- the antioxidant reserve running out, A = 0 (docs/model.md §16): from then on oxidation and
+  organic acids run f = m − (m − 1)·min(1, k/k_A) times faster (makeup's fresh reserve intercepts
+  a share k/k_A of the radicals).
 
 It is also the baseline for benchmarks: :func:`integrate` takes (rates, constants, initial state,
 hours) and returns the end state and the crossing times.
@@ -18,7 +21,8 @@ else 0; l1 = SO2 uptake of fresh oil/(b_f − b_min); all rates constant over th
 
     dM/dt = 0 (continuous makeup) or −c (the level falls; consumed oil leaves at the oil's own
             concentrations, so removal alone changes no concentration)
-    do/dt = k_ox − k·o;  dn/dt = r_n/M − k·n;  dt_add/dt = −k_d·t_add + k·(t_add,fresh − t_add)
+    do/dt = f·k_ox − k·o;  dn/dt = r_n/M − k·n;  dt_add/dt = −k_d·t_add + k·(t_add,fresh − t_add)
+    dA/dt = −k_A + k·(1 − A) while A > 0 (zero-order use), else A = 0 and f > 1; r_w = f·α·k_ox
 
     above the floor (b > b_min):  r_SO2 = l1·(b − b_min)/M
         db/dt   = −R/M − φ_B·r_w − r_SO2 + k·(b_f − b)
@@ -59,6 +63,8 @@ class Rates:
     organic_acid: float = 0.0      # r_w = α·k_ox [mg KOH/g per h]
     consumption: float = 0.0       # c, oil burnt [kg/h]
     continuous_makeup: bool = True  # makeup equals consumption (M constant)
+    antioxidant_depletion: float = 0.0  # k_A, zero-order antioxidant use [share of fresh per h]
+    depleted_factor: float = 1.0   # m, oxidation once the reserve is spent over the protected rate
 
 
 @dataclass(frozen=True)
@@ -82,6 +88,7 @@ class State:
     oxidation: float = 0.0
     nitration: float = 0.0
     additive_acidity: float = 0.0
+    antioxidant: float = 1.0       # A, share of the fresh reserve
 
     def as_array(self) -> np.ndarray:
         return np.array([getattr(self, f.name) for f in fields(self)], dtype=float)
@@ -114,28 +121,45 @@ def _makeup_base(r: Rates, k: Constants) -> float:
     return r.consumption * (k.fresh_base - k.base_floor) if r.continuous_makeup else 0.0
 
 
+def _km(r: Rates, mass: float) -> float:
+    return r.consumption / mass if r.continuous_makeup else 0.0
+
+
+def _spent(s: State, r: Rates) -> bool:
+    return s.antioxidant <= 0 and r.antioxidant_depletion > _km(r, s.mass)
+
+
+def _factor(spent: bool, r: Rates, mass: float) -> float:
+    if not spent:
+        return 1.0
+    return r.depleted_factor - (r.depleted_factor - 1) * min(1.0, _km(r, mass) / r.antioxidant_depletion)
+
+
 def _regime(s: State, r: Rates, k: Constants) -> str:
     if s.base > k.base_floor * (1 + 1e-13):
         return ABOVE_FLOOR
     bmk = _makeup_base(r, k)
     if s.strong_acid > 0 or r.strong_acid > bmk:
         return FLOOR_ACID
-    if bmk - r.strong_acid < k.organic_neutralised_share * r.organic_acid * s.mass:
+    if bmk - r.strong_acid < k.organic_neutralised_share * r.organic_acid * _factor(_spent(s, r), r, s.mass) * s.mass:
         return FLOOR_WEAK
     return ABOVE_FLOOR
 
 
-def _rhs(regime: str, r: Rates, k: Constants):
-    c, phi, rw, R = r.consumption, k.organic_neutralised_share, r.organic_acid, r.strong_acid
+def _rhs(regime: str, spent: bool, r: Rates, k: Constants):
+    c, phi, R = r.consumption, k.organic_neutralised_share, r.strong_acid
     l1 = r.sulfurous_fresh / (k.fresh_base - k.base_floor)
     bmk = _makeup_base(r, k)
 
     def f(_t, y):
-        M, b, s, aw, cn, o, n, ta = y
+        M, b, s, aw, cn, o, n, ta, A = y
         km = c / M if r.continuous_makeup else 0.0
-        d = np.empty(8)
+        f = _factor(spent, r, M)
+        rw = r.organic_acid * f
+        d = np.empty(9)
         d[0] = 0.0 if r.continuous_makeup else -c
-        d[5] = r.oxidation - km * o
+        d[5] = f * r.oxidation - km * o
+        d[8] = 0.0 if spent else -r.antioxidant_depletion + km * (1.0 - A)
         d[6] = r.nitration / M - km * n
         d[7] = -k.additive_depletion * ta + km * (k.fresh_additive - ta)
         if regime == ABOVE_FLOOR:
@@ -170,15 +194,19 @@ def integrate(rates: Union[Rates, Mapping[str, Any], Any], constants: Union[Cons
     """
     r, k, s = _as(Rates, rates), _as(Constants, constants), _as(State, state)
     out = Outcome(state=s)
+    out.antioxidant_spent = []
     t = 0.0
     y = s.as_array()
     scale = np.maximum(np.abs(y), 1.0)
     for _ in range(16):  # a segment of constant rates passes through at most a few regimes
         regime = _regime(State.from_array(y), r, k)
+        spent = _spent(State.from_array(y), r)
         if regime != ABOVE_FLOOR:
             y[1] = k.base_floor  # on the floor exactly
         if regime == FLOOR_WEAK:
             y[2] = 0.0
+        if spent:
+            y[8] = 0.0
         out.regimes.append(regime)
         events = []
         if regime == ABOVE_FLOOR:
@@ -191,15 +219,24 @@ def integrate(rates: Union[Rates, Mapping[str, Any], Any], constants: Union[Cons
                 return yy[2]
             cleared.terminal, cleared.direction = True, -1
             events.append(cleared)
-        sol = solve_ivp(_rhs(regime, r, k), (t, hours), y, method=method, rtol=rtol, atol=1e-14 * scale,
+        if not spent and y[8] > 0 and r.antioxidant_depletion > 0:
+            def reserve(_t, yy):
+                return yy[8]
+            reserve.terminal, reserve.direction = True, -1
+            events.append(reserve)
+        sol = solve_ivp(_rhs(regime, spent, r, k), (t, hours), y, method=method, rtol=rtol, atol=1e-14 * scale,
                         events=events or None, dense_output=False)
         if not sol.success:
             raise RuntimeError(f"solve_ivp failed in {regime}: {sol.message}")
         out.steps += len(sol.t) - 1
         if sol.status == 1:  # an event ended the regime
-            t_event = float(sol.t_events[0][0])
-            y = np.array(sol.y_events[0][0], dtype=float)
-            if regime == ABOVE_FLOOR:
+            which = next(i for i, te in enumerate(sol.t_events) if len(te))
+            t_event = float(sol.t_events[which][0])
+            y = np.array(sol.y_events[which][0], dtype=float)
+            if events[which].__name__ == "reserve":
+                y[8] = 0.0
+                out.antioxidant_spent.append(t_event)
+            elif regime == ABOVE_FLOOR:
                 y[1] = k.base_floor
                 out.floor_crossings.append(t_event)
             else:
@@ -228,4 +265,5 @@ def add_fresh_oil(state: Union[State, Mapping[str, Any], Any], constants: Union[
     neutralised = min(strong, max(b - k.base_floor, 0.0))
     return replace(s, mass=m, base=b - neutralised, strong_acid=strong - neutralised, weak_acid=s.weak_acid * old,
                    salts=salts + neutralised, oxidation=s.oxidation * old, nitration=s.nitration * old,
-                   additive_acidity=s.additive_acidity * old + k.fresh_additive * new)
+                   additive_acidity=s.additive_acidity * old + k.fresh_additive * new,
+                   antioxidant=s.antioxidant * old + new)

@@ -47,10 +47,11 @@ struct NoxEmission {
   double value = 0;                            //!< in `unit` (as NO2)
   Unit unit = Unit::mg_per_m3_dry_at_o2_ref;   //!< mg/Nm³ dry (0 °C, 101.325 kPa) at o2_reference, or g/kWh
   double o2_reference = 0.05;                  //!< reference O2 of the mg/Nm³ figure, dry [mol/mol]
+  double o2_air = 0.21;                        //!< O2 of air in the correction, 0.21 (EU permits, TA Luft) or 0.209 (US EPA)
 };
-//! Concentration at the actual O2 from one at a reference O2: c·(20.9 − O2)/(20.9 − O2_ref),
-//! O2 in % dry (the usual emission-limit convention; 20.9 % stands for air).
-double nox_at_actual_o2(double at_reference, double o2_actual, double o2_reference);
+//! Concentration at the actual O2 from one at a reference O2: c·(O2_air − O2)/(O2_air − O2_ref), O2 dry
+//! [mol/mol] (the emission-limit convention; O2_air 21 % in EU permits, 20.9 % in US EPA methods).
+double nox_at_actual_o2(double at_reference, double o2_actual, double o2_reference, double o2_air = 0.21);
 //! NO2 formed per mole of fuel so that the exhaust meets `nox` [mol/mol fuel]; solved together with
 //! the O2 it consumes. fuel_flow [mol/h] and electrical_power [W] are used for g/kWh figures.
 double nox_per_mol_fuel(const Combustion& without_nox, const NoxEmission& nox, double fuel_flow,

@@ -9,11 +9,15 @@
 
 namespace acidload {
 
-//! The limits that can end an oil charge.
-enum class Limit { tbn_fall, tan_rise, crossover, san, oxidation, nitration, max_hours };
-inline constexpr std::size_t limit_count = 7;
+//! The limits that can end an oil charge. `max_hours` is the plant's planned maximum, not a property of
+//! the oil: a charge that reaches it has reached no oil-condition limit within that horizon.
+enum class Limit { tbn_fall, tan_rise, crossover, san, oxidation, nitration, viscosity, antioxidant, anti_wear, max_hours };
+inline constexpr std::size_t limit_count = 10;
 inline constexpr std::array<Limit, limit_count> all_limits{Limit::tbn_fall, Limit::tan_rise, Limit::crossover,
-    Limit::san, Limit::oxidation, Limit::nitration, Limit::max_hours};
+    Limit::san, Limit::oxidation, Limit::nitration, Limit::viscosity, Limit::antioxidant, Limit::anti_wear,
+    Limit::max_hours};
+//! Whether a limit is an oil-condition limit (every limit but the hours cap).
+constexpr bool is_oil_condition(Limit l) { return l != Limit::max_hours; }
 std::string_view name(Limit l);         //!< short key, e.g. "tbn-fall"
 std::string_view description(Limit l);  //!< plain words, e.g. "TBN at or below 50 % of fresh"
 
@@ -26,8 +30,14 @@ struct LimitSettings {
   double san = 0.0;                 //!< SAN above this ends the charge [mg KOH/g]; 0 = any free strong acid
   double oxidation = 20;            //!< [A/cm] (about 20 A/cm, from memory)
   double nitration = 20;            //!< [A/cm] (about 20 A/cm, from memory)
-  double max_hours = 8000;          //!< hours cap on a charge [h]
-  std::array<bool, limit_count> enabled{true, true, true, true, true, true, true};  //!< by Limit
+  double viscosity_rise = 0.20;     //!< kinematic viscosity at 100 °C up by this share over fresh [-] (+20 %, common practice)
+  double antioxidant_remaining = 0.25;  //!< antioxidant reserve down to this share of fresh [-] (25 %: ASTM D7590, seen second-hand)
+  double anti_wear_remaining = 0.0; //!< anti-wear additive down to this share of fresh [-]; off unless the lab reports it
+  double max_hours = 8000;          //!< the plant's planned maximum hours on a charge: the horizon [h]
+  //! Lab-only limits (not modelled; compared with lab readings): water and initial pH.
+  double water = 0.005;             //!< water in the oil above this share by mass [-] (0.5 %, common practice)
+  double initial_ph = 4.5;          //!< i-pH (ASTM D7946) at or below this [-] (4–4.5 for biogas engines, common practice)
+  std::array<bool, limit_count> enabled{true, true, true, true, true, true, true, true, false, true};  //!< by Limit
 };
 void validate(const LimitSettings& s);
 

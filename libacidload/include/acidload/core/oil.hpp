@@ -1,6 +1,7 @@
 #pragma once
 // The oil balance (docs/model.md §8): reactive base, free strong acid, organic acids, oxidation, nitration,
-// additive acidity and neutralised salts, solved in closed form over a segment of constant rates.
+// additive acidity, neutralised salts and the antioxidant reserve, solved in closed form over a segment of
+// constant rates (each regime linear; the switches between regimes found exactly).
 #include <array>
 
 namespace acidload {
@@ -20,6 +21,8 @@ struct OilProperties {
   double salt_titration_share = 0.2;  //!< β, share of neutralised salts still titrating in TAN [-] (calibratable)
   double organic_neutralised_share = 0.5;  //!< φ_B, share of organic acids neutralised by reactive base [-] (calibratable)
   double density_15 = 880;       //!< density at 15 °C [kg/m³]
+  double viscosity_per_oxidation = 0.008;  //!< c_o, relative rise of kinematic viscosity at 100 °C per A/cm of oxidation [-] (from memory; calibratable)
+  double viscosity_per_nitration = 0.004;  //!< c_n, the same per A/cm of nitration [-] (from memory; calibratable)
   //! Reactive base of the fresh oil b_fresh = fresh TBN − weak base of its method [mg KOH/g].
   double fresh_reactive_base() const;
   //! Weak base a method reads [mg KOH/g].
@@ -39,10 +42,23 @@ struct OxidationLaw {
   double ring_zone_offset = 30;        //!< ring-zone temperature over the sump oil temperature [K] (calibratable)
   double organic_acid_yield = 0.08;    //!< α, organic acid per unit oxidation [mg KOH/g per A/cm] (calibratable)
   double nitration_yield = 1500;       //!< nitration per NO2 taken up [A/cm per mol/kg] (calibratable)
+  double induction_hours = 1500;       //!< τ_A, hours a fresh charge's antioxidant lasts without makeup at the
+                                       //!< reference temperature (zero-order depletion, same temperature law as k_ox)
+                                       //!< [h] (no source: a calibratable assumption; voltammetry readings fit it)
+  double depleted_factor = 5;          //!< m, oxidation rate with the antioxidant spent over the protected rate [-]
+                                       //!< (5–20 from memory; calibratable)
 };
 void validate(const OxidationLaw& law);
 //! k_ox(T) [A/cm per h]: k_ref·2^((T − T_ref)/ΔT_2) or k_ref·exp(−E_a/R·(1/T − 1/T_ref)); T [K] ring zone.
 double oxidation_rate(const OxidationLaw& law, double ring_zone_temperature);
+//! The temperature factor of that law, k_ox(T)/k_ref [-]: 2^((T − T_ref)/ΔT_2) or exp(−E_a/R·(1/T − 1/T_ref)).
+double oxidation_temperature_factor(const OxidationLaw& law, double ring_zone_temperature);
+//! k_A(T) = k_ox(T)/k_ref / τ_A, zero-order antioxidant depletion [share of fresh per h]: the radicals the
+//! antioxidant intercepts scale with the oxidation rate (induction period τ_A at T_ref without makeup).
+double antioxidant_depletion_rate(const OxidationLaw& law, double ring_zone_temperature);
+//! f = m − (m − 1)·min(1, k/k_A): oxidation rate over the protected rate once the reserve is spent, when makeup
+//! at k = c/M [1/h] brings fresh antioxidant that intercepts a share k/k_A of the radicals [-].
+double depleted_oxidation_factor(double depleted_factor, double makeup_rate, double depletion_rate);
 
 //! The oil's state. Concentrations [mg KOH/g] unless stated.
 struct OilState {
@@ -54,6 +70,7 @@ struct OilState {
   double oxidation = 0;         //!< o [A/cm]
   double nitration = 0;         //!< n [A/cm]
   double additive_acidity = 0;  //!< t_add, acidity of the anti-wear additive
+  double antioxidant = 1;       //!< A, antioxidant reserve as a share of the fresh oil's [0–1]
 };
 //! The state of a fresh charge of `mass` [kg].
 OilState fresh_oil(const OilProperties& oil, double mass);
@@ -62,6 +79,11 @@ OilState fresh_oil(const OilProperties& oil, double mass);
 double tbn(const OilState& s, const OilProperties& oil, BaseNumberMethod m);  //!< b + b_weak,m [mg KOH/g]
 double tan(const OilState& s, const OilProperties& oil);  //!< t_add + a_w + s + β·c_n (D664) [mg KOH/g]
 double san(const OilState& s);                            //!< s (D664 strong acid number) [mg KOH/g]
+//! Relative rise of kinematic viscosity at 100 °C over fresh, ν/ν₀ − 1 = c_o·o + c_n·n [-] (linear in
+//! the FTIR readings; soot and insolubles are not modelled).
+double viscosity_rise(const OilState& s, const OilProperties& oil);
+//! Anti-wear additive remaining, t_add / t_add,fresh [-] (1 when the fresh oil has no additive acidity).
+double anti_wear_remaining(const OilState& s, const OilProperties& oil);
 
 //! Rates that are constant over a segment.
 struct OilRates {
@@ -70,6 +92,8 @@ struct OilRates {
   double nitration = 0;      //!< nitration inflow [A/cm · kg/h] (÷ oil mass gives A/cm per h)
   double oxidation = 0;      //!< k_ox [A/cm per h]
   double organic_acid = 0;   //!< α·k_ox, organic acids formed [mg KOH/g per h]
+  double antioxidant_depletion = 0;  //!< k_A, zero-order antioxidant use while any is left [share of fresh per h]
+  double depleted_factor = 1;  //!< m, oxidation and organic acids over the protected rates once it is spent [-]
   double consumption = 0;    //!< oil burnt or lost [kg/h]
   bool continuous_makeup = true;  //!< makeup equals consumption (mass constant), else mass falls until a top-up
 };
@@ -82,6 +106,7 @@ struct OilLedger {
   double base_consumed = 0;     //!< reactive base used up neutralising acid
   double acid_entered = 0;      //!< strong acid, SO2 and organic acid that entered the oil
   double acid_removed = 0;      //!< free acid carried out with consumed or drained oil
+  double sulfurous_taken_up = 0;  //!< of the acid entered, SO2 taken up by the reactive base (2 equivalents per S)
 };
 
 //! What the oil did during a segment.
@@ -89,6 +114,7 @@ enum class Regime { above_floor, floor_acid, floor_weak };
 struct SegmentOutcome {
   double floor_reached_at = -1;   //!< hours into the segment when b reached b_min, −1 if not
   double acid_cleared_at = -1;    //!< hours into the segment when free strong acid was neutralised, −1 if not
+  double antioxidant_spent_at = -1;  //!< hours into the segment when the antioxidant reserve ran out, −1 if not
   Regime end_regime = Regime::above_floor;
 };
 
@@ -115,6 +141,10 @@ double base_rate(const OilState& s, const OilBalance& k, const OilRates& r);
 
 //! The regime the oil is in at this state under these rates.
 Regime regime_of(const OilState& s, const OilBalance& k, const OilRates& r);
+//! Whether the antioxidant reserve is spent (A = 0 and makeup cannot refill it) at this state.
+bool antioxidant_spent(const OilState& s, const OilRates& r);
+//! Oxidation rate at this state [A/cm per h]: k_ox while antioxidant is left, k_ox·f once it is spent.
+double oxidation_rate_now(const OilState& s, const OilRates& r);
 
 //! Events that change the charge at an instant.
 //! Adds fresh oil of `mass` [kg], mixing it in; free strong acid meets the fresh base at once.

@@ -24,8 +24,12 @@ struct TransferParameters {
   double capture_hf = 1;                //!< κ, share of blow-by HF taken up [-]
   double capture_so2 = 0.1;             //!< κ_SO2, share of blow-by SO2 taken up by fresh oil in a dry crankcase [-]
   double wet_so2_factor = 3;            //!< m_wet, SO2 uptake in a wet crankcase over a dry one [-]
-  double wetness_scale = 3;             //!< width of the condensation step at the coldest surface [K]
-  double warmup_hours = 0.5;            //!< time a start keeps the crankcase wet [h] (tens of minutes, from memory)
+  double wetness_width = 15;            //!< 10–90 % width of the crankcase condensation step [K]: the spread of the
+                                        //!< temperatures of the surfaces the blow-by wets above the coldest one (no source)
+  double warmup_hours = 0.5;            //!< warm-up after a start: jacket water and load reach their running values,
+                                        //!< the crankcase stays wet [h] (tens of minutes, from memory)
+  double warmup_start_load = 0.3;       //!< load when the engine takes load after a start, share of the running load [-] (no source)
+  double load_ramp_hours = 0.1;         //!< time to reach the running load after a start [h] (minutes, from memory)
   double capture_no2 = 0.01;            //!< κ_N, share of blow-by NO2 taken up (nitric acid, nitration) [-]
 };
 //! Validates the parameters (shares in [0,1], scales > 0); throws InputError naming the field.
@@ -44,6 +48,7 @@ struct Operation {
   double crankcase_pressure = 101325;         //!< [Pa]
   double exhaust_pressure = 101325;           //!< at the heat-recovery exchanger [Pa]
   double starts_per_hour = 0;        //!< engine starts per operating hour [1/h]
+  double jacket_water_at_start = 323.15;  //!< jacket water when the engine starts (preheated standby) [K] (40–60 °C, common practice)
   NoxEmission nox;                   //!< engine-out NOx
 };
 //! Validates an operating state; throws InputError naming the field.
@@ -51,7 +56,8 @@ void validate(const Operation& op);
 
 //! Acid reaching the oil, per species [mol/h], and as base equivalents [g KOH/h].
 struct AcidInflow {
-  double sulfuric_liner = 0;      //!< S condensed on the liner, as H2SO4 [mol/h]
+  double sulfuric_liner = 0;      //!< S condensed on the liner, as H2SO4 [mol/h] (running and warm-up)
+  double sulfuric_warmup = 0;     //!< of which the extra condensed on the colder liner while warming up after starts [mol/h]
   double sulfuric_blowby = 0;     //!< SO3 of the blow-by taken up, as H2SO4 [mol/h]
   double sulfurous_fresh = 0;     //!< SO2 of the blow-by taken up by fresh oil [mol/h]; scales with (b − b_min)/(b_fresh − b_min)
   double hydrochloric = 0;        //!< HCl [mol/h]
@@ -77,7 +83,9 @@ struct Transfer {
   double charge_flow = 0;            //!< fuel + air [mol/h]
   double blowby_flow = 0;            //!< [mol/h]
   double cylinder_acid_dew_point = 0;  //!< in-cylinder H2SO4 dew point at liner_pressure [K] (0 without S)
-  double liner_temperature = 0;      //!< lower liner wall [K]
+  double liner_temperature = 0;      //!< lower liner wall, running [K]
+  double liner_temperature_at_start = 0;  //!< lower liner wall at the start of the warm-up [K]
+  double warmup_liner_per_start = 0;  //!< extra liner uptake per start over running, as hours of running liner share [h]
   double liner_subcooling = 0;       //!< dew point − liner wall [K]
   double liner_share = 0;            //!< share of fuel S taken up on the liner [-]
   double blowby_water_dew_point = 0; //!< water dew point of the blow-by at crankcase pressure [K]
@@ -98,10 +106,22 @@ struct Transfer {
 //! Smooth liner uptake factor g(Δ) = (ΔT_s/10 K)·ln(1 + e^{Δ/ΔT_s}): ~0 well above the dew point,
 //! ≈ Δ/10 K well below it (softplus; docs/model.md §5.2) [-].
 double liner_uptake_factor(double subcooling, double scale);
-//! Crankcase wetness w = 1 − (1 − w_s)(1 − f_w): w_s = 1/(1 + e^{−(T_dp − T_cold)/scale}) from the
-//! coldest wetted surface, f_w = min(1, starts per hour · warm-up hours) from cold running [0–1].
-double crankcase_wetness(double blowby_dew_point, double coldest_surface, double scale,
+//! Crankcase wetness w = 1 − (1 − w_s)(1 − f_w): w_s = 1/(1 + e^{−2 ln 9 (T_dp − T_cold)/W}), the share of the
+//! wetted surface below the blow-by dew point when surface temperatures spread logistically over a 10–90 %
+//! width W [K] about the coldest-surface figure; f_w = min(1, starts per hour · warm-up hours) [0–1].
+double crankcase_wetness(double blowby_dew_point, double coldest_surface, double width,
                          double starts_per_hour, double warmup_hours);
+//! Liner wall [K] at `t` hours after a start: T_j(t) + ΔT_rise·l(t)^e, jacket water rising linearly from its
+//! start to its running value over t_w, load l(t) = l·min(1, σ + (1 − σ)·t/t_r) over the load ramp t_r.
+double warmup_liner_wall(double t, double jacket_start, double jacket_running, double warmup_hours, double rise,
+                         double exponent, double load, double start_load_share, double ramp_hours);
+//! Extra liner uptake of one start over the same time running [h of the liner uptake factor]:
+//! E = ∫₀^max(t_w,t_r) [l(t)/l · g(T_dp − T_w(t)) − g(T_dp − T_w,run)] dt, g the softplus liner factor and the
+//! sulfur flow following the load; λ_L·ṅ_S·E is the extra sulfur per start [mol]. Gauss–Legendre, 5 points
+//! on each of 16 panels per ramp piece.
+double warmup_liner_extra(double cylinder_dew_point, double jacket_start, double jacket_running, double warmup_hours,
+                          double rise, double exponent, double load, double start_load_share, double ramp_hours,
+                          double scale);
 
 //! The transfer of one operating state. `check_parameters` false skips validate(p), for a caller
 //! that has validated the parameters once for a whole record (the operation is always validated).

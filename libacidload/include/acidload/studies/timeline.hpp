@@ -57,6 +57,7 @@ struct TrajectoryPoint {
   int charge = 0;             //!< which charge (0 = the one the record starts with)
   OilState state;             //!< the states
   double tbn_d2896 = 0, tbn_d4739 = 0, tan = 0, san = 0;  //!< readings [mg KOH/g]
+  double viscosity_rise = 0;  //!< kinematic viscosity at 100 °C over fresh, less 1 [-]
 };
 
 //! What happened to one charge.
@@ -70,6 +71,12 @@ struct ChargeSummary {
   double drain_interval = -1;           //!< oil hours at the first limit, −1 if none reached [h]
   std::array<LimitReading, limit_count> at_end{};  //!< readings at the first limit, or at the end of the charge
   double floor_reached_at = -1;         //!< oil hours the reactive base reached its floor, −1 if not [h]
+  double antioxidant_spent_at = -1;     //!< oil hours the antioxidant reserve ran out, −1 if not [h]
+  //! Share of the fuel sulfur that reached the oil, averaged over the charge up to its first limit (or its
+  //! end): SO2 uptake falls as the base is used, so this is below the fresh-oil share [-]; −1 without sulfur.
+  double sulfur_share_to_oil_average = -1;
+  //! Whether an oil-condition limit ended the charge (false: none within the planned maximum hours).
+  bool oil_limit_reached() const { return first && is_oil_condition(*first); }
 };
 
 struct RunOptions {
@@ -90,7 +97,8 @@ struct RunResult {
   std::vector<ChargeSummary> charges;       //!< one per charge
   OilState initial, final_state;            //!< states at the start and the end
   OilLedger ledger;                         //!< totals over the run [g KOH]
-  std::optional<OilState> steady_state;     //!< where the last charge settles under the last segment (continuous makeup, no limit reached)
+  std::optional<OilState> steady_state;     //!< where the last charge settles under the last segment (continuous makeup,
+                                            //!< no oil-condition limit reached within the record or the planned maximum)
   Transfer first_transfer;                  //!< what the first segment sends where
   OilRates first_rates;                     //!< the first segment's rates
   double engine_hours = 0, calendar_hours = 0, starts = 0;  //!< totals [h], [h], [-]
