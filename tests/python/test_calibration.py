@@ -147,3 +147,36 @@ def test_monte_carlo_every_charge_with_the_fit_s_correlated_draws():
     assert r["interval_p5_h"] <= r["interval_p10_h"] <= r["interval_p50_h"] <= r["interval_p90_h"] <= r["interval_p95_h"]
     two = acidload.monte_carlo(case, draws=100, fit=fit, every_charge=True, threads=2)
     np.testing.assert_array_equal(two["charges"][2]["drain_interval_h"], r["charges"][2]["drain_interval_h"])
+
+
+@pytest.mark.reference(quantity="lab-first state update (joint Kalman update with cross-terms)", tolerance="abs 1e-12",
+                       unit="mg KOH/g, A/cm", source="Kalman 1960 update written in NumPy here")
+def test_lab_first_update_equals_a_numpy_kalman_update_with_cross_terms():
+    acidload, case, lab = _setup()
+    fit = acidload.fit(case, lab, PARAMS)
+    k = acidload.forecast(fit).kalman
+    names = k["state"]
+    # H written here from the reading equations of docs/model.md §8.1: TBN = b + b_weak,
+    # TAN = t_add + a_w + s + beta*c_n (titrating salts as one component), SAN = s, FTIR o and n
+    rows = {"tbn": ["base", "weak-base"], "tan": ["additive-acidity", "weak-acid", "strong-acid", "titrating-salts"],
+            "san": ["strong-acid"], "oxidation": ["oxidation"], "nitration": ["nitration"]}
+    H = np.array([[1.0 if n in rows[r] else 0.0 for n in names] for r in k["readings"]])
+    assert np.array_equal(H, np.array(k["reading_matrix"]))
+    # the prior covariance: the fit's parameter covariance carried to the state, J C J^T, plus the
+    # scatter beyond the lab precision, pinv(H) D pinv(H)^T with D = (chi2_r - 1)+ diag(sigma^2)
+    J, C = np.array(k["sensitivity"]), np.array(fit.covariance)
+    sigma = np.array(k["sigma"])
+    D = np.diag(k["extra_variance_factor"] * sigma ** 2)
+    Hp = np.linalg.pinv(H)
+    P = J @ C @ J.T + Hp @ D @ Hp.T
+    assert np.allclose(P, np.array(k["covariance"]), rtol=0, atol=1e-12 * max(1.0, np.abs(P).max()))
+    # cross-terms: TBN's base and TAN's acids share the acid inflow, so they are correlated
+    assert abs(P[names.index("base"), names.index("weak-acid")]) + abs(P[names.index("base"), names.index("strong-acid")]) + \
+        abs(P[names.index("base"), names.index("titrating-salts")]) > 0
+    # the textbook update, v+ = v + P H^T (H P H^T + R)^-1 (y - H v)
+    v, y, R = np.array(k["prior"]), np.array(k["measured"]), np.diag(sigma ** 2)
+    K = P @ H.T @ np.linalg.inv(H @ P @ H.T + R)
+    expected = v + K @ (y - H @ v)
+    assert np.max(np.abs(np.array(k["posterior"]) - expected)) < 1e-12
+    assert np.max(np.abs(np.array(k["gain"]) - K)) < 1e-12
+

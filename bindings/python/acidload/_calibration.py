@@ -199,13 +199,15 @@ def fit_residuals(case: Union[Case, Variant], lab: Any, parameters: Sequence[str
 
 class ForecastResult(list):
     """The limits of :func:`forecast` (a list of dicts: limit, reached, already, remaining_h, low_h,
-    high_h, why) with the rest as attributes: change_now, lab_first, update, next_sample_in_h, warnings."""
+    high_h, why) with the rest as attributes: change_now, lab_first, update, kalman (the joint update's
+    state vector, P, H, K, readings and precisions, docs/model.md §13.1), next_sample_in_h, warnings."""
 
     def __init__(self, d: Dict[str, Any]) -> None:
         super().__init__(d["limits"])
         self.change_now: bool = d["change_now"]
         self.lab_first: bool = d["lab_first"]
         self.update: List[Dict[str, Any]] = list(d["update"])
+        self.kalman: Dict[str, Any] = dict(d["kalman"])
         self.next_sample_in_h: float = d["next_sample_in_h"]
         self.start_oil_hours: float = d["start_oil_hours"]
         self.end_oil_hours: float = d["end_oil_hours"]

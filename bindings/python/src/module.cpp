@@ -904,6 +904,13 @@ PYBIND11_MODULE(_core, m) {
       up.append(x);
     }
     d["update"] = up;
+    const KalmanUpdate& k = fc.kalman;
+    py::dict kd;
+    kd["state"] = k.state, kd["prior"] = k.prior, kd["posterior"] = k.posterior;
+    kd["sensitivity"] = k.sensitivity, kd["covariance"] = k.covariance, kd["reading_matrix"] = k.reading_matrix;
+    kd["gain"] = k.gain, kd["readings"] = k.readings, kd["measured"] = k.measured, kd["sigma"] = k.sigma;
+    kd["extra_variance_factor"] = k.extra_variance_factor;
+    d["kalman"] = kd;
     d["next_sample_in_h"] = fc.next_sample_in;
     d["warnings"] = fc.warnings;
     return d;
