@@ -43,9 +43,9 @@ struct LabSample {
 };
 
 //! Measurement precision (one standard deviation) per reading, the weights of the fit.
-//! Defaults: of the order of the repeatability r of the methods' ASTM precision statements (D2896,
-//! D4739, D664) at used-oil levels as σ = r/2.77, from memory and not checked; SAN and FTIR common
-//! practice, no source (docs/lab-results.md). Put your lab's own (lab file, CLI or Python).
+//! Defaults: of the order of the repeatability r of the methods' ASTM precision statements at used-oil
+//! levels as σ = r/2.77 (D664: r = 0.117·X, seen; D2896, D4739 from memory); SAN and FTIR common
+//! practice, no source (docs/references.md [LabPrecision]). Put your lab's own (lab file, CLI or Python).
 struct Precision {
   double tbn_d2896 = 0.15;  //!< [mg KOH/g]
   double tbn_d4739 = 0.20;  //!< [mg KOH/g]
