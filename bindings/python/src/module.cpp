@@ -777,6 +777,8 @@ PYBIND11_MODULE(_core, m) {
     return py::make_tuple(p.low, p.high, p.prior_sd, p.unit);
   }, py::arg("key"), "(low, high, prior_sd, unit): the range (interval bounds), the weak prior's sd in fit space, the core unit.");
   m.def("to_fit_space", [](const std::string& k, double x) { return to_fit_space(parameter(k), x); }, py::arg("key"), py::arg("x"));
+  m.def("from_fit_space", [](const std::string& k, double phi) { return from_fit_space(parameter(k), phi); }, py::arg("key"),
+        py::arg("phi"));
   m.def("from_fit_space", [](const std::string& k, double phi) { return from_fit_space(parameter(k), phi); }, py::arg("key"), py::arg("phi"));
   m.def("dx_dphi", [](const std::string& k, double phi) { return dx_dphi(parameter(k), phi); }, py::arg("key"), py::arg("phi"));
   m.def("get_parameter", &get_parameter, py::arg("case"), py::arg("key"), "A parameter's value in a case (core unit).");
