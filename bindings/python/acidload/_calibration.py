@@ -126,6 +126,12 @@ class Fit:
         return np.array(self._r.fit_estimates)
 
     @property
+    def baselines(self) -> List[Dict[str, Any]]:
+        """FTIR baselines the fit estimated, one per lab and reading where the lab file gives none and
+        the lab has no fresh-oil sample: dicts of lab, reading, value [A/cm], standard_error [A/cm], readings."""
+        return list(self._r.baselines)
+
+    @property
     def covariance(self) -> np.ndarray:
         """Covariance of the fit-space estimates, s²·(JᵀJ)⁻¹."""
         return np.array(self._r.covariance)
