@@ -85,7 +85,21 @@ double anti_wear_remaining(const OilState& s, const OilProperties& oil) {
   return oil.fresh_tan > 0 ? s.additive_acidity / oil.fresh_tan : 1.0;
 }
 
+namespace {
+// v ≥ 0 and finite, inline: NaN fails both comparisons, +inf the second.
+bool finite_non_negative(double v) { return v >= 0 && v <= std::numeric_limits<double>::max(); }
+// Every rate fine: the common case, checked without a call per field; otherwise the named checks below
+// find the first bad field and say so, as before.
+bool rates_fine(const OilRates& r) {
+  return finite_non_negative(r.strong_acid) && finite_non_negative(r.sulfurous_fresh) &&
+         finite_non_negative(r.nitration) && finite_non_negative(r.oxidation) && finite_non_negative(r.organic_acid) &&
+         finite_non_negative(r.consumption) && finite_non_negative(r.antioxidant_depletion) &&
+         r.depleted_factor >= 1.0 && r.depleted_factor <= 100.0;
+}
+}  // namespace
+
 void validate(const OilRates& r) {
+  if (rates_fine(r)) return;
   check::non_negative("rates.strong-acid", r.strong_acid);
   check::non_negative("rates.sulfurous", r.sulfurous_fresh);
   check::non_negative("rates.nitration", r.nitration);
@@ -384,9 +398,9 @@ double base_rate(const OilState& s, const OilBalance& k, const OilRates& r) {
 }
 
 SegmentOutcome advance(OilState& s, const OilBalance& k, const OilRates& r, double hours, OilLedger& ledger) {
-  validate(r);
-  check::non_negative("segment hours", hours);
-  check::positive("oil mass", s.mass);
+  if (!rates_fine(r)) validate(r);
+  if (!finite_non_negative(hours)) check::non_negative("segment hours", hours);
+  if (!(s.mass > 0 && s.mass <= std::numeric_limits<double>::max())) check::positive("oil mass", s.mass);
   if (s.base < k.base_floor * (1 - 1e-12) - 1e-300)
     throw InputError("oil.base", format_value(s.base), "a reactive base at or above the floor " + format_value(k.base_floor));
   if (!r.continuous_makeup && r.consumption * hours >= 0.9 * s.mass)
