@@ -235,7 +235,12 @@ def part2():
 
     phi_truth = [np.log(truth["model.oxidation-rate"]), np.log(truth["model.organic-acid-yield"]), np.log(0.3 / 0.7)]
     forward_gap = np.max(np.abs(numpy_readings(phi_truth) - truth_predicted) / sig)
-    phi0 = np.array([np.log(k_ox0), np.log(alpha0), np.log(0.2 / 0.8)])  # acidload's defaults, as its fit starts
+    phi0 = np.array([np.log(k_ox0), np.log(alpha0), np.log(0.2 / 0.8)])  # the NumPy model's start: acidload's defaults
+    # acidload's residuals take each parameter in its own fit space (the registry's range transform)
+    own0 = np.array([core.to_fit_space(k, v) for k, v in zip(params, (k_ox0, alpha0, 0.2))])
+
+    def from_own(x):
+        return np.array([core.from_fit_space(k, v) for k, v in zip(params, x)])
     evals = {"own": 0}
 
     def own_residuals(p):
@@ -243,24 +248,24 @@ def part2():
         return core.fit_residuals(ec, core_samples, params, list(p))
 
     sides = {"acidload": lambda: acidload.fit(case5, samples, params),
-             "ls_own": lambda: least_squares(own_residuals, phi0),
+             "ls_own": lambda: least_squares(own_residuals, own0),
              "ls_numpy": lambda: least_squares(lambda p: (measured - numpy_readings(p)) / sig, phi0)}
     times, res = interleaved(sides, clock=time.thread_time)
     fit = res["acidload"]
     est = {"acidload": np.array([fit.estimates[p] for p in params])}
-    for name in ("ls_own", "ls_numpy"):
-        x = res[name].x
-        est[name] = np.array([np.exp(x[0]), np.exp(x[1]), 1 / (1 + np.exp(-x[2]))])
+    est["ls_own"] = from_own(res["ls_own"].x)
+    x = res["ls_numpy"].x
+    est["ls_numpy"] = np.array([np.exp(x[0]), np.exp(x[1]), 1 / (1 + np.exp(-x[2]))])
     # the exact answer: least_squares on acidload's residuals driven to its tightest tolerances
     tight = least_squares(lambda p: core.fit_residuals(ec, core_samples, params, list(p)), res["ls_own"].x,
                           xtol=1e-15, ftol=1e-15, gtol=1e-15)
-    exact = np.array([np.exp(tight.x[0]), np.exp(tight.x[1]), 1 / (1 + np.exp(-tight.x[2]))])
+    exact = from_own(tight.x)
 
     def dev(e):
         return np.max(np.abs(e - exact) / np.abs(exact))
 
     # the forward model's cost, for the fit's overhead: one evaluation of the residuals
-    phi_fit = [np.log(est["acidload"][0]), np.log(est["acidload"][1]), np.log(est["acidload"][2] / (1 - est["acidload"][2]))]
+    phi_fit = [core.to_fit_space(k, v) for k, v in zip(params, est["acidload"])]
     fwd = []
     for _ in range(ROUNDS):
         t0 = time.thread_time()
@@ -278,7 +283,8 @@ def part2():
     print(f"   {'least_squares on acidload residuals (defaults)':52s} {fmt(times['ls_own'], 1e3, 2):>22s}   {dev(est['ls_own']):.1e}"
           f"   ({evals['own'] // ROUNDS} residual calls)")
     print(f"   {'least_squares on an independent NumPy model':52s} {fmt(times['ls_numpy'], 1e3, 2):>22s}   {dev(est['ls_numpy']):.1e}"
-          f"   (its readings at the truth differ from acidload's by {forward_gap:.1e} sigma)")
+          f"   (its readings at the truth differ from acidload's by {forward_gap:.1e} sigma; it has no weak-prior rows,"
+          f" which move the optimum by about this much)")
     print(f"   ratio least_squares (acidload residuals) / acidload.fit   {fmt(ratios(times, 'ls_own', 'acidload'), digits=2)}")
     print(f"   ratio least_squares (NumPy model) / acidload.fit          {fmt(ratios(times, 'ls_numpy', 'acidload'), digits=2)}")
     print(f"   fit / (forward model {statistics.median(fwd) * 1e3:.3f} ms x at least {runs} forward runs)   "

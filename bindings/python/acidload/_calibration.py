@@ -126,6 +126,12 @@ class Fit:
         return np.array(self._r.fit_estimates)
 
     @property
+    def baselines(self) -> List[Dict[str, Any]]:
+        """FTIR baselines the fit estimated, one per lab and reading where the lab file gives none and
+        the lab has no fresh-oil sample: dicts of lab, reading, value [A/cm], standard_error [A/cm], readings."""
+        return list(self._r.baselines)
+
+    @property
     def covariance(self) -> np.ndarray:
         """Covariance of the fit-space estimates, s²·(JᵀJ)⁻¹."""
         return np.array(self._r.covariance)
@@ -199,13 +205,15 @@ def fit_residuals(case: Union[Case, Variant], lab: Any, parameters: Sequence[str
 
 class ForecastResult(list):
     """The limits of :func:`forecast` (a list of dicts: limit, reached, already, remaining_h, low_h,
-    high_h, why) with the rest as attributes: change_now, lab_first, update, next_sample_in_h, warnings."""
+    high_h, why) with the rest as attributes: change_now, lab_first, update, kalman (the joint update's
+    state vector, P, H, K, readings and precisions, docs/model.md §13.1), next_sample_in_h, warnings."""
 
     def __init__(self, d: Dict[str, Any]) -> None:
         super().__init__(d["limits"])
         self.change_now: bool = d["change_now"]
         self.lab_first: bool = d["lab_first"]
         self.update: List[Dict[str, Any]] = list(d["update"])
+        self.kalman: Dict[str, Any] = dict(d["kalman"])
         self.next_sample_in_h: float = d["next_sample_in_h"]
         self.start_oil_hours: float = d["start_oil_hours"]
         self.end_oil_hours: float = d["end_oil_hours"]

@@ -281,6 +281,7 @@ py::array_t<double> fit_residuals(const EngineCase& c, const std::vector<LabSamp
     EngineCase x = c;
     for (std::size_t j = 0; j < keys.size(); ++j) set_parameter(x, keys[j], from_fit_space(parameter(keys[j]), phi[j]));
     r = predict(x, samples, Precision{});
+    profile_baselines(r, samples, baseline_groups(samples, FitSettings{}));  // the FTIR baselines a fit would fit
   }
   // then one prior row per parameter, (φ − φ₀)/σ₀ around the case's value, as calibrate has them
   py::array_t<double> out(static_cast<py::ssize_t>(r.size() + keys.size()));
@@ -777,6 +778,8 @@ PYBIND11_MODULE(_core, m) {
     return py::make_tuple(p.low, p.high, p.prior_sd, p.unit);
   }, py::arg("key"), "(low, high, prior_sd, unit): the range (interval bounds), the weak prior's sd in fit space, the core unit.");
   m.def("to_fit_space", [](const std::string& k, double x) { return to_fit_space(parameter(k), x); }, py::arg("key"), py::arg("x"));
+  m.def("from_fit_space", [](const std::string& k, double phi) { return from_fit_space(parameter(k), phi); }, py::arg("key"),
+        py::arg("phi"));
   m.def("from_fit_space", [](const std::string& k, double phi) { return from_fit_space(parameter(k), phi); }, py::arg("key"), py::arg("phi"));
   m.def("dx_dphi", [](const std::string& k, double phi) { return dx_dphi(parameter(k), phi); }, py::arg("key"), py::arg("phi"));
   m.def("get_parameter", &get_parameter, py::arg("case"), py::arg("key"), "A parameter's value in a case (core unit).");
@@ -822,6 +825,16 @@ PYBIND11_MODULE(_core, m) {
         for (const auto& p : f.parameters) v.push_back(p.fit_estimate);
         return v;
       }, "in fit space (log or logit)")
+      .def_property_readonly("baselines", [](const FitResult& f) {
+        py::list out;
+        for (const auto& b : f.baselines) {
+          py::dict d;
+          d["lab"] = b.lab, d["reading"] = b.reading, d["value"] = b.value, d["standard_error"] = b.standard_error;
+          d["readings"] = b.readings;
+          out.append(d);
+        }
+        return out;
+      }, "FTIR baselines the fit estimated per lab [A/cm]")
       .def_readonly("covariance", &FitResult::covariance, "in fit space")
       .def_readonly("correlation", &FitResult::correlation)
       .def_property_readonly("residuals", [](const FitResult& f) { return residual_arrays(f.residuals); })
@@ -904,6 +917,13 @@ PYBIND11_MODULE(_core, m) {
       up.append(x);
     }
     d["update"] = up;
+    const KalmanUpdate& k = fc.kalman;
+    py::dict kd;
+    kd["state"] = k.state, kd["prior"] = k.prior, kd["posterior"] = k.posterior;
+    kd["sensitivity"] = k.sensitivity, kd["covariance"] = k.covariance, kd["reading_matrix"] = k.reading_matrix;
+    kd["gain"] = k.gain, kd["readings"] = k.readings, kd["measured"] = k.measured, kd["sigma"] = k.sigma;
+    kd["extra_variance_factor"] = k.extra_variance_factor;
+    d["kalman"] = kd;
     d["next_sample_in_h"] = fc.next_sample_in;
     d["warnings"] = fc.warnings;
     return d;

@@ -121,20 +121,55 @@ std::vector<Reading> readings_of(const FitResult& fit, const LabSample& s) {
   return r;
 }
 
-// The state at the sample as the model has it (case c), then moved toward each reading by its gain.
+// The oil state as the vector the lab-first update works on (docs/model.md §13.1): the readings are
+// sums of its components, y = H·v, with the weak base of the sample's method and the titrating salts
+// β·c_n as components of their own, so that H holds only 0 and 1 and the parameters that act on the
+// readings directly (b_weak, β) act through v.
+constexpr std::size_t state_size = 8;
+const std::array<const char*, state_size> state_names = {"base", "weak-base", "additive-acidity", "weak-acid",
+                                                          "strong-acid", "titrating-salts", "oxidation", "nitration"};
+std::array<double, state_size> state_vector(const OilState& x, const OilProperties& oil, BaseNumberMethod m) {
+  return {x.base, oil.weak_base(m), x.additive_acidity, x.weak_acid, x.strong_acid, oil.salt_titration_share * x.salts,
+          x.oxidation, x.nitration};
+}
+// The row of H for a reading: TBN = b + b_weak; TAN = t_add + a_w + s + β·c_n; SAN = s; FTIR o, n (docs/model.md §8.1).
+std::array<double, state_size> reading_row(const std::string& r) {
+  if (r == "tbn") return {1, 1, 0, 0, 0, 0, 0, 0};
+  if (r == "tan") return {0, 0, 1, 1, 1, 1, 0, 0};
+  if (r == "san") return {0, 0, 0, 0, 1, 0, 0, 0};
+  if (r == "oxidation") return {0, 0, 0, 0, 0, 0, 1, 0};
+  return {0, 0, 0, 0, 0, 0, 0, 1};
+}
+
+// The state at the sample as the model has it (case c), then moved by the held gain matrix K:
+// v⁺ = v + K·(y − H·v) (docs/model.md §13.1); the oil's own components kept ≥ 0, the weak base (a parameter of the
+// oil, not of the state) not carried.
 OilState updated_state(const EngineCase& c, const std::vector<Segment>& before, const std::vector<Reading>& readings,
-                       BaseNumberMethod method, std::vector<StateUpdate>* log) {
+                       const Eigen::MatrixXd& K, BaseNumberMethod method, std::vector<StateUpdate>* log,
+                       std::vector<double>* posterior) {
   OilState x = simulate(c.charge, c.model, before, quiet()).final_state;
-  for (const Reading& r : readings) {
-    const double model = reading_of(r.name, x, c.charge.oil, method);
-    const double d = r.gain * (r.measured - model);
-    if (r.name == "tbn") x.base = std::max(0.0, x.base + d);
-    else if (r.name == "tan") x.weak_acid = std::max(0.0, x.weak_acid + d);
-    else if (r.name == "san") x.strong_acid = std::max(0.0, x.strong_acid + d);
-    else if (r.name == "oxidation") x.oxidation = std::max(0.0, x.oxidation + d);
-    else x.nitration = std::max(0.0, x.nitration + d);
-    if (log) log->push_back({r.name, model, r.measured, reading_of(r.name, x, c.charge.oil, method), r.gain});
-  }
+  const auto v = state_vector(x, c.charge.oil, method);
+  const Eigen::Index m = static_cast<Eigen::Index>(readings.size());
+  Eigen::VectorXd innovation(m);
+  for (Eigen::Index i = 0; i < m; ++i)
+    innovation[i] = readings[static_cast<std::size_t>(i)].measured - reading_of(readings[static_cast<std::size_t>(i)].name, x, c.charge.oil, method);
+  Eigen::VectorXd w = Eigen::Map<const Eigen::VectorXd>(v.data(), state_size);
+  if (m > 0) w += K * innovation;
+  if (posterior) posterior->assign(w.data(), w.data() + state_size);
+  const double beta = c.charge.oil.salt_titration_share;
+  const OilState prior = x;
+  x.base = std::max(0.0, w[0]);
+  x.additive_acidity = std::max(0.0, w[2]);
+  x.weak_acid = std::max(0.0, w[3]);
+  x.strong_acid = std::max(0.0, w[4]);
+  if (beta > 0) x.salts = std::max(0.0, w[5] / beta);
+  x.oxidation = std::max(0.0, w[6]);
+  x.nitration = std::max(0.0, w[7]);
+  if (log)
+    for (Eigen::Index i = 0; i < m; ++i) {
+      const Reading& r = readings[static_cast<std::size_t>(i)];
+      log->push_back({r.name, reading_of(r.name, prior, c.charge.oil, method), r.measured, reading_of(r.name, x, c.charge.oil, method), r.gain});
+    }
   return x;
 }
 
@@ -157,8 +192,10 @@ struct Start {
   std::size_t sample = 0;
   double oil_hours = 0;             // at the start [h]
   std::vector<Segment> before, rest;  // the record up to the sample, and after it
-  std::vector<Reading> readings;    // with their gains
+  std::vector<Reading> readings;    // with their own gains (H·K)ᵢᵢ
   BaseNumberMethod method = BaseNumberMethod::d4739;
+  Eigen::MatrixXd K;                // the gain matrix, state_size × readings, held for every parameter draw
+  KalmanUpdate kalman;              // its inputs, for the reader (and the test against NumPy)
 };
 
 Start start_of(const FitResult& fit, bool lab_first) {
@@ -177,33 +214,58 @@ Start start_of(const FitResult& fit, bool lab_first) {
   const std::vector<double> starts = charge_starts(c.record);
   std::tie(st.before, st.rest) = cut(c.record, starts.back() + s.oil_hours);
   st.readings = readings_of(fit, s);
-  // gains K = P/(P + σ²), P the model's variance of the reading: the parameters' (linearised
-  // from the covariance) plus the scatter beyond the lab precision the fit shows, (χ²ᵣ − 1)₊·σ²
+  // the joint update (docs/model.md §13.1): P = J·C·Jᵀ + Q, J = ∂v/∂φ at the sample, C the fit's covariance,
+  // Q = H⁺·D·H⁺ᵀ with D = (χ²ᵣ − 1)₊·diag(σ²) the scatter beyond the lab precision the fit shows
+  // (so that H·Q·Hᵀ = D); K = P·Hᵀ·(H·P·Hᵀ + R)⁻¹, R = diag(σ²)
   const std::vector<double> phi = phi_hat(fit);
-  const OilState x0 = simulate(c.charge, c.model, st.before, quiet()).final_state;
-  const std::size_t p = phi.size(), m = st.readings.size();
-  Eigen::MatrixXd G = Eigen::MatrixXd::Zero(static_cast<Eigen::Index>(m), static_cast<Eigen::Index>(p));
-  for (std::size_t j = 0; j < p; ++j) {
-    const double h = 1e-4 * std::max(1.0, std::fabs(phi[j]));
+  const Eigen::Index p = static_cast<Eigen::Index>(phi.size()), m = static_cast<Eigen::Index>(st.readings.size()),
+                     n = static_cast<Eigen::Index>(state_size);
+  Eigen::MatrixXd J = Eigen::MatrixXd::Zero(n, p);
+  for (Eigen::Index j = 0; j < p; ++j) {
+    const double h = 1e-4 * std::max(1.0, std::fabs(phi[static_cast<std::size_t>(j)]));
     std::vector<double> up = phi, down = phi;
-    up[j] += h, down[j] -= h;
+    up[static_cast<std::size_t>(j)] += h, down[static_cast<std::size_t>(j)] -= h;
     const EngineCase a = with_phi(fit, up), b = with_phi(fit, down);
-    const OilState xa = simulate(a.charge, a.model, st.before, quiet()).final_state;
-    const OilState xb = simulate(b.charge, b.model, st.before, quiet()).final_state;
-    for (std::size_t i = 0; i < m; ++i)
-      G(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(j)) =
-          (reading_of(st.readings[i].name, xa, a.charge.oil, st.method) - reading_of(st.readings[i].name, xb, b.charge.oil, st.method)) / (2 * h);
+    const auto va = state_vector(simulate(a.charge, a.model, st.before, quiet()).final_state, a.charge.oil, st.method);
+    const auto vb = state_vector(simulate(b.charge, b.model, st.before, quiet()).final_state, b.charge.oil, st.method);
+    for (Eigen::Index i = 0; i < n; ++i) J(i, j) = (va[static_cast<std::size_t>(i)] - vb[static_cast<std::size_t>(i)]) / (2 * h);
   }
-  Eigen::MatrixXd S(static_cast<Eigen::Index>(p), static_cast<Eigen::Index>(p));
-  for (std::size_t i = 0; i < p; ++i)
-    for (std::size_t j = 0; j < p; ++j) S(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(j)) = fit.covariance[i][j];
-  (void)x0;
-  for (std::size_t i = 0; i < m; ++i) {
-    Reading& r = st.readings[i];
-    const Eigen::RowVectorXd gi = G.row(static_cast<Eigen::Index>(i));
-    const double P = (gi * S * gi.transpose())(0, 0) + std::max(0.0, fit.s2 - 1) * r.sigma * r.sigma;
-    r.gain = P / (P + r.sigma * r.sigma);
+  Eigen::MatrixXd C(p, p);
+  for (Eigen::Index i = 0; i < p; ++i)
+    for (Eigen::Index j = 0; j < p; ++j) C(i, j) = fit.covariance[static_cast<std::size_t>(i)][static_cast<std::size_t>(j)];
+  Eigen::MatrixXd H = Eigen::MatrixXd::Zero(m, n), R = Eigen::MatrixXd::Zero(m, m), D = Eigen::MatrixXd::Zero(m, m);
+  for (Eigen::Index i = 0; i < m; ++i) {
+    const Reading& r = st.readings[static_cast<std::size_t>(i)];
+    const auto row = reading_row(r.name);
+    for (Eigen::Index k = 0; k < n; ++k) H(i, k) = row[static_cast<std::size_t>(k)];
+    R(i, i) = r.sigma * r.sigma;
+    D(i, i) = std::max(0.0, fit.s2 - 1) * r.sigma * r.sigma;
   }
+  Eigen::MatrixXd P = J * C * J.transpose();
+  if (m > 0) {
+    const Eigen::MatrixXd Hp = H.completeOrthogonalDecomposition().pseudoInverse();
+    P += Hp * D * Hp.transpose();
+    st.K = P * H.transpose() * (H * P * H.transpose() + R).ldlt().solve(Eigen::MatrixXd::Identity(m, m));
+  } else {
+    st.K = Eigen::MatrixXd::Zero(n, 0);
+  }
+  const Eigen::MatrixXd HK = H * st.K;
+  for (Eigen::Index i = 0; i < m; ++i) st.readings[static_cast<std::size_t>(i)].gain = HK(i, i);
+  KalmanUpdate& ku = st.kalman;
+  ku.state = {state_names.begin(), state_names.end()};
+  const auto v = state_vector(simulate(c.charge, c.model, st.before, quiet()).final_state, c.charge.oil, st.method);
+  ku.prior.assign(v.begin(), v.end());
+  const auto rows = [](const Eigen::MatrixXd& A) {
+    std::vector<std::vector<double>> out(static_cast<std::size_t>(A.rows()));
+    for (Eigen::Index i = 0; i < A.rows(); ++i)
+      for (Eigen::Index j = 0; j < A.cols(); ++j) out[static_cast<std::size_t>(i)].push_back(A(i, j));
+    return out;
+  };
+  ku.sensitivity = rows(J), ku.covariance = rows(P), ku.reading_matrix = rows(H), ku.gain = rows(st.K);
+  for (const Reading& r : st.readings) {
+    ku.readings.push_back(r.name), ku.measured.push_back(r.measured), ku.sigma.push_back(r.sigma);
+  }
+  ku.extra_variance_factor = std::max(0.0, fit.s2 - 1);
   return st;
 }
 
@@ -213,6 +275,7 @@ struct Ran {
   RunResult run;
   double end_oil_hours = 0;
   OilState at_sample;
+  std::vector<double> posterior;  // v⁺ before the ≥ 0 clamps
 };
 Ran run_on(const EngineCase& c, const Start& st, const std::vector<Segment>& future, bool next_charge,
            std::vector<StateUpdate>* log) {
@@ -224,7 +287,7 @@ Ran run_on(const EngineCase& c, const Start& st, const std::vector<Segment>& fut
   rec.insert(rec.end(), f.begin(), f.end());
   RunOptions o = quiet();
   if (st.lab_first) {
-    out.at_sample = updated_state(c, st.before, st.readings, st.method, log);
+    out.at_sample = updated_state(c, st.before, st.readings, st.K, st.method, log, &out.posterior);
     out.run = simulate(c.charge, c.model, rec, o, out.at_sample, st.oil_hours);
     out.end_oil_hours = st.oil_hours + rest_hours;
   } else {
@@ -300,6 +363,8 @@ Forecast forecast_current(const FitResult& fit, const LabLimits& lab) {
   Ran centre;
   const std::array<double, limit_count> t0 = remaining(c, &out.update, &centre);
   out.start = centre.at_sample;
+  out.kalman = st.kalman;
+  out.kalman.posterior = centre.posterior;
   out.end_oil_hours = centre.end_oil_hours;
   // linearised band: gradients in fit space (the gains held), the covariance
   const std::vector<double> phi = phi_hat(fit);

@@ -32,11 +32,25 @@ struct LimitForecast {
   std::string why;               //!< for an `already` limit: the reading against the limit, in words
 };
 
-//! The lab-first update at the latest sample, per reading (a scalar Kalman update).
+//! The lab-first update at the latest sample, per reading.
 struct StateUpdate {
   std::string reading;           //!< "tbn", "tan", "san", "oxidation", "nitration"
   double model = 0, measured = 0, updated = 0;  //!< the reading as the model has it, as measured, after the update
-  double gain = 0;               //!< K = P/(P + σ²) [-]
+  double gain = 0;               //!< the reading's own share of its innovation, (H·K)ᵢᵢ [-]
+};
+
+//! The joint (Kalman-type) lab-first update, docs/model.md §13.1: the state vector v (`state`, in
+//! mg KOH/g and A/cm), y = H·v, P = J·C·Jᵀ + H⁺·D·H⁺ᵀ, K = P·Hᵀ·(H·P·Hᵀ + R)⁻¹, v⁺ = v + K·(y − H·v).
+struct KalmanUpdate {
+  std::vector<std::string> state;               //!< names of v's components
+  std::vector<double> prior, posterior;         //!< v at the sample as the model has it, and after the update (before the ≥ 0 clamps)
+  std::vector<std::vector<double>> sensitivity; //!< J = ∂v/∂φ (state × fitted parameters)
+  std::vector<std::vector<double>> covariance;  //!< P (state × state), cross-terms included
+  std::vector<std::vector<double>> reading_matrix;  //!< H (readings × state)
+  std::vector<std::vector<double>> gain;        //!< K (state × readings)
+  std::vector<std::string> readings;            //!< the readings used, in H's row order
+  std::vector<double> measured, sigma;          //!< y (FTIR less the lab's baseline) and the precisions σ
+  double extra_variance_factor = 0;             //!< (χ²ᵣ − 1)₊: D = this · diag(σ²)
 };
 
 struct Forecast {
@@ -47,6 +61,7 @@ struct Forecast {
   double start_oil_hours = 0;         //!< oil hours of that sample [h]
   double end_oil_hours = 0;           //!< oil hours at the end of the record [h]
   std::vector<StateUpdate> update;
+  KalmanUpdate kalman;                //!< the update's matrices
   OilState start;                     //!< the updated state at the sample
   double next_sample_in = 0;          //!< hours from the end of the record to the next sample due [h]
   std::vector<std::string> warnings;  //!< the fit's (χ²) and the forecast's
