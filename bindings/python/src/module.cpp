@@ -700,17 +700,22 @@ PYBIND11_MODULE(_core, m) {
           py::gil_scoped_release release;
           return drain_interval(c);
         },
-        py::arg("case"), "The drain interval of a variant [h]; the hours cap when no other limit is reached.");
+        py::arg("case"), "The drain interval of a variant [h]; None when no oil-condition limit is reached within the "
+        "plant's planned maximum (limits.max-hours): 'no limit within N h'.");
   m.def("sweep_drain_interval", &sweep_for_python, py::arg("case"), py::arg("lever"), py::arg("values"),
         py::arg("threads") = 0,
-        "Drain interval [h] for each value of one lever (core unit), computed in C++ with the GIL released, on "
+        "Drain interval [h] for each value of one lever (core unit), NaN where no limit is reached within the planned "
+        "maximum, computed in C++ with the GIL released, on "
         "`threads` threads (0 = every core; the answers are the same for any count).");
   py::class_<InverseAnswer>(m, "InverseAnswer", "The answer of solve_for_interval, in the lever's core unit.")
       .def_readonly("found", &InverseAnswer::found)
       .def_readonly("value", &InverseAnswer::value, "in the lever's core unit")
-      .def_readonly("interval_at_value", &InverseAnswer::interval_at_value, "[h]")
-      .def_readonly("interval_at_low", &InverseAnswer::interval_at_low, "[h]")
-      .def_readonly("interval_at_high", &InverseAnswer::interval_at_high, "[h]")
+      .def_readonly("interval_at_value", &InverseAnswer::interval_at_value, "[h]; None: no limit within the planned maximum")
+      .def_readonly("interval_at_low", &InverseAnswer::interval_at_low, "[h]; None: no limit within the planned maximum")
+      .def_readonly("interval_at_high", &InverseAnswer::interval_at_high, "[h]; None: no limit within the planned maximum")
+      .def_readonly("jump", &InverseAnswer::jump, "no answer: the interval jumps over the target near `value`")
+      .def_readonly("jump_from", &InverseAnswer::jump_from, "[h] just below the jump; None: no limit")
+      .def_readonly("jump_to", &InverseAnswer::jump_to, "[h] just above the jump; None: no limit")
       .def_readonly("reason", &InverseAnswer::reason)
       .def_readonly("evaluations", &InverseAnswer::evaluations);
   m.def("default_search",

@@ -265,12 +265,13 @@ H2sSweep h2s_sweep(const EngineCase& record_case, double top, int points) {
   H2sSweep s;
   s.variant = c.name;
   s.own_h2s_ppmv = lever_value(c, Lever::h2s_ppmv_dry);
-  s.own_interval_h = drain_interval(c);
+  // the curve is drawn at the planned maximum where no limit is reached (the chart's reference line says so)
+  s.own_interval_h = drain_interval(c).value_or(c.model.limits.max_hours);
   points = std::clamp(points, 2, 400);
   for (int i = 0; i < points; ++i) {
     const double x = top * i / (points - 1);
     s.h2s_ppmv.push_back(x);
-    s.interval_h.push_back(drain_interval(with_lever(c, Lever::h2s_ppmv_dry, x)));
+    s.interval_h.push_back(drain_interval(with_lever(c, Lever::h2s_ppmv_dry, x)).value_or(c.model.limits.max_hours));
   }
   return s;
 }
