@@ -293,8 +293,9 @@ void print_prediction(std::FILE* out, const FitResult& f, const Prediction& p) {
   if (!p.next_charge)
     std::fprintf(out, "  hours left from the end of the record:  P5 %.0f h   P50 %.0f h   P95 %.0f h\n", p.remaining_p5,
                  p.remaining_p50, p.remaining_p95);
-  std::fprintf(out, "  spread of ln(interval): parameters %.3f, model form %.3f (from %zu past charges predicted from the others)\n",
-               p.parameter_spread, p.model_form_spread, p.held_out.size());
+  std::fprintf(out, "  spread of ln(interval): parameters %.3f, model form %.3f (from %zu past charges predicted from the others; "
+               "%.3f of it beyond the parameters' is drawn)\n",
+               p.parameter_spread, p.model_form_spread, p.held_out.size(), p.model_form_excess);
   std::fprintf(out, "  draws ending by each limit (of %d):", p.draws);
   for (std::size_t k = 0; k < limit_count; ++k)
     if (p.ending[k]) std::fprintf(out, " %s %d", std::string(name(all_limits[k])).c_str(), p.ending[k]);

@@ -21,9 +21,9 @@ def test_most_plants_within_ten_percent_and_the_band_holds_the_truth():
     f = synthetic_run.figures(rows)
     print(f)
     # 24 plants: a 90 % band holds the truth in 21.6 of them on average (binomial sd 1.5 plants).
-    # Figures of this run when written (seeds 1-12, 1001-1012): 46 % within +-10 % (67 % of the plants
-    # following the model, 25 % of those differing from it), band coverage 96 %.
+    # Figures of this run when written (seeds 1-12, 1001-1012): see docs/lab-results.md for the 40-plant
+    # figures before and after the band's model-form error became the held-out spread's excess.
     assert f["all"]["coverage_90"] >= 0.75
     assert f["all"]["within_10pct"] >= 0.4
     assert f["following the model"]["within_10pct"] >= 0.6
-    assert f["all"]["median_band_width"] < 1.0  # a band that holds the truth by being endless is no band
+    assert f["all"]["median_band_width"] < 0.6  # a band that holds the truth by being endless is no band

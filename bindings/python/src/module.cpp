@@ -966,6 +966,7 @@ PYBIND11_MODULE(_core, m) {
       if (p.ending[k]) ending[py::str(std::string(name(all_limits[k])))] = p.ending[k];
     d["ending"] = ending;
     d["parameter_spread"] = p.parameter_spread, d["model_form_spread"] = p.model_form_spread;
+    d["model_form_excess"] = p.model_form_excess;
     py::list held;
     for (const auto& h : p.held_out) held.append(py::make_tuple(h.charge, h.own, h.from_others));
     d["held_out"] = held;

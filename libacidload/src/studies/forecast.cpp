@@ -506,7 +506,7 @@ Prediction predict_charge(const FitResult& fit, const PredictSettings& s) {
     L = es.eigenvectors() * es.eigenvalues().cwiseMax(0.0).cwiseSqrt().asDiagonal();
   }
   const int nu = static_cast<int>(out.held_out.size());
-  std::vector<double> logs;
+  std::vector<double> logs, unit_t;  // ln T per draw, and its Student-t variate t_ν
   for (int i = 0; i < s.draws; ++i) {
     Eigen::VectorXd z(static_cast<Eigen::Index>(p));
     for (std::size_t j = 0; j < p; ++j) z[static_cast<Eigen::Index>(j)] = normal01(s.seed, static_cast<std::uint64_t>(i), j);
@@ -521,27 +521,32 @@ Prediction predict_charge(const FitResult& fit, const PredictSettings& s) {
       continue;  // a combination the model refuses (the ranges hold each alone): skipped and counted
     }
     out.ending[static_cast<std::size_t>(lim ? *lim : Limit::max_hours)]++;
-    double e = 0;
-    if (nu > 0 && out.model_form_spread > 0) {  // Student t with ν = the held-out charges
+    double u = 0;
+    if (nu > 0) {  // Student t with ν = the held-out charges
       double chi2 = 0;
       for (int k = 0; k < nu; ++k) chi2 += std::pow(normal01(s.seed, static_cast<std::uint64_t>(i), p + 1 + static_cast<std::size_t>(k)), 2);
-      e = out.model_form_spread * normal01(s.seed, static_cast<std::uint64_t>(i), p) / std::sqrt(chi2 / nu);
+      u = normal01(s.seed, static_cast<std::uint64_t>(i), p) / std::sqrt(chi2 / nu);
     }
     logs.push_back(std::log(t));
-    out.intervals.push_back(std::min(c.model.limits.max_hours, t * std::exp(e)));
+    unit_t.push_back(u);
   }
-  out.draws = static_cast<int>(out.intervals.size());
+  out.draws = static_cast<int>(logs.size());
   if (out.draws < s.draws)
     out.notes.push_back(std::to_string(s.draws - out.draws) + " of " + std::to_string(s.draws) +
                         " draws skipped: parameter combinations the model refuses");
   if (out.draws > 0) {
-    out.p5 = percentile(out.intervals, 5);
-    out.p50 = percentile(out.intervals, 50);
-    out.p95 = percentile(out.intervals, 95);
     double m = 0, v = 0;
     for (double x : logs) m += x / static_cast<double>(logs.size());
     for (double x : logs) v += (x - m) * (x - m) / std::max<double>(1, static_cast<double>(logs.size()) - 1);
     out.parameter_spread = std::sqrt(v);
+    // the held-out spread already holds the parameters' own scatter (each charge predicted from
+    // fits on fewer samples): only the excess over the parameter spread is the model's form error
+    out.model_form_excess = std::sqrt(std::max(0.0, out.model_form_spread * out.model_form_spread - v));
+    for (std::size_t i = 0; i < logs.size(); ++i)
+      out.intervals.push_back(std::min(c.model.limits.max_hours, std::exp(logs[i] + out.model_form_excess * unit_t[i])));
+    out.p5 = percentile(out.intervals, 5);
+    out.p50 = percentile(out.intervals, 50);
+    out.p95 = percentile(out.intervals, 95);
   } else {
     out.p5 = out.p50 = out.p95 = out.interval;
   }

@@ -99,6 +99,7 @@ struct Prediction {
   std::array<int, limit_count> ending{};  //!< how many draws end by each limit
   double parameter_spread = 0;    //!< σ of ln(interval) from the parameters [-]
   double model_form_spread = 0;   //!< σ of ln(interval) from the held-out charges [-]
+  double model_form_excess = 0;   //!< what of it exceeds the parameter spread, √(σ_m² − σ_p²)₊: the model-form error drawn [-]
   std::vector<HeldOutCharge> held_out;
   int draws = 0;
   std::vector<double> intervals;  //!< per draw [h]
