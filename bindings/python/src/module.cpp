@@ -281,6 +281,7 @@ py::array_t<double> fit_residuals(const EngineCase& c, const std::vector<LabSamp
     EngineCase x = c;
     for (std::size_t j = 0; j < keys.size(); ++j) set_parameter(x, keys[j], from_fit_space(parameter(keys[j]), phi[j]));
     r = predict(x, samples, Precision{});
+    profile_baselines(r, samples, baseline_groups(samples, FitSettings{}));  // the FTIR baselines a fit would fit
   }
   // then one prior row per parameter, (φ − φ₀)/σ₀ around the case's value, as calibrate has them
   py::array_t<double> out(static_cast<py::ssize_t>(r.size() + keys.size()));
@@ -824,6 +825,16 @@ PYBIND11_MODULE(_core, m) {
         for (const auto& p : f.parameters) v.push_back(p.fit_estimate);
         return v;
       }, "in fit space (log or logit)")
+      .def_property_readonly("baselines", [](const FitResult& f) {
+        py::list out;
+        for (const auto& b : f.baselines) {
+          py::dict d;
+          d["lab"] = b.lab, d["reading"] = b.reading, d["value"] = b.value, d["standard_error"] = b.standard_error;
+          d["readings"] = b.readings;
+          out.append(d);
+        }
+        return out;
+      }, "FTIR baselines the fit estimated per lab [A/cm]")
       .def_readonly("covariance", &FitResult::covariance, "in fit space")
       .def_readonly("correlation", &FitResult::correlation)
       .def_property_readonly("residuals", [](const FitResult& f) { return residual_arrays(f.residuals); })
