@@ -1,6 +1,6 @@
 // Sites: several engines on one gas supply and one scrubbing train (docs/model.md §18.4). Checks: a
 // site of one engine equals that engine's case (consistency); two identical engines load the bed as
-// one engine of twice the flow, and the bed's life is the Thomas closed form (§18.1, [Thomas1944]),
+// one engine of twice the flow, and the bed's life is the Thomas closed form (docs/model.md §18.1, [Thomas1944]),
 // life ∝ 1/flow; the sulfur balance closes; the cost split sums to the site's total. Invented data.
 #include <doctest/doctest.h>
 
@@ -128,7 +128,7 @@ TEST_CASE("two identical engines load the bed as one engine of twice the flow; l
   CHECK(pair.scrubbed.stages[0].first_bed_life == twice.scrubbed.stages[0].first_bed_life);
   CHECK(pair.scrubbed.stages[0].changeouts == twice.scrubbed.stages[0].changeouts);
   CHECK(pair.scrubbed.sulfur.stages[0] == twice.scrubbed.sulfur.stages[0]);
-  // §18.3: life = φ*·q₀M/(η·ṅ_H2S), so at twice the flow half the life (Thomas, constant inlet)
+  // docs/model.md §18.3: life = φ*·q₀M/(η·ṅ_H2S), so at twice the flow half the life (Thomas, constant inlet)
   const Segment& s0 = one.record.front();
   const double dry = 1 - s0.fuel[Gas::H2O];
   const double phi_star = fed_share_at_outlet_ratio(50e-6 * dry / s0.fuel[Gas::H2S], 0.99, thomas_steepness(0.2));
@@ -145,7 +145,7 @@ TEST_CASE("a site of unequal engines: sulfur balance closes, the cost split sums
   const std::vector<TrainStage> train{iron_bed(1800, 40)};
   const SiteResult s = run_site(site_of({a, b, c}, train));
   REQUIRE(s.engines.size() == 3);
-  // raw sulfur = taken by the train + burnt by the engines (to exhaust and oil), §18.3
+  // raw sulfur = taken by the train + burnt by the engines (to exhaust and oil), docs/model.md §18.3
   CHECK(s.sulfur_balance_error < 1e-9);
   double burnt = 0, shares = 0, total = 0, shared = 0, shared_split = 0;
   for (const SiteEngine& e : s.engines) burnt += e.sulfur_burnt, shares += e.gas_share, total += e.costs.total_per_year;

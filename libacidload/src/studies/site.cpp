@@ -71,7 +71,7 @@ Merged merge(const std::vector<const EngineCase*>& engines) {
       if (!same_gas(s.fuel, ls.fuel))
         throw InputError("site.engines[" + std::to_string(e) + "].record", "(gas at " + format_value(running_hours(m.record)) + " h)",
                          "the same gas as the site's other engines at the same time (one gas supply)");
-      g.operation.fuel_flow += s.operation.fuel_flow;  // the bed loads with the sum of the flows (§18.4)
+      g.operation.fuel_flow += s.operation.fuel_flow;  // the bed loads with the sum of the flows (docs/model.md §18.4)
       here.push_back({e, idx[e]});
       rem[e] -= dt;
     }
@@ -174,7 +174,7 @@ SiteResult run_site(const SiteCase& site) {
     v.record_hours = running_hours(cc.engine.record);
     v.year_factor = v.quantities.running_hours / v.record_hours;
     v.per_year = cost_items(v.quantities, cc.prices);
-    for (CostItem i : all_cost_items)  // shared items: its gas share of the site's (§18.4)
+    for (CostItem i : all_cost_items)  // shared items: its gas share of the site's (docs/model.md §18.4)
       if (is_shared_item(i)) v.per_year[static_cast<std::size_t>(i)] = r.gas_share * out.shared_per_year[static_cast<std::size_t>(i)];
     v.per_mwh = per_mwh(v.per_year, v.quantities.energy);
     v.total_per_year = total(v.per_year);
