@@ -207,10 +207,12 @@ def monte_carlo_many(cases: Union[CaseLike, Iterable[CaseLike]], *, client: Any 
     if client is None:
         from ._calibration import monte_carlo
 
-        with ThreadPoolExecutor(max_workers=max(1, min(threads or os.cpu_count() or 1, len(items)))) as pool:
+        n = threads or os.cpu_count() or 1
+        with ThreadPoolExecutor(max_workers=max(1, min(n, len(items)))) as pool:
             loaded = list(pool.map(_loaded, items))
-            return list(pool.map(lambda c: monte_carlo(c, draws=draws, seed=seed, threads=1, variant=variant),
-                                 loaded))
+        # engines one after another, each one's draws dealt over the threads: the engines' work is
+        # unequal (a draw runs until its figures are known), so one task per engine leaves threads idle
+        return [monte_carlo(c, draws=draws, seed=seed, threads=n, variant=variant) for c in loaded]
     recipes = [_recipe(c, portable=True) for c in items]
     n = len(recipes)
     futures = client.map(_monte_carlo_recipe, recipes, [variant] * n, [draws] * n, [seed] * n, pure=False)

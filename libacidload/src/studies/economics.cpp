@@ -12,14 +12,7 @@
 
 namespace acidload {
 
-namespace {
-
-constexpr double inf = std::numeric_limits<double>::infinity();
-
-double dry_ppmv(const FuelGas& g) { return g[Gas::H2S] / (1 - g[Gas::H2O]) * 1e6; }
-
-// A piece of a segment: `hours` of it, starts and calendar time in proportion; events only on the first piece.
-Segment piece(const Segment& s, double hours, bool first) {
+Segment segment_piece(const Segment& s, double hours, bool first) {
   Segment e = s;
   const double share = s.hours > 0 ? hours / s.hours : 1;
   e.hours = hours;
@@ -28,6 +21,12 @@ Segment piece(const Segment& s, double hours, bool first) {
   if (!first) e.events.clear();
   return e;
 }
+
+namespace {
+
+constexpr double inf = std::numeric_limits<double>::infinity();
+
+double dry_ppmv(const FuelGas& g) { return g[Gas::H2S] / (1 - g[Gas::H2O]) * 1e6; }
 
 // The record split after `hours` of running: (head, tail).
 std::pair<std::vector<Segment>, std::vector<Segment>> split(const std::vector<Segment>& rec, double hours) {
@@ -40,8 +39,8 @@ std::pair<std::vector<Segment>, std::vector<Segment>> split(const std::vector<Se
       head.push_back(s);
     } else {
       const double a = hours - t;
-      head.push_back(piece(s, a, true));
-      tail.push_back(piece(s, s.hours - a, false));
+      head.push_back(segment_piece(s, a, true));
+      tail.push_back(segment_piece(s, s.hours - a, false));
     }
     t += s.hours;
   }
@@ -132,10 +131,11 @@ ScrubbedRecord scrub(const EngineCase& c, const std::vector<TrainStage>& train, 
       double engine_flow = flow;
       const FuelGas eg = n ? after_removal(g, flow, removed_h2s, removed_os, removed_cl, removed_f, engine_flow) : g;
       if (dt > 0 || (s.hours == 0 && first)) {
-        Segment e = piece(s, dt, first);
+        Segment e = segment_piece(s, dt, first);
         e.fuel = eg;
         e.operation.fuel_flow = engine_flow;
         out.record.push_back(e);
+        out.source.push_back(static_cast<std::size_t>(&s - c.record.data()));
         first = false;
       }
       // ledgers and outlet means
@@ -201,7 +201,7 @@ OilOverRecord oil_over_record(const EngineCase& c, const std::vector<Segment>& r
       // the last charge: its interval continued under the last segment to its limit (the cap at most)
       std::vector<Segment> more = rest;
       if (left < c.model.limits.max_hours) {
-        more.push_back(piece(rest.back(), c.model.limits.max_hours - left, false));
+        more.push_back(segment_piece(rest.back(), c.model.limits.max_hours - left, false));
       }
       const RunResult m = simulate(c.charge, c.model, more, stop, state, 0);
       const ChargeSummary& mc = m.charges.front();

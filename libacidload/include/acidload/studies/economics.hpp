@@ -50,10 +50,13 @@ struct StageRecord {
 //! The record as the engine sees it behind the train.
 struct ScrubbedRecord {
   std::vector<Segment> record;      //!< segments of constant outlet (no longer than `step`)
+  std::vector<std::size_t> source;  //!< for each piece of `record`, the index of the segment it came from
   std::vector<StageRecord> stages;
   SulfurLedger sulfur;
   double mean_engine_h2s_ppmv = 0;  //!< running-hours mean at the engine [ppmv dry]
 };
+//! A piece of a segment: `hours` of it, starts and calendar time in proportion; events only on the first piece.
+Segment segment_piece(const Segment& s, double hours, bool first);
 //! Runs the train over the case's record. Throws InputError for a changeout level the fresh bed
 //! already exceeds.
 ScrubbedRecord scrub(const EngineCase& c, const std::vector<TrainStage>& train, double step);

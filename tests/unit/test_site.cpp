@@ -1,0 +1,174 @@
+// Sites: several engines on one gas supply and one scrubbing train (docs/model.md §18.4). Checks: a
+// site of one engine equals that engine's case (consistency); two identical engines load the bed as
+// one engine of twice the flow, and the bed's life is the Thomas closed form (docs/model.md §18.1, [Thomas1944]),
+// life ∝ 1/flow; the sulfur balance closes; the cost split sums to the site's total. Invented data.
+#include <doctest/doctest.h>
+
+#include <cmath>
+
+#include "../support/sanity_case.hpp"
+#include "acidload/core/error.hpp"
+#include "acidload/studies/site.hpp"
+
+using namespace acidload;
+
+namespace {
+
+EngineCase engine(double hours, double h2s, double flow_factor = 1) {
+  EngineCase c;
+  c.name = "engine";
+  c.charge = acidload_test::sanity_charge();
+  c.record = {acidload_test::sanity_segment(hours, h2s)};
+  for (Segment& s : c.record) s.operation.fuel_flow *= flow_factor;
+  return c;
+}
+
+TrainStage iron_bed(double mass, double level_ppmv) {
+  TrainStage t;
+  t.name = "iron oxide bed";
+  t.stage.kind = StageKind::iron_oxide;
+  t.stage.bed_mass = mass;
+  t.stage.capacity = 0.2;
+  t.stage.efficiency = 0.99;
+  t.stage.changeout = {ChangeoutRule::Kind::outlet_level, level_ppmv, 0};
+  t.costs.capital = 60000;
+  t.costs.life_years = 10;
+  return t;
+}
+
+Prices prices() {
+  Prices p;
+  p.oil = 3000;
+  p.oil_change_labour = 400;
+  p.oil_change_downtime = 6;
+  p.electricity = 90 / 3.6e9;
+  p.lab_sample = 50;
+  p.sampling_interval = 250;
+  p.iron_oxide = 1.5;
+  p.disposal = 0.4;
+  p.changeout_labour = 800;
+  p.changeout_downtime = 8;
+  return p;
+}
+
+CostCase cost_case(const EngineCase& e, const std::vector<TrainStage>& train) {
+  CostCase c;
+  c.engine = e;
+  c.train = train;
+  c.prices = prices();
+  c.step = 24;
+  return c;
+}
+
+SiteCase site_of(const std::vector<EngineCase>& engines, const std::vector<TrainStage>& train) {
+  SiteCase s;
+  s.name = "site";
+  for (const EngineCase& e : engines) s.engines.push_back(cost_case(e, train));
+  s.train = train;
+  s.prices = prices();
+  return s;
+}
+
+// A record of several segments: load changes and an oil top-up event on a zero-hour segment.
+EngineCase varied_engine(double h2s) {
+  EngineCase c = engine(1000, h2s);
+  Segment a = c.record.front();
+  Segment b = a;
+  b.hours = 2500;
+  b.operation.fuel_flow *= 0.7;
+  Segment z = a;
+  z.hours = 0;
+  Segment d = a;
+  d.hours = 4500;
+  d.starts = 3;
+  c.record = {a, b, z, d};
+  return c;
+}
+
+double running_hours_flow(const std::vector<Segment>& rec) {
+  double v = 0;
+  for (const Segment& s : rec) v += s.operation.fuel_flow * s.hours;
+  return v;
+}
+
+}  // namespace
+
+TEST_CASE("a site of one engine equals that engine's case exactly (consistency)") {
+  const EngineCase e = varied_engine(300);
+  const std::vector<TrainStage> train{iron_bed(1500, 50)};
+  const CostCase alone = cost_case(e, train);
+  const VariantCosts v = costs(alone);
+  const SiteResult s = run_site(site_of({e}, train));
+  REQUIRE(s.engines.size() == 1);
+  const SiteEngine& r = s.engines[0];
+  CHECK(r.gas_share == 1.0);
+  REQUIRE(r.record.size() == v.scrubbed.record.size());
+  for (std::size_t i = 0; i < r.record.size(); ++i) {
+    CHECK(r.record[i].hours == v.scrubbed.record[i].hours);
+    CHECK(r.record[i].operation.fuel_flow == v.scrubbed.record[i].operation.fuel_flow);
+    CHECK(r.record[i].fuel[Gas::H2S] == v.scrubbed.record[i].fuel[Gas::H2S]);
+    CHECK(r.record[i].starts == v.scrubbed.record[i].starts);
+    CHECK(r.record[i].events.size() == v.scrubbed.record[i].events.size());
+  }
+  CHECK(r.oil.intervals == v.oil.intervals);
+  CHECK(r.oil.changes == v.oil.changes);
+  CHECK(s.scrubbed.stages[0].changeouts == v.scrubbed.stages[0].changeouts);
+  CHECK(s.scrubbed.stages[0].first_bed_life == v.scrubbed.stages[0].first_bed_life);
+  CHECK(r.mean_h2s_ppmv == doctest::Approx(v.scrubbed.mean_engine_h2s_ppmv).epsilon(1e-15));
+  for (std::size_t i = 0; i < cost_item_count; ++i) CHECK(r.costs.per_year[i] == doctest::Approx(v.per_year[i]).epsilon(1e-14));
+  CHECK(s.total_per_year == doctest::Approx(v.total_per_year).epsilon(1e-14));
+}
+
+TEST_CASE("two identical engines load the bed as one engine of twice the flow; life is Thomas' closed form") {
+  const EngineCase one = engine(8000, 300);
+  const std::vector<TrainStage> train{iron_bed(2000, 50)};
+  const SiteResult pair = run_site(site_of({one, one}, train));
+  const SiteResult twice = run_site(site_of({engine(8000, 300, 2)}, train));
+  const SiteResult single = run_site(site_of({one}, train));
+  CHECK(pair.scrubbed.stages[0].first_bed_life == twice.scrubbed.stages[0].first_bed_life);
+  CHECK(pair.scrubbed.stages[0].changeouts == twice.scrubbed.stages[0].changeouts);
+  CHECK(pair.scrubbed.sulfur.stages[0] == twice.scrubbed.sulfur.stages[0]);
+  // docs/model.md §18.3: life = φ*·q₀M/(η·ṅ_H2S), so at twice the flow half the life (Thomas, constant inlet)
+  const Segment& s0 = one.record.front();
+  const double dry = 1 - s0.fuel[Gas::H2O];
+  const double phi_star = fed_share_at_outlet_ratio(50e-6 * dry / s0.fuel[Gas::H2S], 0.99, thomas_steepness(0.2));
+  const double hold = 0.2 * 2000 / (atomic_weight(Element::S) * 1e-3);
+  const double life = phi_star * hold / (0.99 * 2 * s0.operation.fuel_flow * s0.fuel[Gas::H2S]);
+  CHECK(pair.scrubbed.stages[0].first_bed_life == doctest::Approx(life).epsilon(1e-9));
+  CHECK(pair.scrubbed.stages[0].first_bed_life == doctest::Approx(single.scrubbed.stages[0].first_bed_life / 2).epsilon(1e-9));
+  CHECK(pair.engines[0].gas_share == 0.5);
+  CHECK(pair.engines[0].oil.intervals == pair.engines[1].oil.intervals);
+}
+
+TEST_CASE("a site of unequal engines: sulfur balance closes, the cost split sums to the site's total") {
+  EngineCase a = varied_engine(300), b = engine(6000, 300, 1.6), c = engine(9000, 300, 0.5);
+  const std::vector<TrainStage> train{iron_bed(1800, 40)};
+  const SiteResult s = run_site(site_of({a, b, c}, train));
+  REQUIRE(s.engines.size() == 3);
+  // raw sulfur = taken by the train + burnt by the engines (to exhaust and oil), docs/model.md §18.3
+  CHECK(s.sulfur_balance_error < 1e-9);
+  double burnt = 0, shares = 0, total = 0, shared = 0, shared_split = 0;
+  for (const SiteEngine& e : s.engines) burnt += e.sulfur_burnt, shares += e.gas_share, total += e.costs.total_per_year;
+  CHECK(std::fabs(s.scrubbed.sulfur.raw - s.scrubbed.sulfur.stages[0] - burnt) <= 1e-9 * s.scrubbed.sulfur.raw);
+  CHECK(shares == doctest::Approx(1).epsilon(1e-14));
+  CHECK(total == doctest::Approx(s.total_per_year).epsilon(1e-14));
+  for (CostItem i : all_cost_items) {
+    if (!is_shared_item(i)) continue;
+    shared += s.shared_per_year[static_cast<std::size_t>(i)];
+    for (const SiteEngine& e : s.engines) shared_split += e.costs.per_year[static_cast<std::size_t>(i)];
+  }
+  CHECK(shared > 0);
+  CHECK(shared_split == doctest::Approx(shared).epsilon(1e-12));
+  // gas share by hand: ∫flow dt of each engine over the sum
+  const double fa = running_hours_flow(a.record), fb = running_hours_flow(b.record), fc = running_hours_flow(c.record);
+  CHECK(s.engines[1].gas_share == doctest::Approx(fb / (fa + fb + fc)).epsilon(1e-12));
+  // the merged timeline ends where the longest record ends
+  double h = 0;
+  for (const Segment& x : s.raw) h += x.hours;
+  CHECK(h == doctest::Approx(9000).epsilon(1e-12));
+}
+
+TEST_CASE("a site refuses engines on different gas, and no engines") {
+  CHECK_THROWS_AS(run_site(site_of({engine(1000, 300), engine(1000, 200)}, {iron_bed(1000, 50)})), InputError);
+  CHECK_THROWS_AS(run_site(site_of({}, {iron_bed(1000, 50)})), InputError);
+}
