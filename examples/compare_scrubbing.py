@@ -29,7 +29,7 @@ def compare(case_path):
     case = acidload.load_case(case_path)
     result = acidload.run(case)
     h2s = np.linspace(10, 600, 60)
-    sweep = acidload.drain_interval(case, h2s_ppmv=h2s)  # one C++ loop, the GIL released
+    sweep = acidload.drain_interval(case, h2s_ppmv=h2s)  # one C++ loop, the GIL released; NaN: no limit within N h
     return result, h2s, sweep
 
 
@@ -63,7 +63,7 @@ def plot(result, h2s, sweep, variants=SCRUBBING):
     ax.plot(h2s, sweep, color="k")
     ax.set_xlabel("H2S in the fuel gas [ppmv, dry]")
     ax.set_ylabel("drain interval [h]")
-    ax.set_title("drain interval against inlet H2S (hours cap where no limit is reached)", fontsize=9)
+    ax.set_title("drain interval against inlet H2S (a gap: no limit within the planned maximum)", fontsize=9)
     ax.grid(alpha=0.3)
     fig.suptitle(f"{result.summary['case']} — scrubbing levels (invented demo data)")
     return fig

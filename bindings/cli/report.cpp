@@ -14,6 +14,16 @@ using namespace acidload;
 
 namespace {
 double c_of(double kelvin) { return kelvin - constants::zero_celsius; }
+std::string whole_hours(double h) { return std::to_string(static_cast<long>(h + 0.5)) + " h"; }
+
+// How a charge ended, in the words of every table: "N h  limit", "no limit within N h" (the planned
+// maximum, docs/model.md §9), "no limit in the record (N h)".
+std::string charge_outcome(const ChargeSummary& ch) {
+  if (ch.oil_limit_reached()) return whole_hours(ch.drain_interval) + "  " + std::string(name(*ch.first));
+  if (ch.first) return "no limit within " + whole_hours(ch.drain_interval);
+  return "no limit in the record (" + whole_hours(ch.oil_hours) + ")";
+}
+
 // A name in a table column of `width` characters: longer names are cut with "…" so the columns
 // stay aligned (the full name is in summary.json, trajectories.csv and acidload check).
 std::string in_column(const std::string& name, std::size_t width) {
@@ -99,19 +109,16 @@ void print_check(std::FILE* out, const io::CaseFile& c) {
 
 void print_comparison(std::FILE* out, const io::CaseFile& c, const std::vector<VariantSummary>& rows) {
   if (!c.title.empty()) std::fprintf(out, "%s\n\n", c.title.c_str());
-  std::fprintf(out, "%-31s %-29s %-11s %-11s %-25s %5s %5s %5s %6s\n", "", "acid into the oil [g KOH/h]", " S to oil %",
+  // the outcome column holds the longest outcome, "no limit in the record (NNNNN h)"
+  std::fprintf(out, "%-31s %-29s %-11s %-11s %-33s %5s %5s %5s %6s\n", "", "acid into the oil [g KOH/h]", " S to oil %",
                "TBN fall", "drain interval", "TBN", "TAN", "SAN", "H2SO4");
-  std::fprintf(out, "%-31s %5s %5s %5s %5s %5s %5s %5s %5s %5s %-25s %5s %5s %5s %6s\n", "variant", "H2SO4", "SO2", "HCl",
+  std::fprintf(out, "%-31s %5s %5s %5s %5s %5s %5s %5s %5s %5s %-33s %5s %5s %5s %6s\n", "variant", "H2SO4", "SO2", "HCl",
                "HF", "HNO3", "fresh", "avg", "fresh", "avg", "and the limit reached", "end", "end", "end", "dew C");
-  const auto hours = [](double h) { return std::to_string(static_cast<long>(h + 0.5)) + " h"; };
   for (const VariantSummary& v : rows) {
-    std::string outcome;
-    if (v.charge.oil_limit_reached()) outcome = hours(v.charge.drain_interval) + "  " + std::string(name(*v.charge.first));
-    else if (v.charge.first) outcome = "no limit within " + hours(v.charge.drain_interval);  // the planned maximum
-    else outcome = "no limit in the record (" + hours(v.charge.oil_hours) + ")";
+    const std::string outcome = charge_outcome(v.charge);
     char avg[16] = "    -";
     if (v.sulfur_share_to_oil_average >= 0) std::snprintf(avg, sizeof avg, "%5.3f", v.sulfur_share_to_oil_average * 100);
-    std::fprintf(out, "%s %5.2f %5.2f %5.2f %5.2f %5.2f %5.3f %5s %5.3f %5.3f %-25s %5.2f %5.2f %5.2f %6.1f\n",
+    std::fprintf(out, "%s %5.2f %5.2f %5.2f %5.2f %5.2f %5.3f %5s %5.3f %5.3f %-33s %5.2f %5.2f %5.2f %6.1f\n",
                  in_column(v.name, 31).c_str(), v.inflow_koh.sulfuric, v.inflow_koh.sulfurous_fresh, v.inflow_koh.hydrochloric,
                  v.inflow_koh.hydrofluoric, v.inflow_koh.nitric, v.sulfur_share_to_oil * 100, avg, -v.initial_tbn_rate * 100,
                  -v.tbn_fall_rate_average * 100, outcome.c_str(), v.tbn_end, v.tan_end, v.san_end,
@@ -126,9 +133,8 @@ void print_comparison(std::FILE* out, const io::CaseFile& c, const std::vector<V
     }
     if (v.run.charges.size() > 1)  // a record with oil changes: every charge's outcome
       for (const ChargeSummary& ch : v.run.charges) {
-        const std::string what = ch.oil_limit_reached() ? "limit " + std::string(name(*ch.first)) + " at " + hours(ch.drain_interval) + " of oil"
-                                 : ch.first ? "no limit within " + hours(ch.drain_interval)
-                                            : "no limit in the record";
+        const std::string what = ch.oil_limit_reached() ? "limit " + std::string(name(*ch.first)) + " at " + whole_hours(ch.drain_interval) + " of oil"
+                                                        : charge_outcome(ch);
         std::fprintf(out, "  charge %d (from %.0f h, ran %.0f h%s): %s\n", ch.index + 1, ch.start_engine_hours, ch.oil_hours,
                      ch.ended_by_change ? ", then changed" : "", what.c_str());
       }
@@ -273,8 +279,7 @@ void print_trend(std::FILE* out, const FitResult& f, const TrendResult& t) {
 
 void print_prediction(std::FILE* out, const FitResult& f, const Prediction& p) {
   const double cap = f.fitted.model.limits.max_hours;
-  const auto h = [&](double v) { return v >= cap ? std::string("cap ") + std::to_string(static_cast<long>(cap)) + " h"
-                                                 : std::to_string(static_cast<long>(v + 0.5)) + " h"; };
+  const auto h = [&](double v) { return v >= cap ? "no limit within " + whole_hours(cap) : whole_hours(v); };
   if (p.current.change_now) {
     std::fprintf(out, "CHANGE THE OIL NOW: the latest sample has already passed:\n");
     for (const LimitForecast& x : p.current.limits)
@@ -282,7 +287,7 @@ void print_prediction(std::FILE* out, const FitResult& f, const Prediction& p) {
     std::fprintf(out, "\n");
   }
   std::fprintf(out, "%s: drain interval %s, ended by %s\n", p.next_charge ? "Next charge" : "Current charge",
-               h(p.interval).c_str(), p.limit ? std::string(description(*p.limit)).c_str() : "no limit within the hours cap");
+               h(p.interval).c_str(), p.limit ? std::string(description(*p.limit)).c_str() : "no oil-condition limit (the planned maximum)");
   std::fprintf(out, "  band of the interval:  P5 %s (pessimistic)   P50 %s   P95 %s (optimistic)\n", h(p.p5).c_str(),
                h(p.p50).c_str(), h(p.p95).c_str());
   if (!p.next_charge)
@@ -323,8 +328,10 @@ void print_monte_carlo(std::FILE* out, const EngineCase& c, const std::vector<Un
   std::fprintf(out, "  %-28s %10s %10s %10s %10s %10s\n", "first free strong acid", h(r.san_p5).c_str(), h(r.san_p10).c_str(),
                h(r.san_p50).c_str(), h(r.san_p90).c_str(), h(r.san_p95).c_str());
   std::fprintf(out, "(low percentiles are the pessimistic end: the earlier oil change; each charge runs on under its own\n"
-                    "last conditions; the drain interval counts the hours cap, %.0f h, where no other limit is reached;\n"
-                    "'none': no free acid within the cap in at least that share of the draws)\n", c.model.limits.max_hours);
+                    "last conditions; where no oil-condition limit is reached a draw counts the plant's planned maximum,\n"
+                    "%.0f h (limits.max-hours), so a percentile at %.0f h reads 'no limit within %.0f h'; 'none': no free\n"
+                    "acid within the planned maximum in at least that share of the draws)\n",
+               c.model.limits.max_hours, c.model.limits.max_hours, c.model.limits.max_hours);
   if (r.clipped)
     std::fprintf(out, "%d of %d draws had an input outside its parameter's range: clipped into it\n", r.clipped, r.draws);
 }
@@ -354,17 +361,16 @@ void print_fleet(std::FILE* out, const std::vector<io::FleetCase>& fleet) {
   std::size_t variants = 0;
   for (const auto& f : fleet) variants += f.rows.size();
   std::fprintf(out, "Fleet: %zu cases, %zu variants (first charge of each)\n", fleet.size(), variants);
-  std::fprintf(out, "%-24s %-31s %11s  %-10s %5s %5s %5s\n", "case", "variant", "drain", "limit", "TBN", "TAN", "SAN");
+  // the same words as the single-case table: "N h  limit", "no limit within N h", "no limit in the record (N h)"
+  std::fprintf(out, "%-24s %-31s %-33s %5s %5s %5s\n", "case", "variant", "drain interval and limit", "TBN", "TAN",
+               "SAN");
   const std::string *short_case = nullptr, *short_variant = nullptr;
   double shortest = INFINITY;
   for (const auto& f : fleet)
     for (const VariantSummary& v : f.rows) {
-      const std::string interval =
-          v.charge.first ? std::to_string(static_cast<long>(v.charge.drain_interval + 0.5)) + " h" : "not reached";
-      std::fprintf(out, "%-24s %-31s %11s  %-10s %5.2f %5.2f %5.2f\n", terminal_safe(f.stem).c_str(),
-                   terminal_safe(v.name).c_str(), interval.c_str(),
-                   v.charge.first ? std::string(name(*v.charge.first)).c_str() : "-", v.tbn_end, v.tan_end, v.san_end);
-      if (v.charge.first && v.charge.drain_interval < shortest) {
+      std::fprintf(out, "%-24s %-31s %-33s %5.2f %5.2f %5.2f\n", terminal_safe(f.stem).c_str(), terminal_safe(v.name).c_str(),
+                   charge_outcome(v.charge).c_str(), v.tbn_end, v.tan_end, v.san_end);
+      if (v.charge.oil_limit_reached() && v.charge.drain_interval < shortest) {
         shortest = v.charge.drain_interval;
         short_case = &f.stem;
         short_variant = &v.name;

@@ -25,6 +25,7 @@ CASES = [
     ("demo-site", "cases/demo-site.yaml", None),
     ("demo-site-history", "cases/demo-site-history.yaml", "cases/demo-site-lab.csv"),
     ("drifting-gas", "cases/drifting-gas.yaml", None),
+    ("demo-site-costs", "cases/demo-site-costs.yaml", None),
 ]
 SECTIONS = ["Cautions", "Comparison of the variants", "Oil condition against oil hours", "Drain interval against H2S",
             "Acid into the oil by species", "The case as understood", "What the model assumes", "Version and input files"]
@@ -105,6 +106,8 @@ def test_page_loads_offline_and_every_plot_renders(browser, name, case, lab):
         assert any(s in h for h in headings), f"no section '{s}' in {headings}"
     if lab:
         assert any("Lab results" in h for h in headings)
+    if "costs" in case:
+        assert any("Cost per MWh against the scrubbing level" in h for h in headings), headings
     charts = page.eval_on_selector_all("svg.chart", """svgs => svgs.map(s => {
         const r = s.getBoundingClientRect();
         const drawn = [...s.querySelectorAll('path.series, rect.bar, g.points > *')]
@@ -113,9 +116,15 @@ def test_page_loads_offline_and_every_plot_renders(browser, name, case, lab):
         return {id: s.id, width: r.width, height: r.height, drawn,
                 title: (s.querySelector('title') || {}).textContent || '',
                 desc: (s.querySelector('desc') || {}).textContent || '',
-                x: text('text.x-label'), y: text('text.y-label'), ticks: text('text.tick').length};
+                x: text('text.x-label'), y: text('text.y-label'), ticks: text('text.tick').length,
+                // the browser's own boxes of every horizontal text (the rotated y label left out)
+                boxes: [...s.querySelectorAll('text:not([transform])')].map(t => {
+                    const b = t.getBBox();
+                    return {t: t.textContent, l: b.x, r: b.x + b.width, top: b.y, bottom: b.y + b.height};
+                })};
     })""")
-    expected = 6 + (4 if lab else 0)  # TBN, TAN, SAN, oxidation, H2S, acids (+ the lab readings)
+    # TBN, TAN, SAN, oxidation, viscosity, antioxidant, H2S, acids (+ the lab readings, + the costs)
+    expected = 8 + (4 if lab else 0) + (1 if "costs" in case else 0)
     assert len(charts) >= expected - (1 if lab else 0), [c["id"] for c in charts]
     for c in charts:
         assert c["width"] > 300 and c["height"] > 150, c
@@ -123,6 +132,16 @@ def test_page_loads_offline_and_every_plot_renders(browser, name, case, lab):
         assert c["title"] and c["desc"], f"{c['id']}: no text alternative"
         assert c["x"] and c["y"], f"{c['id']}: axis labels missing"
         assert c["ticks"] >= 4, f"{c['id']}: too few tick labels"
+        # no two labels overlap as drawn (1 px of slack for glyph boxes that merely touch)
+        b = c["boxes"]
+        for i in range(len(b)):
+            for j in range(i + 1, len(b)):
+                p, q = b[i], b[j]
+                apart = p["r"] <= q["l"] + 1 or q["r"] <= p["l"] + 1 or p["bottom"] <= q["top"] + 1 or q["bottom"] <= p["top"] + 1
+                assert apart, f"{c['id']}: '{p['t']}' overlaps '{q['t']}'"
+    ids = [c["id"] for c in charts]
+    for must in ["chart-viscosity", "chart-antioxidant"] + (["chart-costs"] if "costs" in case else []):
+        assert must in ids, ids
     # tables: every header cell has a scope
     assert page.evaluate("[...document.querySelectorAll('th')].every(t => t.hasAttribute('scope'))")
     page.screenshot(path=str(OUT / f"{name}.png"), full_page=True)
@@ -136,7 +155,7 @@ def _pdf_pages(pdf: pathlib.Path) -> list[str]:
     return pages[:-1] if pages and not pages[-1].strip() else pages
 
 
-@pytest.mark.parametrize("name,case,lab,pages", [c + (p,) for c, p in zip(CASES, [(5, 7), (7, 9), (5, 7)])],
+@pytest.mark.parametrize("name,case,lab,pages", [c + (p,) for c, p in zip(CASES, [(7, 9), (8, 10), (6, 8), (7, 9)])],
                          ids=[c[0] for c in CASES])
 def test_prints_on_a4_with_every_figure(browser, name, case, lab, pages):
     if not shutil.which("pdfinfo"):

@@ -40,7 +40,7 @@ def test_estimates_and_standard_errors_equal_scipy_least_squares():
     p = len(PARAMS)
     data = res.fun[:-p]  # the prior rows do not count as observations
     n = data.size
-    s2 = float(data @ data) / (n - p)
+    s2 = float(data @ data) / (n - p - len(fit.baselines))  # a fitted FTIR baseline takes a degree of freedom
     cov = max(1.0, s2) * np.linalg.inv(res.jac.T @ res.jac)
     phi = res.x
     dx = np.array([core.dx_dphi(k, f) for k, f in zip(PARAMS, phi)])
@@ -180,3 +180,41 @@ def test_lab_first_update_equals_a_numpy_kalman_update_with_cross_terms():
     assert np.max(np.abs(np.array(k["posterior"]) - expected)) < 1e-12
     assert np.max(np.abs(np.array(k["gain"]) - K)) < 1e-12
 
+
+
+@pytest.mark.reference(quantity="FTIR baseline fitted per lab", tolerance="3 standard errors", unit="A/cm",
+                       source="a known offset added to synthetic readings here")
+def test_a_known_ftir_baseline_offset_is_recovered_when_no_fresh_oil_sample_is_given(tmp_path):
+    # synthetic readings: the demo case at known parameters, sampled from 150 h on (no fresh-oil
+    # sample), seeded noise of the lab precision, and a known baseline added to one lab's oxidation
+    acidload, case, _ = _setup()
+    core = acidload._core
+    keys = ["model.oxidation-rate", "model.liner-uptake"]
+    truth = core.with_parameter(core.with_parameter(case.variants[0]._engine_case, keys[0], 0.010), keys[1], 3e-4)
+    header = "charge,oil-hours,lab,tbn [mg KOH/g],tan [mg KOH/g],oxidation [A/cm]"
+    hours = list(range(75, 901, 75))  # twelve samples a charge, the first at 75 h
+    rows = [(c, h, "Eastbrook Lab" if c == 2 else "Westfield Lab") for c in (1, 2, 3) for h in hours]
+    lab = tmp_path / "lab.csv"
+    lab.write_text("\n".join([header] + [f"{c},{h},{n},0,0,0" for c, h, n in rows]) + "\n")
+    pred = core.predict(truth, acidload.read_lab_samples(lab))
+    y = np.asarray(pred["predicted"]) + np.asarray(pred["sigma"]) * np.random.default_rng(7).standard_normal(len(pred["predicted"]))
+    offset = 2.5  # A/cm: Eastbrook's FTIR reads this much above the model's oxidation (invented)
+    out = [header]
+    for j, (c, h, n) in enumerate(rows):
+        tbn, tan, ox = y[3 * j:3 * j + 3]
+        out.append(f"{c},{h},{n},{tbn:.4f},{tan:.4f},{ox + (offset if n == 'Eastbrook Lab' else 0):.4f}")
+    lab.write_text("\n".join(out) + "\n")
+    fit = acidload.fit(case, lab, keys)
+    b = {x["lab"]: x for x in fit.baselines if x["reading"] == "oxidation"}
+    assert set(b) == {"Eastbrook Lab", "Westfield Lab"}
+    assert abs(b["Eastbrook Lab"]["value"] - offset) < 3 * b["Eastbrook Lab"]["standard_error"]
+    assert abs(b["Westfield Lab"]["value"]) < 3 * b["Westfield Lab"]["standard_error"]
+    # twelve readings of 1 A/cm on 75-900 h: an intercept beside a slope, about 0.6 A/cm
+    assert 0.29 < b["Eastbrook Lab"]["standard_error"] < 1.0
+    assert fit.estimates["model.oxidation-rate"] == pytest.approx(0.010, rel=0.15)
+    assert any("baseline" in n for n in fit.notes)
+    # a stated baseline (the lab file's column) is taken as given: nothing fitted
+    stated = lab.read_text().replace("oxidation [A/cm]", "oxidation [A/cm],oxidation-baseline [A/cm]")
+    stated = "\n".join([stated.splitlines()[0]] + [r + ",0" for r in stated.splitlines()[1:]]) + "\n"
+    lab.write_text(stated)
+    assert acidload.fit(case, lab, keys).baselines == []

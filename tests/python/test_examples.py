@@ -53,7 +53,8 @@ def test_notebook_runs_headless_and_shows_the_programs_intervals(tmp_path, monke
     errors = [o for c in code for o in c.outputs if o.output_type == "error"]
     assert not errors, errors
     images = [o for c in code for o in c.outputs if o.output_type == "display_data" and "image/png" in o.data]
-    assert len(images) == 4, "the TBN/TAN/SAN/oxidation figure, the H2S sweep, the acids by species and the cost against the changeout level"
+    assert len(images) == 6, ("the TBN/TAN/SAN/oxidation figure, viscosity and antioxidant, the H2S sweep, the acids by "
+                              "species, the cost per MWh against the H2S at the engine and against the changeout level")
     text = "".join(o.get("text", "") for c in code for o in c.outputs if o.output_type == "stream")
     assert acidload.__version__ in text and "Harrowfield" in text
     expected = program_intervals(tmp_path)

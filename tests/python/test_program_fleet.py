@@ -109,3 +109,32 @@ def test_fleet_command_line_mistakes(tmp_path):
         assert r.returncode in (2, 3) and "--threads" in r.stderr, (bad, r.stderr)
     assert run("run", DEMO, DRIFT, "--threads", "1.5").returncode == 2  # not a whole number: the line cannot be parsed
     assert run("run", DEMO, DRIFT, "--threads", "0").returncode == 3    # a whole number out of range
+
+
+def test_fleet_and_single_case_tables_say_the_same_when_no_limit_is_reached(tmp_path):
+    # A planned maximum of 300 h ends every demo variant before any oil-condition limit: both tables
+    # must say "no limit within 300 h" (never "not reached" or a bare 300 h read as a result), and the
+    # outcome must fit its column so the TBN column stays aligned.
+    case = tmp_path / "short.yaml"
+    case.write_text(DEMO.read_text(encoding="utf-8").replace("max-hours: 8000 h", "max-hours: 300 h", 1), encoding="utf-8")
+    alone = run("run", case)
+    fleet = run("run", case, DEMO, "--out", tmp_path / "fleet")
+    assert alone.returncode == 0 and fleet.returncode == 0, alone.stderr + fleet.stderr
+    assert "not reached" not in fleet.stdout and "not reached" not in alone.stdout
+    short_rows = [l for l in fleet.stdout.splitlines() if l.startswith("short ")]
+    assert short_rows and all("no limit within 300 h" in l for l in short_rows)
+    rows = [l for l in alone.stdout.splitlines() if "no limit within 300 h" in l]
+    assert len(rows) == len(short_rows)
+    header = next(l for l in alone.stdout.splitlines() if l.startswith("variant "))
+    tbn_end = header.index("and the limit reached") + 34  # the outcome column is 33 wide
+    assert header[tbn_end:tbn_end + 5].strip() == "end"
+    for l in rows:  # the outcome never runs into the TBN column
+        assert l[tbn_end - 1] == " " and l[tbn_end:tbn_end + 5].strip().replace(".", "").isdigit()
+    # the longest outcome, a record that ends before any limit, fits too
+    drift = run("run", DRIFT).stdout.splitlines()
+    longest = [l for l in drift if l.startswith("scrubber held") and "no limit in the record (3000 h)" in l]
+    assert longest and all(l[tbn_end - 1] == " " and l[tbn_end:tbn_end + 5].strip().replace(".", "").isdigit() for l in longest)
+    fleet_header = next(l for l in fleet.stdout.splitlines() if l.startswith("case "))
+    column = fleet_header.index("drain interval")
+    for l in short_rows:  # the outcome column is 33 wide, then TBN
+        assert l[column:column + 33].rstrip() == "no limit within 300 h" and float(l[column + 33:].split()[0]) > 0

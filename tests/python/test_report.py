@@ -33,7 +33,7 @@ def test_every_plot_parses_as_svg_with_text_alternatives():
     acidload = need_acidload()
     html = acidload.run(acidload.load_case(str(ROOT / "cases" / "demo-site.yaml"))).report_html()
     svgs = re.findall(r"<svg .*?</svg>", html, re.S)
-    assert len(svgs) == 6
+    assert len(svgs) == 8  # TBN, TAN, SAN, oxidation, viscosity, antioxidant, H2S, acids
     for s in svgs:
         root = ET.fromstring(s)  # raises on anything not well-formed
         assert root.tag == SVG + "svg"
@@ -83,3 +83,12 @@ def test_summary_csv_is_the_programs_and_numbers_charges_from_1(tmp_path):
             assert (r["drain interval [h]"] == "") == (want is None)
             if want is not None:
                 assert float(r["drain interval [h]"]) == pytest.approx(want, rel=1e-9)
+
+
+def test_python_report_of_a_case_with_costs_has_the_cost_plot():
+    acidload = need_acidload()
+    html = acidload.run(acidload.load_case(str(ROOT / "cases" / "demo-site-costs.yaml"))).report_html()
+    svgs = {ET.fromstring(s).get("id"): ET.fromstring(s) for s in re.findall(r"<svg .*?</svg>", html, re.S)}
+    assert {"chart-costs", "chart-viscosity", "chart-antioxidant"} <= set(svgs)
+    labels = [t.text for t in svgs["chart-costs"].iter(SVG + "text") if "axis-label" in (t.get("class") or "")]
+    assert any("H2S at the engine" in t for t in labels) and any("per MWh" in t for t in labels)

@@ -35,6 +35,7 @@ inline std::vector<acidload::LabSample> history_samples(const acidload::EngineCa
       x.oil_hours = h;
       x.tbn = 0, x.tan = 0;
       if (oxidation) x.oxidation = 0;
+      x.oxidation_baseline_given = x.nitration_baseline_given = true;  // the lab states its FTIR baseline (0): none fitted
       x.where = "synthetic " + std::to_string(k) + "/" + std::to_string(h);
       s.push_back(x);
     }

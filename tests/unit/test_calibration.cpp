@@ -442,3 +442,34 @@ TEST_CASE("Monte Carlo over every charge, with a fit's correlated draws; out-of-
   const MonteCarloResult one = monte_carlo(history_case(), in, &f, true, 200, 3, 1);
   CHECK(one.charge_intervals == r.charge_intervals);
 }
+
+TEST_CASE("an FTIR baseline is fitted per lab only where none is stated and no fresh-oil sample is given") {
+  // a known offset on synthetic readings (docs/model.md §12): recovered within 3 standard errors
+  const EngineCase t = truth();
+  Precision p;
+  std::vector<LabSample> s = history_samples(t, 3, p);
+  for (LabSample& x : s) {
+    x.oxidation_baseline_given = x.nitration_baseline_given = false;
+    x.lab = x.charge == 2 ? "B" : "A";
+    if (x.lab == "B") *x.oxidation += 3.0;
+  }
+  FitSettings fs;
+  fs.parameters = three;
+  const FitResult f = calibrate(history_case(), s, fs);
+  REQUIRE(f.baselines.size() == 2);
+  for (const FittedBaseline& b : f.baselines) {
+    INFO(b.lab << " " << b.value << " +- " << b.standard_error);
+    CHECK(b.reading == "oxidation");
+    CHECK(std::fabs(b.value - (b.lab == "B" ? 3.0 : 0.0)) < 3 * b.standard_error);
+  }
+  CHECK(f.degrees_of_freedom == f.observations - 3 - 2);
+  // the fitted baseline travels with the lab's samples
+  for (const LabSample& x : f.samples) CHECK(x.oxidation_baseline_given);
+  // a fresh-oil sample (oil hours <= 24) of a lab: its baseline is not fitted
+  LabSample fresh = s.front();
+  fresh.oil_hours = 1;
+  s.push_back(fresh);
+  CHECK(baseline_groups(s, fs).size() == 1);
+  fs.fit_ftir_baseline = false;
+  CHECK(calibrate(history_case(), s, fs).baselines.empty());
+}

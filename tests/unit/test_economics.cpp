@@ -136,7 +136,7 @@ TEST_CASE("the engine-wear penalty and hours per year") {
 
 TEST_CASE("oil changes over a record follow the drain interval") {
   const EngineCase c = engine(8000, 300);
-  const double d = drain_interval(c);
+  const double d = drain_interval(c).value();
   REQUIRE(d < 4000);
   const OilOverRecord o = oil_over_record(c, c.record);
   // the first charge is the fresh one of drain_interval(); later ones start with the 10 % residual

@@ -2,6 +2,7 @@
 #include <doctest/doctest.h>
 
 #include <cmath>
+#include <optional>
 
 #include "../support/sanity_case.hpp"
 #include "acidload/core/error.hpp"
@@ -26,10 +27,10 @@ TEST_CASE("highest H2S for a target interval, verified forward") {
   REQUIRE(a.found);
   CHECK(a.value > 0);
   CHECK(a.value < 300);  // the sanity case's 300 ppmv gives ~1000 h: 1600 h needs less H2S
-  CHECK(std::fabs(drain_interval(with_lever(c, Lever::h2s_ppmv_dry, a.value)) - 1600) < 0.05);
+  CHECK(std::fabs(*drain_interval(with_lever(c, Lever::h2s_ppmv_dry, a.value)) - 1600) < 0.05);
   // more H2S than the answer misses the target, less reaches it
-  CHECK(drain_interval(with_lever(c, Lever::h2s_ppmv_dry, a.value * 1.01)) < 1600);
-  CHECK(drain_interval(with_lever(c, Lever::h2s_ppmv_dry, a.value * 0.99)) > 1600);
+  CHECK(*drain_interval(with_lever(c, Lever::h2s_ppmv_dry, a.value * 1.01)) < 1600);
+  CHECK(*drain_interval(with_lever(c, Lever::h2s_ppmv_dry, a.value * 0.99)) > 1600);
   CHECK(lever_value(with_lever(c, Lever::h2s_ppmv_dry, 123.0), Lever::h2s_ppmv_dry) == doctest::Approx(123.0).epsilon(1e-12));
 }
 
@@ -38,24 +39,24 @@ TEST_CASE("fresh TBN needed, verified forward") {
   const InverseAnswer a = solve_for_interval(c, Lever::fresh_tbn, 1600, 3, 30, 1e-5);
   REQUIRE(a.found);
   CHECK(a.value > c.charge.oil.fresh_tbn);
-  CHECK(std::fabs(drain_interval(with_lever(c, Lever::fresh_tbn, a.value)) - 1600) < 0.05);
+  CHECK(std::fabs(*drain_interval(with_lever(c, Lever::fresh_tbn, a.value)) - 1600) < 0.05);
 }
 
 TEST_CASE("lowest jacket-water temperature, verified forward; no answer is said plainly") {
   EngineCase c = sanity();
-  const double base = drain_interval(c);
+  const double base = *drain_interval(c);
   const double target = base * 1.1;
   const InverseAnswer a = solve_for_interval(c, Lever::jacket_water_out, target, 333.15, 393.15, 1e-4);
   REQUIRE(a.found);
   CHECK(a.value > c.record[0].operation.jacket_water_out);
-  CHECK(std::fabs(drain_interval(with_lever(c, Lever::jacket_water_out, a.value)) - target) < 0.05);
+  CHECK(std::fabs(*drain_interval(with_lever(c, Lever::jacket_water_out, a.value)) - target) < 0.05);
   const InverseAnswer none = solve_for_interval(c, Lever::jacket_water_out, base * 5, 333.15, 393.15, 1e-4);
   CHECK(!none.found);
   CHECK(none.reason.find("no answer in the range") != std::string::npos);
-  CHECK(none.interval_at_high < base * 5);
+  CHECK(*none.interval_at_high < base * 5);
   const InverseAnswer cap = solve_for_interval(c, Lever::h2s_ppmv_dry, 9000, 0, 300, 1e-3);
   CHECK(!cap.found);
-  CHECK(cap.reason.find("cap") != std::string::npos);
+  CHECK(cap.reason.find("planned maximum") != std::string::npos);
   CHECK_THROWS_AS(solve_for_interval(c, Lever::h2s_ppmv_dry, 1000, 300, 0, 1e-3), InputError);
 }
 
@@ -65,7 +66,7 @@ TEST_CASE("oil volume needed, verified forward") {
   // runs out sooner): keep the range on the rising side
   const InverseAnswer a = solve_for_interval(c, Lever::oil_volume, 1300, 0.1, 1.2, 1e-7);
   REQUIRE(a.found);
-  CHECK(std::fabs(drain_interval(with_lever(c, Lever::oil_volume, a.value)) - 1300) < 0.05);
+  CHECK(std::fabs(*drain_interval(with_lever(c, Lever::oil_volume, a.value)) - 1300) < 0.05);
 }
 
 TEST_CASE("with_h2s keeps the gas summing to one") {
@@ -88,7 +89,7 @@ TEST_CASE("a threaded sweep gives the answers of single runs, whatever the threa
   CHECK(one == two);
   CHECK(one == three);
   for (std::size_t i = 0; i < h2s.size(); i += 10)
-    CHECK(one[i] == drain_interval(with_lever(c, Lever::h2s_ppmv_dry, h2s[i])));
+    CHECK(one[i] == *drain_interval(with_lever(c, Lever::h2s_ppmv_dry, h2s[i])));
   // the lowest refused element is named, whichever thread met it first
   std::vector<double> bad = h2s;
   bad[37] = -1, bad[23] = -5;
@@ -98,4 +99,35 @@ TEST_CASE("a threaded sweep gives the answers of single runs, whatever the threa
   } catch (const InputError& e) {
     CHECK(std::string(e.what()).find("element 23 of the sweep") != std::string::npos);
   }
+}
+
+TEST_CASE("no limit within the planned maximum is no interval: none, NaN in a sweep, and solve says so") {
+  // The sanity case with a planned maximum of 600 h: clean gas reaches no oil-condition limit by then
+  // (the antioxidant alone lasts about 1900 h), 3000 ppmv H2S ends the charge well before it.
+  EngineCase c = sanity();
+  c.model.limits.max_hours = 600;
+  const EngineCase clean = with_lever(c, Lever::h2s_ppmv_dry, 0);
+  CHECK(!drain_interval(clean).has_value());  // never the 600 h counted as an interval
+  const std::optional<double> sour = drain_interval(with_lever(c, Lever::h2s_ppmv_dry, 3000));
+  REQUIRE(sour.has_value());
+  CHECK(*sour < 600);
+  const std::vector<double> h2s = {0, 3000};
+  const std::vector<double> swept = sweep_drain_interval(c, Lever::h2s_ppmv_dry, h2s.data(), h2s.size(), 1);
+  CHECK(std::isnan(swept[0]));
+  CHECK(swept[1] == *sour);
+  // a target at or beyond the planned maximum lies in the no-limit region: refused, with the reason
+  const InverseAnswer beyond = solve_for_interval(c, Lever::h2s_ppmv_dry, 600, 0, 3000, 1e-2);
+  CHECK(!beyond.found);
+  CHECK(beyond.reason.find("planned maximum") != std::string::npos);
+  CHECK(!beyond.interval_at_low.has_value());
+  // both ends of the range in the no-limit region: said in those words, not as two 600 h intervals
+  const InverseAnswer clean_range = solve_for_interval(c, Lever::h2s_ppmv_dry, 400, 0, 1, 1e-2);
+  CHECK(!clean_range.found);
+  CHECK(!clean_range.interval_at_low.has_value());
+  CHECK(!clean_range.interval_at_high.has_value());
+  CHECK(clean_range.reason.find("no limit within 600 h at 0 and no limit within 600 h at 1") != std::string::npos);
+  // a target below the planned maximum is found from the no-limit side, on the reached branch
+  const InverseAnswer a = solve_for_interval(c, Lever::h2s_ppmv_dry, 400, 0, 3000, 1e-3);
+  REQUIRE(a.found);
+  CHECK(std::fabs(*a.interval_at_value - 400) < 0.05);
 }

@@ -262,7 +262,7 @@ TEST_CASE("the report page of the demo case is well-formed, marks its inputs and
   CHECK(html.find("http://") == html.find("http://www.w3.org/2000/svg"));  // no address but the SVG namespace
   // the page is XHTML-clean enough for expat once the doctype is dropped
   const auto all = parse_xml(html.substr(html.find("<html")));
-  CHECK(with(all, "svg").size() == 6);  // TBN, TAN, SAN, oxidation, H2S sweep, acids
+  CHECK(with(all, "svg").size() == 8);  // TBN, TAN, SAN, oxidation, viscosity, antioxidant, H2S sweep, acids
   for (const XmlElement* th : with(all, "th")) CHECK(th->attributes.count("scope") == 1);
 }
 
@@ -353,4 +353,151 @@ TEST_CASE("the fitted band is zero without covariance and widens with it") {
   const std::size_t last = b.oxidation.value.size() - 1;
   CHECK(b.oxidation.high[last] - b.oxidation.value[last] == doctest::Approx(b.z * 0.1 * b.oxidation.value[last]).epsilon(0.1));
   CHECK(b.oxidation.low[last] < b.oxidation.value[last]);
+}
+
+namespace {
+
+// Every horizontal text of an SVG (rotated ones, the y-axis label, left out) as the box the writer
+// reckons for it, from the element's own x, y, text-anchor and font-size.
+std::vector<std::pair<std::string, svg::Box>> text_boxes(const std::vector<XmlElement>& all) {
+  std::vector<std::pair<std::string, svg::Box>> out;
+  for (const XmlElement* t : with(all, "text")) {
+    if (t->attributes.count("transform")) continue;
+    out.emplace_back(t->text, svg::text_box(std::stod(t->attributes.at("x")), std::stod(t->attributes.at("y")), t->text,
+                                            t->attributes.at("text-anchor"), std::stod(t->attributes.at("font-size"))));
+  }
+  return out;
+}
+
+void check_no_overlap(const std::string& svg_text, const std::string& what) {
+  const auto boxes = text_boxes(parse_xml(svg_text));
+  for (std::size_t i = 0; i < boxes.size(); ++i)
+    for (std::size_t j = i + 1; j < boxes.size(); ++j)
+      CHECK_MESSAGE(!svg::overlap(boxes[i].second, boxes[j].second),
+                    what << ": '" << boxes[i].first << "' overlaps '" << boxes[j].first << "'");
+}
+
+// Each <svg>…</svg> of a page, by its id.
+std::map<std::string, std::string> charts_of(const std::string& html) {
+  std::map<std::string, std::string> out;
+  for (std::size_t at = html.find("<svg"); at != std::string::npos; at = html.find("<svg", at + 1)) {
+    const std::size_t end = html.find("</svg>", at) + 6;
+    const std::size_t id = html.find("id=\"", at) + 4;
+    out[html.substr(id, html.find('"', id) - id)] = html.substr(at, end - at);
+  }
+  return out;
+}
+
+ReportData demo_report(const std::string& file) {
+  const CaseFile c = load_case(std::string(ACIDLOAD_SOURCE_DIR "/cases/") + file);
+  std::vector<VariantSummary> rows;
+  for (const EngineCase& v : c.variants) rows.push_back(summarize(v));
+  ReportOptions o;
+  o.sweep_points = 5;
+  o.generated = "test";
+  return gather_report(c, rows, o);
+}
+
+}  // namespace
+
+TEST_CASE("text boxes: width by characters, anchors, and overlap only with shared area") {
+  const svg::Box b = svg::text_box(100, 50, "8000 h", "end", 10);
+  CHECK(b.right == doctest::Approx(100));
+  CHECK(b.left == doctest::Approx(100 - 6 * 6.2));
+  CHECK(b.top == doctest::Approx(42.2));
+  CHECK(b.bottom == doctest::Approx(52.4));
+  CHECK(svg::text_box(100, 50, "°C", "middle", 10).left == doctest::Approx(100 - 6.2));  // code points, not bytes
+  CHECK(svg::overlap(b, svg::text_box(90, 55, "x", "start", 10)));
+  CHECK_FALSE(svg::overlap(b, svg::text_box(100, 50, "x", "start", 10)));  // touching at x = 100
+}
+
+TEST_CASE("crowded reference lines: every label placed, none overlapping another or leaving the frame") {
+  // drain intervals bunched at the hours cap and a limit line along the top, as happens when several
+  // variants reach no limit: the labels "8000 h" used to sit on the limit's label
+  svg::LineChart c = sample_chart();
+  c.x_range = svg::Range{0, 8000};
+  c.lines.clear();
+  c.lines.push_back({svg::ReferenceLine::Direction::horizontal, 6.0, "TBN limit 6.00 (fresh)", -1});
+  c.lines.push_back({svg::ReferenceLine::Direction::horizontal, 5.9, "hours cap 8000 h", -1});
+  for (double at : {8000.0, 8000.0, 7990.0, 7900.0, 1999.0, 1999.0, 1999.0, 2050.0})
+    c.lines.push_back({svg::ReferenceLine::Direction::vertical, at, std::to_string(static_cast<int>(at)) + " h", 0});
+  const std::string out = svg::line_chart(c);
+  const auto all = parse_xml(out);
+  CHECK(with(all, "text", "line-label").size() == c.lines.size());
+  check_no_overlap(out, "crowded chart");
+  const svg::Frame fr = svg::frame(c.width, c.height);
+  for (const svg::PlacedLabel& p : svg::place_line_labels(c)) {
+    CHECK(p.box.left >= fr.left);
+    CHECK(p.box.right <= fr.right);
+    CHECK(p.box.top >= fr.top);
+    CHECK(p.box.bottom <= fr.bottom);
+  }
+}
+
+TEST_CASE("no text label of any chart of the demo reports overlaps another") {
+  for (const std::string file : {"demo-site.yaml", "demo-site-costs.yaml", "drifting-gas.yaml"})
+    for (const auto& [id, chart] : charts_of(report_html(demo_report(file)))) check_no_overlap(chart, file + " " + id);
+}
+
+TEST_CASE("cost per MWh against the H2S at the engine: one marker per variant at its scaled values") {
+  const ReportData d = demo_report("demo-site-costs.yaml");
+  REQUIRE(d.costs.size() == 4);
+  const auto charts = charts_of(report_html(d));
+  REQUIRE(charts.count("chart-costs"));
+  const auto all = parse_xml(charts.at("chart-costs"));
+  bool x_label = false, y_label = false;
+  for (const XmlElement* t : with(all, "text")) {
+    x_label |= t->text.find("H2S at the engine") != std::string::npos;
+    y_label |= t->text.find("total cost [EUR per MWh]") != std::string::npos;
+  }
+  CHECK(x_label);
+  CHECK(y_label);
+  CHECK(!with(all, "desc").empty());
+  // both axes start at 0, so a marker's distance from the frame's left and bottom edges is
+  // proportional to its values: raw gas (look 0, a circle) against the iron-oxide bed (look 1, a square)
+  const svg::Frame fr = svg::frame(700, 320);
+  const auto circles = with(all, "circle");
+  REQUIRE(!circles.empty());
+  const XmlElement* sq = nullptr;
+  for (const XmlElement* r : with(all, "rect"))
+    if (!sq && r->attributes.count("fill") && r->attributes.at("fill") == svg::look(1).ink) sq = r;  // the first: not the legend's
+  REQUIRE(sq);
+  const double cx0 = std::stod(circles[0]->attributes.at("cx")), cy0 = std::stod(circles[0]->attributes.at("cy"));
+  const double half = std::stod(sq->attributes.at("width")) / 2;
+  const double cx1 = std::stod(sq->attributes.at("x")) + half, cy1 = std::stod(sq->attributes.at("y")) + half;
+  const VariantCosts &raw = d.costs[0], &bed = d.costs[1];
+  CHECK((cx0 - fr.left) / (cx1 - fr.left) ==
+        doctest::Approx(raw.scrubbed.mean_engine_h2s_ppmv / bed.scrubbed.mean_engine_h2s_ppmv).epsilon(0.01));
+  CHECK((fr.bottom - cy0) / (fr.bottom - cy1) == doctest::Approx(raw.total_per_mwh / bed.total_per_mwh).epsilon(0.01));
+  // the page without costs has no such chart
+  CHECK(charts_of(report_html(demo_report("demo-site.yaml"))).count("chart-costs") == 0);
+}
+
+TEST_CASE("viscosity change against oil hours: the curve and its limit at their scaled values") {
+  const ReportData d = demo_report("demo-site.yaml");
+  const auto charts = charts_of(report_html(d));
+  REQUIRE(charts.count("chart-viscosity"));
+  REQUIRE(charts.count("chart-antioxidant"));
+  const auto all = parse_xml(charts.at("chart-viscosity"));
+  const svg::Frame fr = svg::frame(700, 320);
+  const auto paths = with(all, "path", "series");
+  REQUIRE(paths.size() == d.rows.size());
+  const auto pts = path_points(paths[0]->attributes.at("d"));
+  std::vector<double> rise;
+  for (const TrajectoryPoint& p : d.rows[0].run.trajectory)
+    if (p.charge == 0) rise.push_back(100 * p.viscosity_rise);
+  REQUIRE(pts.size() == rise.size());
+  const std::size_t k = rise.size() - 1;
+  REQUIRE(rise[k] > 0);
+  const auto limits = with(all, "line", "limit");
+  REQUIRE(limits.size() == 1);
+  // y from 0: heights above the bottom edge are proportional to the values (limit 20 % by default)
+  const double limit = 100 * d.rows[0].charge.at_end[static_cast<std::size_t>(Limit::viscosity)].limit;
+  CHECK(limit == doctest::Approx(20));
+  CHECK((fr.bottom - std::stod(limits[0]->attributes.at("y1"))) / (fr.bottom - pts[k].second) ==
+        doctest::Approx(limit / rise[k]).epsilon(0.01));
+  // each variant's drain interval as a vertical line
+  std::size_t reached = 0;
+  for (const VariantSummary& v : d.rows) reached += v.charge.first.has_value();
+  CHECK(with(all, "line", "interval").size() == reached);
 }

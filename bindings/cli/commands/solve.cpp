@@ -85,12 +85,19 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
   const auto show = [&](double v) { return (v + shown_offset) * shown_scale; };
   std::fprintf(out, "%s — variant '%s': %s for a drain interval of %.0f h\n", file.title.c_str(), c.name.c_str(),
                o.lever.c_str(), target);
-  std::fprintf(out, "range searched: %.4g to %.4g %s (interval %.0f h and %.0f h at its ends)\n", show(search.low),
-               show(search.high), unit, r.interval_at_low, r.interval_at_high);
+  // an interval in words: "N h", or "no limit within N h" where no limit is reached (the planned maximum)
+  const auto words = [&](const std::optional<double>& h) {
+    char b[64];
+    if (h) std::snprintf(b, sizeof b, "%.0f h", *h);
+    else std::snprintf(b, sizeof b, "no limit within %.0f h", c.model.limits.max_hours);
+    return std::string(b);
+  };
+  std::fprintf(out, "range searched: %.4g to %.4g %s (interval %s and %s at its ends)\n", show(search.low), show(search.high),
+               unit, words(r.interval_at_low).c_str(), words(r.interval_at_high).c_str());
   if (r.found) {
     // three significant figures: the inputs behind a drain interval carry no more (the root itself in brackets)
-    std::fprintf(out, "answer: %.3g %s — the model run at the answer gives %.0f h (%d runs; root %.6g)\n", show(r.value),
-                 unit, r.interval_at_value, r.evaluations, show(r.value));
+    std::fprintf(out, "answer: %.3g %s — the model run at the answer gives %s (%d runs; root %.6g)\n", show(r.value),
+                 unit, words(r.interval_at_value).c_str(), r.evaluations, show(r.value));
     std::vector<Warning> w;
     if (*lever == Lever::jacket_water_out) w = jacket_water_warnings(r.value);
     if (*lever == Lever::fresh_tbn && r.value > high_tbn_caution)
@@ -100,13 +107,17 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
   }
   else if (target >= c.model.limits.max_hours)
     std::fprintf(out, "no answer: %s\n", r.reason.c_str());
+  else if (r.jump)
+    std::fprintf(out, "no answer: near %.4g %s the interval jumps from %s to %s, past the target%s\n", show(r.value), unit,
+                 words(r.jump_from).c_str(), words(r.jump_to).c_str(),
+                 !r.jump_from || !r.jump_to ? ": the target lies where no limit is reached" : "");
   else
-    std::fprintf(out,
-                 "no answer in the range: the interval is %.0f h at %.4g %s and %.0f h at %.4g %s, both %s the target\n",
-                 r.interval_at_low, show(search.low), unit, r.interval_at_high, show(search.high), unit,
-                 r.interval_at_low > target ? "above" : "below");
-  if (!r.found) {  // which limit holds the interval at the far end: the lever cannot move it
-    const VariantSummary far = summarize(with_lever(c, *lever, r.interval_at_high > r.interval_at_low ? search.high : search.low));
+    std::fprintf(out, "no answer in the range: the interval is %s at %.4g %s and %s at %.4g %s, both %s the target\n",
+                 words(r.interval_at_low).c_str(), show(search.low), unit, words(r.interval_at_high).c_str(), show(search.high),
+                 unit, r.interval_at_low.value_or(c.model.limits.max_hours) > target ? "above" : "below");
+  if (!r.found && !r.jump) {  // which limit holds the interval at the far end: the lever cannot move it
+    const double lo = r.interval_at_low.value_or(c.model.limits.max_hours), hi = r.interval_at_high.value_or(c.model.limits.max_hours);
+    const VariantSummary far = summarize(with_lever(c, *lever, hi > lo ? search.high : search.low));
     if (far.charge.oil_limit_reached())
       std::fprintf(out, "at the far end of the range the %s limit ends the charge (%.0f h)\n",
                    std::string(name(*far.charge.first)).c_str(), far.charge.drain_interval);

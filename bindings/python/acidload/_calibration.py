@@ -126,6 +126,12 @@ class Fit:
         return np.array(self._r.fit_estimates)
 
     @property
+    def baselines(self) -> List[Dict[str, Any]]:
+        """FTIR baselines the fit estimated, one per lab and reading where the lab file gives none and
+        the lab has no fresh-oil sample: dicts of lab, reading, value [A/cm], standard_error [A/cm], readings."""
+        return list(self._r.baselines)
+
+    @property
     def covariance(self) -> np.ndarray:
         """Covariance of the fit-space estimates, s²·(JᵀJ)⁻¹."""
         return np.array(self._r.covariance)
@@ -272,7 +278,7 @@ def monte_carlo(case: Union[Case, Variant], *, inputs: Optional[Sequence[Tuple[s
     jointly (correlated) from its covariance over its fitted case. Returns per-draw arrays
     (drain_interval_h of the first charge, first_san_h — inf where none), their P5/P10/P50/P90/P95
     (the low end the pessimistic one), with ``every_charge`` each charge of the record run on to the
-    hours cap (``charges``), and ``clipped``: draws with an input outside its range, clipped into it.
+    plant's planned maximum (``charges``), and ``clipped``: draws with an input outside its range, clipped into it.
     Identical for any thread count."""
     if inputs is None or draws is None or seed is None:
         file_inputs, file_draws, file_seed = (_core.case_uncertainty(case._file) if isinstance(case, Case)

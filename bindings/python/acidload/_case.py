@@ -42,7 +42,7 @@ class Variant:
 
     @property
     def max_hours_h(self) -> float:
-        """The hours cap on a charge [h]."""
+        """The plant's planned maximum hours on a charge [h]: the horizon, not a limit."""
         return self._engine_case.max_hours
 
     def __repr__(self) -> str:

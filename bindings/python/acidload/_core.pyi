@@ -251,6 +251,7 @@ class FitResult:
     standard_errors: List[float]  # core units (delta method)
     initial: List[float]
     fit_estimates: List[float]  # log / logit space
+    baselines: List[Dict[str, Any]]  # FTIR baselines fitted per lab [A/cm]
     covariance: List[List[float]]  # fit space
     correlation: List[List[float]]
     residuals: Dict[str, Any]

@@ -47,10 +47,12 @@ def _one_lever(levers: Dict[str, Any], what: str) -> Tuple[str, _Lever, Any]:
 
 def drain_interval(case: Union[Case, Variant], *, variant: Optional[str] = None, **lever: Any):
     """The drain interval [h] of a variant (the base case unless ``variant`` names one or a Variant is
-    given); the hours cap when no limit other than the cap is reached.
+    given); None when no oil-condition limit is reached within the plant's planned maximum
+    (``limits.max-hours``): "no limit within N h" — the horizon is never counted as an interval.
 
     With one lever keyword holding an array (any shape), the drain interval for each value, as a numpy
-    array of the same shape — the sweep runs in C++ with the GIL released::
+    array of the same shape, NaN where no limit is reached within the planned maximum — the sweep runs
+    in C++ with the GIL released::
 
         acidload.drain_interval(case, h2s_ppmv=np.linspace(0, 600, 61))
         acidload.drain_interval(case, oil_volume_l=[400, 600, 800])
@@ -66,7 +68,9 @@ def drain_interval(case: Union[Case, Variant], *, variant: Optional[str] = None,
     k, lv, values = _one_lever(lever, "drain_interval()")
     core = np.array(lv.to_core(sweep_values(values, k)), dtype=np.float64, order="C")
     out = _core.sweep_drain_interval(ec, lv.core_name, core.reshape(-1)).reshape(core.shape)
-    return out if core.ndim else float(out)
+    if core.ndim:
+        return out
+    return None if np.isnan(out) else float(out)
 
 
 @dataclass(frozen=True)
@@ -79,8 +83,12 @@ class InverseAnswer:
     target_h: float              #: the drain interval asked for [h]
     interval_at_value_h: Optional[float]  #: the forward model's interval at the answer [h]
     range: Tuple[float, float]   #: the range searched, in the lever's unit
-    interval_at_low_h: float     #: at the low end [h]
-    interval_at_high_h: float    #: at the high end [h]
+    interval_at_low_h: Optional[float]   #: at the low end [h]; None: no limit within the planned maximum
+    interval_at_high_h: Optional[float]  #: at the high end [h]; None: no limit within the planned maximum
+    jump: bool                   #: no answer: the interval jumps over the target (near ``jump_at``)
+    jump_at: Optional[float]     #: where, in the lever's unit (None unless ``jump``)
+    jump_from_h: Optional[float]  #: the interval just below the jump [h]; None: no limit within the planned maximum
+    jump_to_h: Optional[float]    #: just above it [h]; None: no limit within the planned maximum
     reason: str                  #: why there is no answer, in plain words ("" when found)
     evaluations: int             #: forward runs used
 
@@ -116,4 +124,5 @@ def solve_for_interval(case: Union[Case, Variant], *, target_h: float, variant: 
     return InverseAnswer(found=a.found, lever=k, unit=lv.unit, value=lv.from_core(a.value) if a.found else None,
                          target_h=float(target_h), interval_at_value_h=a.interval_at_value if a.found else None,
                          range=(low, high), interval_at_low_h=a.interval_at_low, interval_at_high_h=a.interval_at_high,
-                         reason=a.reason, evaluations=a.evaluations)
+                         jump=a.jump, jump_at=lv.from_core(a.value) if a.jump else None, jump_from_h=a.jump_from,
+                         jump_to_h=a.jump_to, reason=a.reason, evaluations=a.evaluations)

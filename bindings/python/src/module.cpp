@@ -282,6 +282,7 @@ py::array_t<double> fit_residuals(const EngineCase& c, const std::vector<LabSamp
     EngineCase x = c;
     for (std::size_t j = 0; j < keys.size(); ++j) set_parameter(x, keys[j], from_fit_space(parameter(keys[j]), phi[j]));
     r = predict(x, samples, Precision{});
+    profile_baselines(r, samples, baseline_groups(samples, FitSettings{}));  // the FTIR baselines a fit would fit
   }
   // then one prior row per parameter, (φ − φ₀)/σ₀ around the case's value, as calibrate has them
   py::array_t<double> out(static_cast<py::ssize_t>(r.size() + keys.size()));
@@ -700,17 +701,22 @@ PYBIND11_MODULE(_core, m) {
           py::gil_scoped_release release;
           return drain_interval(c);
         },
-        py::arg("case"), "The drain interval of a variant [h]; the hours cap when no other limit is reached.");
+        py::arg("case"), "The drain interval of a variant [h]; None when no oil-condition limit is reached within the "
+        "plant's planned maximum (limits.max-hours): 'no limit within N h'.");
   m.def("sweep_drain_interval", &sweep_for_python, py::arg("case"), py::arg("lever"), py::arg("values"),
         py::arg("threads") = 0,
-        "Drain interval [h] for each value of one lever (core unit), computed in C++ with the GIL released, on "
+        "Drain interval [h] for each value of one lever (core unit), NaN where no limit is reached within the planned "
+        "maximum, computed in C++ with the GIL released, on "
         "`threads` threads (0 = every core; the answers are the same for any count).");
   py::class_<InverseAnswer>(m, "InverseAnswer", "The answer of solve_for_interval, in the lever's core unit.")
       .def_readonly("found", &InverseAnswer::found)
       .def_readonly("value", &InverseAnswer::value, "in the lever's core unit")
-      .def_readonly("interval_at_value", &InverseAnswer::interval_at_value, "[h]")
-      .def_readonly("interval_at_low", &InverseAnswer::interval_at_low, "[h]")
-      .def_readonly("interval_at_high", &InverseAnswer::interval_at_high, "[h]")
+      .def_readonly("interval_at_value", &InverseAnswer::interval_at_value, "[h]; None: no limit within the planned maximum")
+      .def_readonly("interval_at_low", &InverseAnswer::interval_at_low, "[h]; None: no limit within the planned maximum")
+      .def_readonly("interval_at_high", &InverseAnswer::interval_at_high, "[h]; None: no limit within the planned maximum")
+      .def_readonly("jump", &InverseAnswer::jump, "no answer: the interval jumps over the target near `value`")
+      .def_readonly("jump_from", &InverseAnswer::jump_from, "[h] just below the jump; None: no limit")
+      .def_readonly("jump_to", &InverseAnswer::jump_to, "[h] just above the jump; None: no limit")
       .def_readonly("reason", &InverseAnswer::reason)
       .def_readonly("evaluations", &InverseAnswer::evaluations);
   m.def("default_search",
@@ -825,6 +831,16 @@ PYBIND11_MODULE(_core, m) {
         for (const auto& p : f.parameters) v.push_back(p.fit_estimate);
         return v;
       }, "in fit space (log or logit)")
+      .def_property_readonly("baselines", [](const FitResult& f) {
+        py::list out;
+        for (const auto& b : f.baselines) {
+          py::dict d;
+          d["lab"] = b.lab, d["reading"] = b.reading, d["value"] = b.value, d["standard_error"] = b.standard_error;
+          d["readings"] = b.readings;
+          out.append(d);
+        }
+        return out;
+      }, "FTIR baselines the fit estimated per lab [A/cm]")
       .def_readonly("covariance", &FitResult::covariance, "in fit space")
       .def_readonly("correlation", &FitResult::correlation)
       .def_property_readonly("residuals", [](const FitResult& f) { return residual_arrays(f.residuals); })

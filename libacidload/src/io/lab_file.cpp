@@ -243,6 +243,7 @@ std::vector<LabSample> read_lab_samples(const std::string& path, std::vector<std
     reading("oxidation-baseline", Kind::oxidation, ob);
     reading("nitration-baseline", Kind::oxidation, nb);
     s.oxidation_baseline = ob.value_or(0), s.nitration_baseline = nb.value_or(0);
+    s.oxidation_baseline_given = ob.has_value(), s.nitration_baseline_given = nb.has_value();
     for (std::size_t k = 0; k < trend_col.size(); ++k) {
       const std::string& cellv = t.rows[i][trend_col[k]];
       if (cellv.empty()) continue;

@@ -265,12 +265,13 @@ H2sSweep h2s_sweep(const EngineCase& record_case, double top, int points) {
   H2sSweep s;
   s.variant = c.name;
   s.own_h2s_ppmv = lever_value(c, Lever::h2s_ppmv_dry);
-  s.own_interval_h = drain_interval(c);
+  // the curve is drawn at the planned maximum where no limit is reached (the chart's reference line says so)
+  s.own_interval_h = drain_interval(c).value_or(c.model.limits.max_hours);
   points = std::clamp(points, 2, 400);
   for (int i = 0; i < points; ++i) {
     const double x = top * i / (points - 1);
     s.h2s_ppmv.push_back(x);
-    s.interval_h.push_back(drain_interval(with_lever(c, Lever::h2s_ppmv_dry, x)));
+    s.interval_h.push_back(drain_interval(with_lever(c, Lever::h2s_ppmv_dry, x)).value_or(c.model.limits.max_hours));
   }
   return s;
 }
@@ -336,6 +337,7 @@ ReportData gather_report(const CaseFile& c, const std::vector<VariantSummary>& r
   for (const EngineCase& v : c.variants) d.sweeps.push_back(h2s_sweep(v, top, o.sweep_points));
 
   d.warnings = result_warnings(c, rows);
+  if (!c.costs.empty()) d.costs = compare_costs(c.costs);
   if (!o.lab_file.empty()) {
     LabPart lab;
     lab.file = o.lab_file;
@@ -463,6 +465,8 @@ double tbn_of(const TrajectoryPoint& p, BaseNumberMethod m) { return m == BaseNu
 double tan_of(const TrajectoryPoint& p, BaseNumberMethod) { return p.tan; }
 double san_of(const TrajectoryPoint& p, BaseNumberMethod) { return p.san; }
 double ox_of(const TrajectoryPoint& p, BaseNumberMethod) { return p.state.oxidation; }
+double viscosity_of(const TrajectoryPoint& p, BaseNumberMethod) { return 100 * p.viscosity_rise; }
+double antioxidant_of(const TrajectoryPoint& p, BaseNumberMethod) { return 100 * p.state.antioxidant; }
 
 std::string th_col(const std::string& s) { return "<th scope=\"col\">" + s + "</th>"; }
 
@@ -535,7 +539,7 @@ std::string report_html(const ReportData& d) {
        "lines: each variant's drain interval. Grey dash-dot lines: limits.</p>\n";
   {
     // limits as lines: one per distinct value among the variants
-    std::vector<std::pair<double, std::string>> tbn_l, tan_l, san_l, ox_l;
+    std::vector<std::pair<double, std::string>> tbn_l, tan_l, san_l, ox_l, visc_l, aox_l;
     const auto once = [](std::vector<std::pair<double, std::string>>& v, double at, std::string label) {
       for (const auto& x : v)
         if (std::fabs(x.first - at) < 1e-9) return;
@@ -548,6 +552,8 @@ std::string report_html(const ReportData& d) {
       once(tan_l, on(Limit::tan_rise), "TAN limit " + fixed(on(Limit::tan_rise), 2));
       once(san_l, on(Limit::san), on(Limit::san) > 0 ? "SAN limit " + fixed(on(Limit::san), 2) : "SAN limit: any above 0");
       once(ox_l, on(Limit::oxidation), "oxidation limit " + fmt(on(Limit::oxidation)));
+      once(visc_l, 100 * on(Limit::viscosity), "viscosity limit +" + fixed(100 * on(Limit::viscosity), 0) + " %");
+      once(aox_l, 100 * on(Limit::antioxidant), "antioxidant limit " + fixed(100 * on(Limit::antioxidant), 0) + " %");
     }
     // TBN by the limits' method: the reading the TBN limit is judged by
     std::set<BaseNumberMethod> methods(d.tbn_methods.begin(), d.tbn_methods.end());
@@ -562,10 +568,15 @@ std::string report_html(const ReportData& d) {
                 "Figure 3. Strong acid number (SAN): free strong acid, above zero only once the reactive base is spent.");
     h << figure(reading_chart(d, "chart-oxidation", "oxidation (FTIR)", "A/cm", ox_of, ox_l),
                 "Figure 4. Oxidation of the oil (FTIR), driven by the ring-zone temperature.");
+    h << figure(reading_chart(d, "chart-viscosity", "viscosity change at 100 °C", "% over fresh", viscosity_of, visc_l),
+                "Figure 5. Change of the kinematic viscosity at 100 °C over the fresh oil's, from oxidation and "
+                "nitration (docs/model.md).");
+    h << figure(reading_chart(d, "chart-antioxidant", "antioxidant remaining", "% of fresh", antioxidant_of, aox_l),
+                "Figure 6. Antioxidant reserve left, as a share of the fresh oil's; makeup oil brings some back.");
   }
   h << "</section>\n";
 
-  int fig = 5;
+  int fig = 7;
   if (d.lab && d.lab->band) {
     const LabPart& lab = *d.lab;
     const TrajectoryBand& b = *lab.band;
@@ -681,7 +692,45 @@ std::string report_html(const ReportData& d) {
   }
   h << "</section>\n";
 
-  h << "<section aria-labelledby=\"acids\"><h2 id=\"acids\">" << s_h2s + 1 << ". Acid into the oil by species</h2>\n";
+  int next = s_h2s + 1;
+  if (!d.costs.empty()) {
+    const std::string cur = d.costs.front().currency;
+    h << "<section aria-labelledby=\"costs\"><h2 id=\"costs\">" << next++ << ". Cost per MWh against the scrubbing level</h2>\n";
+    svg::LineChart ch;
+    ch.id = "chart-costs";
+    ch.title = "Total cost per MWh of each variant against the H2S it leaves in the gas at the engine";
+    ch.x_label = "H2S at the engine, running-hours mean [ppmv, dry]";
+    ch.y_label = "total cost [" + cur + " per MWh]";
+    ch.y_from_zero = true;
+    std::string desc;
+    for (std::size_t i = 0; i < d.costs.size(); ++i) {
+      const VariantCosts& v = d.costs[i];
+      svg::Points p;
+      p.label = v.name;
+      p.look = static_cast<int>(i);
+      p.x = {v.scrubbed.mean_engine_h2s_ppmv};
+      p.y = {v.total_per_mwh};
+      p.radius = 6;
+      ch.points.push_back(p);
+      desc += v.name + ": " + fixed(v.total_per_mwh, 2) + " " + cur + " per MWh at " + fmt(v.scrubbed.mean_engine_h2s_ppmv) +
+              " ppmv (rank " + std::to_string(v.rank) + "). ";
+    }
+    double top = 0;
+    for (const VariantCosts& v : d.costs) top = std::max(top, v.scrubbed.mean_engine_h2s_ppmv);
+    ch.x_range = svg::nice_range(0, 1.08 * top + 1, 6);  // from no H2S, with room for the last marker
+    ch.description = desc;
+    h << figure(svg::line_chart(ch), "Figure " + std::to_string(fig++) + ". Total cost per MWh (oil, oil changes, lab, "
+                                         "scrubbing, downtime; invented prices unless the case file gives real ones) of "
+                                         "each variant against the H2S its scrubbing leaves at the engine.");
+    h << "<table><caption>Cost per MWh [" << esc(cur) << "]</caption><thead><tr>" << th_col("variant")
+      << th_col("H2S at the engine [ppmv, dry]") << th_col("total [" + esc(cur) + " per MWh]") << th_col("rank")
+      << "</tr></thead><tbody>\n";
+    for (const VariantCosts& v : d.costs)
+      h << "<tr><th scope=\"row\">" << esc(v.name) << "</th><td class=\"n\">" << fixed(v.scrubbed.mean_engine_h2s_ppmv, 1)
+        << "</td><td class=\"n\">" << fixed(v.total_per_mwh, 2) << "</td><td class=\"n\">" << v.rank << "</td></tr>\n";
+    h << "</tbody></table>\n</section>\n";
+  }
+  h << "<section aria-labelledby=\"acids\"><h2 id=\"acids\">" << next++ << ". Acid into the oil by species</h2>\n";
   {
     svg::BarChart bc;
     bc.id = "chart-acids";
@@ -714,7 +763,7 @@ std::string report_html(const ReportData& d) {
   h << "</section>\n";
 
   // the case as understood
-  h << "<section aria-labelledby=\"case\"><h2 id=\"case\">" << s_h2s + 2 << ". The case as understood</h2>\n"
+  h << "<section aria-labelledby=\"case\"><h2 id=\"case\">" << next++ << ". The case as understood</h2>\n"
     << "<p class=\"small\">Each input of the base case as acidload read it, with where it came from: <strong>given</strong> "
        "in the case file, <span class=\"origin-default\">default</span> (not in the file: acidload's default, see "
        "docs/case-format.md), <u><strong>fitted</strong></u> (from an overlay written by a fit) or <u><strong>overlay"
@@ -741,7 +790,7 @@ std::string report_html(const ReportData& d) {
   }
   h << "</section>\n";
 
-  h << "<section aria-labelledby=\"assumptions\"><h2 id=\"assumptions\">" << s_h2s + 3 << ". What the model assumes</h2>\n"
+  h << "<section aria-labelledby=\"assumptions\"><h2 id=\"assumptions\">" << next++ << ". What the model assumes</h2>\n"
     << "<p>acidload follows the fuel's sulfur, chlorine, fluorine and the engine's NOx through combustion (an element "
        "balance at the engine's excess air, a fixed share of the sulfur oxidised to SO3) to the two ways acid reaches "
        "the oil: condensation on the cylinder liner where the wall is below the acid dew point (the jacket-water "
@@ -753,7 +802,7 @@ std::string report_html(const ReportData& d) {
        "is in the model description, docs/model.md, in acidload's source, and every case key in docs/case-format.md.</p>\n"
     << "</section>\n";
 
-  h << "<section aria-labelledby=\"files\"><h2 id=\"files\">" << s_h2s + 4 << ". Version and input files</h2>\n"
+  h << "<section aria-labelledby=\"files\"><h2 id=\"files\">" << next++ << ". Version and input files</h2>\n"
     << "<p>Made by acidload " << esc(d.version) << " on " << esc(d.generated)
     << ". The SHA-256 hash of each input file identifies the exact file this report was made from.</p>\n"
     << "<table><caption>Input files</caption><thead><tr>" << th_col("role") << th_col("file") << th_col("SHA-256")

@@ -78,6 +78,20 @@ std::string marker(const Look& l, double x, double y, bool filled = true, double
          f2(1.2 * r) + "\"" + common + "/>";
 }
 
+std::size_t code_points(std::string_view s) {
+  std::size_t n = 0;
+  for (char ch : s) n += (static_cast<unsigned char>(ch) & 0xC0) != 0x80;
+  return n;
+}
+
+// The first n code points of UTF-8 text (never cutting one in two).
+std::string first_code_points(std::string_view s, std::size_t n) {
+  std::size_t i = 0, seen = 0;
+  for (; i < s.size(); ++i)
+    if ((static_cast<unsigned char>(s[i]) & 0xC0) != 0x80 && seen++ == n) break;
+  return std::string(s.substr(0, i));
+}
+
 std::string dash_attr(const char* dash) {
   return *dash ? std::string(" stroke-dasharray=\"") + dash + "\"" : std::string();
 }
@@ -253,6 +267,55 @@ Scales scales(const LineChart& c) {
           LinearScale{widened(yr.low, yr.high), {fr.bottom, fr.top}}};
 }
 
+Box text_box(double x, double baseline, std::string_view s, std::string_view anchor, double size) {
+  const double w = 0.62 * size * static_cast<double>(code_points(s));
+  const double left = anchor == "end" ? x - w : anchor == "middle" ? x - w / 2 : x;
+  return {left, baseline - 0.78 * size, left + w, baseline + 0.24 * size};
+}
+
+bool overlap(const Box& a, const Box& b) {
+  return a.left < b.right && b.left < a.right && a.top < b.bottom && b.top < a.bottom;
+}
+
+std::vector<PlacedLabel> place_line_labels(const LineChart& c) {
+  const Frame fr = frame(c.width, c.height);
+  const Scales sc = scales(c);
+  std::vector<PlacedLabel> placed;
+  const auto free = [&](const Box& b) {
+    if (b.left < fr.left || b.right > fr.right || b.top < fr.top || b.bottom > fr.bottom) return false;
+    for (const PlacedLabel& p : placed)
+      if (overlap(p.box, b)) return false;
+    return true;
+  };
+  const auto try_at = [&](std::size_t i, double x, double y, const char* anchor, double size) {
+    const Box b = text_box(x, y, c.lines[i].label, anchor, size);
+    if (!free(b)) return false;
+    placed.push_back({i, x, y, anchor, size, b});
+    return true;
+  };
+  using D = ReferenceLine::Direction;
+  for (std::size_t i = 0; i < c.lines.size(); ++i) {
+    const ReferenceLine& l = c.lines[i];
+    if (l.direction != D::horizontal || l.label.empty()) continue;
+    const double y = sc.y(l.at);
+    try_at(i, fr.right - 4, y - 4, "end", 10) || try_at(i, fr.right - 4, y + 12, "end", 10) ||
+        try_at(i, fr.left + 4, y - 4, "start", 10) || try_at(i, fr.left + 4, y + 12, "start", 10);
+  }
+  std::vector<std::size_t> vertical;
+  for (std::size_t i = 0; i < c.lines.size(); ++i)
+    if (c.lines[i].direction == D::vertical && !c.lines[i].label.empty()) vertical.push_back(i);
+  std::stable_sort(vertical.begin(), vertical.end(), [&](std::size_t a, std::size_t b) { return c.lines[a].at < c.lines[b].at; });
+  for (std::size_t i : vertical) {
+    const double x = sc.x(c.lines[i].at);
+    const bool left_first = fr.right - x < 40;
+    for (double y = fr.top + 11; y <= fr.bottom - 3; y += 12)
+      if (left_first ? try_at(i, x - 3, y, "end", 9.5) || try_at(i, x + 3, y, "start", 9.5)
+                     : try_at(i, x + 3, y, "start", 9.5) || try_at(i, x - 3, y, "end", 9.5))
+        break;
+  }
+  return placed;
+}
+
 std::string line_chart(const LineChart& c) {
   const Frame fr = frame(c.width, c.height);
   const Scales sc = scales(c);
@@ -278,7 +341,6 @@ std::string line_chart(const LineChart& c) {
          "\" stroke-opacity=\"0.45\" stroke-width=\"0.8\"/>";
     if (!b.label.empty()) legend_entries.push_back({b.label, b.look, false, false, true});
   }
-  int vertical = 0;
   for (const ReferenceLine& l : c.lines) {
     const char* ink = l.look < 0 ? limit_ink : look(l.look).ink;
     const char* dash = l.look < 0 ? limit_dash : look(l.look).dash;
@@ -286,18 +348,10 @@ std::string line_chart(const LineChart& c) {
       const double y = sy(l.at);
       o += "<line class=\"limit\" x1=\"" + f2(fr.left) + "\" y1=\"" + f2(y) + "\" x2=\"" + f2(fr.right) + "\" y2=\"" + f2(y) +
            "\" stroke=\"" + ink + "\" stroke-width=\"1.6\"" + dash_attr(dash) + "/>";
-      if (!l.label.empty())  // above the line, or below it where the line runs along the top
-        o += text(fr.right - 4, y - fr.top < 14 ? y + 12 : y - 4, l.label, "end", 10, " class=\"line-label\"");
     } else {
       const double x = sx(l.at);
       o += "<line class=\"interval\" x1=\"" + f2(x) + "\" y1=\"" + f2(fr.top) + "\" x2=\"" + f2(x) + "\" y2=\"" +
            f2(fr.bottom) + "\" stroke=\"" + ink + "\" stroke-width=\"1.3\"" + dash_attr(dash) + "/>";
-      if (!l.label.empty()) {  // right of the line, or left of it near the right edge
-        const bool left = fr.right - x < 40;
-        o += text(left ? x - 3 : x + 3, fr.top + 11 + 12 * (vertical % 4), l.label, left ? "end" : "start", 9.5,
-                  " class=\"line-label\"");
-      }
-      ++vertical;
     }
   }
   for (const Series& s : c.series) {
@@ -323,6 +377,7 @@ std::string line_chart(const LineChart& c) {
     }
     if (!s.label.empty()) legend_entries.push_back({s.label, s.look, true, s.markers, false});
   }
+  o += "</g>";  // points are not clipped: a marker on the frame's edge shows whole
   for (const Points& p : c.points) {
     const Look l = look(p.look);
     const std::size_t n = std::min(p.x.size(), p.y.size());
@@ -341,7 +396,8 @@ std::string line_chart(const LineChart& c) {
     o += "</g>";
     if (!p.label.empty()) legend_entries.push_back({p.label, p.look, false, true, false});
   }
-  o += "</g>";
+  for (const PlacedLabel& p : place_line_labels(c))
+    o += text(p.x, p.y, c.lines[p.line].label, p.anchor, p.size, " class=\"line-label\"");
   for (const ReferenceLine& l : c.lines)
     if (l.direction == ReferenceLine::Direction::horizontal && !l.label.empty() && l.look < 0) {
       legend_entries.push_back({"limit", -1, true, false, false});
@@ -387,8 +443,10 @@ std::string bar_chart(const BarChart& c) {
            "\" stroke-width=\"1\"><title>" + escape(c.categories[k] + ", " + (g < c.groups.size() ? c.groups[g] : "") + ": ") +
            tick_label(v, 0.01) + "</title></rect>";
     }
+    // shortened to fit its slot (text_box's width rule), so that neighbouring labels do not overlap
+    const std::size_t fits = std::min<std::size_t>(18, static_cast<std::size_t>(std::max(3.0, slot * 0.95 / (0.62 * 10))));
     std::string label = c.categories[k];
-    if (label.size() > 18) label = label.substr(0, 16) + "…";
+    if (code_points(label) > fits) label = first_code_points(label, fits - 1) + "…";
     o += text(fr.left + slot * (static_cast<double>(k) + 0.5), fr.bottom + 15, label, "middle", 10, " class=\"tick\"");
   }
   o += "</g><g class=\"legend\">";

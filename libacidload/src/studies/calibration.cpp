@@ -8,6 +8,7 @@
 #include <cmath>
 #include <optional>
 #include <limits>
+#include <map>
 
 #include "acidload/core/error.hpp"
 
@@ -168,6 +169,7 @@ struct Problem {
   std::vector<const ParameterInfo*> info;
   std::vector<double> prior, prior_sd;  // fit space
   std::vector<std::size_t> active;
+  std::vector<std::pair<std::string, std::string>> baselines;  // (lab, reading) fitted, profiled out
 
   std::vector<double> full(const Eigen::VectorXd& a) const {
     std::vector<double> phi = prior;
@@ -181,7 +183,8 @@ struct Problem {
     return c;
   }
   Eigen::VectorXd data_residuals(const Eigen::VectorXd& a) const {
-    const auto r = predict(at(a), samples, s.precision, s.lab_precision);
+    auto r = predict(at(a), samples, s.precision, s.lab_precision);
+    profile_baselines(r, samples, baselines);
     Eigen::VectorXd v(static_cast<Eigen::Index>(r.size()));
     for (std::size_t i = 0; i < r.size(); ++i) v[static_cast<Eigen::Index>(i)] = r[i].standardized;
     return v;
@@ -229,6 +232,46 @@ std::string rounded(double v, int digits = 2) {
 }
 
 }  // namespace
+
+std::vector<std::pair<std::string, std::string>> baseline_groups(const std::vector<LabSample>& samples, const FitSettings& s) {
+  std::vector<std::pair<std::string, std::string>> out;
+  if (!s.fit_ftir_baseline) return out;
+  std::map<std::pair<std::string, std::string>, std::pair<int, bool>> seen;  // readings, disqualified
+  for (const LabSample& x : samples)
+    for (const char* r : {"oxidation", "nitration"}) {
+      const bool ox = std::string(r) == "oxidation";
+      if (!(ox ? x.oxidation : x.nitration)) continue;
+      auto& g = seen[{x.lab, r}];
+      g.first++;
+      g.second |= (ox ? x.oxidation_baseline_given : x.nitration_baseline_given) || x.oil_hours <= s.fresh_sample_hours;
+    }
+  for (const auto& [k, g] : seen)
+    if (g.first >= 3 && !g.second) out.push_back(k);
+  return out;
+}
+
+std::vector<std::pair<double, double>> profile_baselines(std::vector<SampleResidual>& r, const std::vector<LabSample>& samples,
+                                                         const std::vector<std::pair<std::string, std::string>>& groups) {
+  std::vector<std::pair<double, double>> b(groups.size(), {0.0, 0.0});
+  std::vector<int> group_of(r.size(), -1);
+  for (std::size_t i = 0; i < r.size(); ++i)
+    for (std::size_t g = 0; g < groups.size(); ++g)
+      if (r[i].reading == groups[g].second && samples[r[i].sample].lab == groups[g].first) group_of[i] = static_cast<int>(g);
+  std::vector<double> num(groups.size(), 0.0);
+  for (std::size_t i = 0; i < r.size(); ++i)
+    if (group_of[i] >= 0) {
+      const double w = 1 / (r[i].sigma * r[i].sigma);
+      num[static_cast<std::size_t>(group_of[i])] += w * (r[i].measured - r[i].predicted);
+      b[static_cast<std::size_t>(group_of[i])].second += w;
+    }
+  for (std::size_t g = 0; g < groups.size(); ++g) b[g].first = b[g].second > 0 ? num[g] / b[g].second : 0;
+  for (std::size_t i = 0; i < r.size(); ++i)
+    if (group_of[i] >= 0) {
+      r[i].predicted += b[static_cast<std::size_t>(group_of[i])].first;
+      r[i].standardized = (r[i].measured - r[i].predicted) / r[i].sigma;
+    }
+  return b;
+}
 
 double chi2_upper_tail(double x, int k) {
   if (k <= 0) return 1;
@@ -280,7 +323,7 @@ FitResult calibrate(const EngineCase& c, const std::vector<LabSample>& samples, 
     s.parameters = default_parameters(c, samples, out.notes, out.warnings);
     out.notes.insert(out.notes.begin(), "parameters chosen for what the lab reports (name them to choose yourself):");
   }
-  Problem pr{c, samples, s, {}, {}, {}, {}};
+  Problem pr{c, samples, s, {}, {}, {}, {}, baseline_groups(samples, s)};
   const double sulfur = record_sulfur(c);
   for (std::size_t j = 0; j < s.parameters.size(); ++j) {
     const ParameterInfo& info = parameter(s.parameters[j]);
@@ -307,8 +350,10 @@ FitResult calibrate(const EngineCase& c, const std::vector<LabSample>& samples, 
   for (std::size_t j = 0; j < pr.active.size(); ++j) a[static_cast<Eigen::Index>(j)] = pr.prior[pr.active[j]];
   {
     const Eigen::VectorXd r = pr.data_residuals(a);
-    if (static_cast<std::size_t>(r.size()) <= p_listed)
-      throw FitRefusedError("cannot fit " + std::to_string(p_listed) + " parameter(s) to " + std::to_string(r.size()) +
+    if (static_cast<std::size_t>(r.size()) <= p_listed + pr.baselines.size())
+      throw FitRefusedError("cannot fit " + std::to_string(p_listed) + " parameter(s)" +
+                            (pr.baselines.empty() ? std::string() : " and " + std::to_string(pr.baselines.size()) + " FTIR baseline(s)") +
+                            " to " + std::to_string(r.size()) +
                             " reading(s): a fit needs more readings than parameters");
   }
   // Hold what the samples do not respond to: its data alone would leave it 20 prior widths wide.
@@ -375,11 +420,11 @@ FitResult calibrate(const EngineCase& c, const std::vector<LabSample>& samples, 
   if (a.size() == 0) out.converged = true;
 
   const Eigen::VectorXd rd = pr.data_residuals(a);
-  const Eigen::Index n = rd.size(), p = a.size();
+  const Eigen::Index n = rd.size(), p = a.size(), nb = static_cast<Eigen::Index>(pr.baselines.size());
   out.observations = static_cast<int>(n);
-  out.degrees_of_freedom = static_cast<int>(n - p);
+  out.degrees_of_freedom = static_cast<int>(n - p - nb);
   out.sum_of_squares = rd.squaredNorm();
-  out.s2 = out.sum_of_squares / static_cast<double>(n - p);
+  out.s2 = out.sum_of_squares / static_cast<double>(n - p - nb);
   out.chi2_p = chi2_upper_tail(out.sum_of_squares, out.degrees_of_freedom);
   // posterior covariance of the active ones, widened by the reduced χ² when the fit is worse than
   // the lab precisions say (never narrowed below them)
@@ -435,6 +480,33 @@ FitResult calibrate(const EngineCase& c, const std::vector<LabSample>& samples, 
   out.precision = s.precision;
   out.lab_precision = s.lab_precision;
   out.residuals = predict(out.fitted, samples, s.precision, s.lab_precision);
+  const auto fitted_b = profile_baselines(out.residuals, samples, pr.baselines);
+  // Var b̂ = max(1, s²)/Σ(1/σ²) + dᵀ·C·d, d = ∂b̂/∂φ over the fitted parameters (the mean of the
+  // readings' noise is independent of the projected residuals that set φ̂)
+  std::vector<Eigen::VectorXd> d_b(pr.baselines.size(), Eigen::VectorXd::Zero(a.size()));
+  for (Eigen::Index j = 0; j < a.size() && !pr.baselines.empty(); ++j) {
+    const double h = 1e-5 * std::max(1.0, std::fabs(a[j]));
+    Eigen::VectorXd up = a, down = a;
+    up[j] += h, down[j] -= h;
+    auto ru = predict(pr.at(up), samples, s.precision, s.lab_precision), rdn = predict(pr.at(down), samples, s.precision, s.lab_precision);
+    const auto bu = profile_baselines(ru, samples, pr.baselines), bd = profile_baselines(rdn, samples, pr.baselines);
+    for (std::size_t g = 0; g < pr.baselines.size(); ++g) d_b[g][j] = (bu[g].first - bd[g].first) / (2 * h);
+  }
+  for (std::size_t g = 0; g < pr.baselines.size(); ++g) {
+    const double var = std::max(1.0, out.s2) / fitted_b[g].second + (a.size() > 0 ? double(d_b[g].transpose() * cov * d_b[g]) : 0.0);
+    FittedBaseline fb{pr.baselines[g].first, pr.baselines[g].second, fitted_b[g].first, std::sqrt(var), 0};
+    for (LabSample& x : out.samples)
+      if (x.lab == fb.lab) {
+        const bool ox = fb.reading == "oxidation";
+        if (ox ? x.oxidation.has_value() : x.nitration.has_value()) fb.readings++;
+        (ox ? x.oxidation_baseline : x.nitration_baseline) += fb.value;
+        (ox ? x.oxidation_baseline_given : x.nitration_baseline_given) = true;
+      }
+    out.baselines.push_back(fb);
+    out.notes.push_back("FTIR " + fb.reading + " baseline of " + (fb.lab.empty() ? std::string("the lab") : fb.lab) + " fitted: " +
+                        rounded(fb.value, 3) + " ± " + rounded(fb.standard_error, 2) +
+                        " A/cm (no fresh-oil sample or baseline given; give the lab's fresh-oil reading to fix it)");
+  }
   const double s_fit = std::sqrt(out.s2);
   for (SampleResidual& x : out.residuals) {
     x.outlier = std::fabs(x.standardized) > s.outlier_threshold * std::max(1.0, s_fit);

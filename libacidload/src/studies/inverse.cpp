@@ -7,6 +7,7 @@
 #include <atomic>
 #include <cstdint>
 #include <exception>
+#include <limits>
 #include <thread>
 
 #include "acidload/core/error.hpp"
@@ -87,13 +88,14 @@ double lever_value(const EngineCase& c, Lever l) {
   return 0;
 }
 
-double drain_interval(const EngineCase& c) {
+std::optional<double> drain_interval(const EngineCase& c) {
   RunOptions o = c.options;
   o.stop_at_first_limit = true;
   o.output_interval = 0;
   const RunResult r = simulate(c.charge, c.model, c.record, o);
   const ChargeSummary& ch = r.charges.front();
-  return ch.first ? ch.drain_interval : c.model.limits.max_hours;
+  if (!ch.oil_limit_reached()) return std::nullopt;  // the planned maximum is a horizon, not an interval
+  return ch.drain_interval;
 }
 
 std::vector<double> sweep_drain_interval(const EngineCase& c, Lever l, const double* values, std::size_t n, int threads,
@@ -111,7 +113,7 @@ std::vector<double> sweep_drain_interval(const EngineCase& c, Lever l, const dou
       for (std::size_t i = b; i < std::min(n, b + block); ++i) {
         if (i > first_bad.load()) break;
         try {
-          out[i] = drain_interval(with_lever(c, l, values[i]));
+          out[i] = drain_interval(with_lever(c, l, values[i])).value_or(std::numeric_limits<double>::quiet_NaN());
         } catch (const InputError& e) {  // name the element of the sweep that was refused
           errors[b / block] = std::make_exception_ptr(
               InputError(e.key(), e.value(), e.expected() + " (element " + std::to_string(i) + " of the sweep)", e.where()));
@@ -137,37 +139,63 @@ std::vector<double> sweep_drain_interval(const EngineCase& c, Lever l, const dou
   return out;
 }
 
+namespace {
+// An interval in words for a reason: "N h", or "no limit within N h" (the planned maximum).
+std::string interval_words(const std::optional<double>& h, double planned_maximum) {
+  return h ? format_value(std::round(*h)) + " h" : "no limit within " + format_value(planned_maximum) + " h";
+}
+}  // namespace
+
 InverseAnswer solve_for_interval(const EngineCase& c, Lever lever, double target, double lo, double hi, double tol) {
   check::positive("target interval", target);
   if (!(lo < hi)) throw InputError("range", format_value(lo) + " to " + format_value(hi), "a low end below the high end");
   check::positive("tolerance", tol);
+  const double planned = c.model.limits.max_hours;
   InverseAnswer a;
-  const auto f = [&](double v) {
+  const auto interval = [&](double v) {
     ++a.evaluations;
-    return drain_interval(with_lever(c, lever, v)) - target;
+    return drain_interval(with_lever(c, lever, v));
   };
-  const double flo = f(lo), fhi = f(hi);
-  a.interval_at_low = flo + target;
-  a.interval_at_high = fhi + target;
-  if (target >= c.model.limits.max_hours) {
-    a.reason = "the target is at or beyond the hours cap (" + format_value(c.model.limits.max_hours) + " h)";
+  a.interval_at_low = interval(lo);
+  a.interval_at_high = interval(hi);
+  if (target >= planned) {
+    a.reason = "the target is at or beyond the plant's planned maximum (" + format_value(planned) +
+               " h, limits.max-hours): beyond it lies 'no limit within " + format_value(planned) + " h', not an interval";
     return a;
   }
+  // For the sign only, "no limit within N h" counts as N h: longer than any target below N h.
+  const auto margin = [&](const std::optional<double>& h) { return h.value_or(planned) - target; };
+  const double flo = margin(a.interval_at_low), fhi = margin(a.interval_at_high);
   if (flo == 0) return a.found = true, a.value = lo, a.interval_at_value = target, a;
   if (fhi == 0) return a.found = true, a.value = hi, a.interval_at_value = target, a;
   if ((flo > 0) == (fhi > 0)) {
-    a.reason = "no answer in the range: the interval is " + format_value(std::round(a.interval_at_low)) + " h at " +
-               format_value(lo) + " and " + format_value(std::round(a.interval_at_high)) + " h at " + format_value(hi) +
+    a.reason = "no answer in the range: the interval is " + interval_words(a.interval_at_low, planned) + " at " +
+               format_value(lo) + " and " + interval_words(a.interval_at_high, planned) + " at " + format_value(hi) +
                ", both " + (flo > 0 ? "above" : "below") + " the target of " + format_value(target) + " h";
     return a;
   }
   std::uintmax_t iterations = 100;
+  const auto f = [&](double v) { return margin(interval(v)); };
   const auto tolerance = [tol](double x, double y) { return std::fabs(x - y) <= tol; };
   const auto bracket = boost::math::tools::toms748_solve(f, lo, hi, flo, fhi, tolerance, iterations);
+  // The interval either side of the final bracket: a continuous crossing differs there by far less
+  // than 1 % of the target; a jump over the target (to no limit, or from one limit to another) does not.
+  const std::optional<double> left = interval(bracket.first), right = interval(bracket.second);
+  const double mid = 0.5 * (bracket.first + bracket.second);
+  if (!left || !right || std::fabs(*left - *right) > 0.01 * target) {
+    a.jump = true, a.value = mid, a.jump_from = left, a.jump_to = right;
+    a.reason = "no value gives " + format_value(target) + " h: near " + format_value(mid) + " the interval jumps from " +
+               interval_words(left, planned) + " to " + interval_words(right, planned) + ", past the target" +
+               (!left || !right ? " into the region where no limit is reached" : "");
+    return a;
+  }
   a.found = true;
-  a.value = 0.5 * (bracket.first + bracket.second);
-  a.interval_at_value = drain_interval(with_lever(c, lever, a.value));
-  ++a.evaluations;
+  a.value = mid;
+  a.interval_at_value = interval(a.value);
+  if (!a.interval_at_value) {  // cannot happen between two reached limits a hair apart; said, not hidden
+    a.found = false;
+    a.reason = "the model run at the answer reaches no limit within " + format_value(planned) + " h";
+  }
   return a;
 }
 

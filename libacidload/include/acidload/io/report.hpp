@@ -76,6 +76,7 @@ struct ReportData {
   std::vector<InputFile> files;
   std::vector<H2sSweep> sweeps;
   std::optional<LabPart> lab;
+  std::vector<VariantCosts> costs;       //!< per variant when the case has an economics section (else empty)
   std::vector<std::string> warnings;     //!< from the results and the fit, in plain words
   double tbn_share_limit = 0.5;          //!< for labels
 };

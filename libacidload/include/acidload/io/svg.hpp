@@ -4,6 +4,7 @@
 // Pure functions: a chart description in, SVG text out. Every chart carries <title> and <desc>
 // (text alternatives) and tells its series apart by line style and marker shape, not colour alone,
 // so that it reads in greyscale. Coordinates are written with 2 decimals.
+#include <cstddef>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -104,6 +105,32 @@ struct Scales {
   LinearScale x, y;
 };
 Scales scales(const LineChart& c);
+
+//! The box a line of text takes on the page [px], as the writer reckons it: the width from the
+//! number of characters (0.62 em each, a little above DejaVu Sans' average digit of 0.636 em less
+//! its side bearings), 0.78 em above the baseline and 0.24 em below. `anchor` is "start", "middle"
+//! or "end", as SVG's text-anchor.
+struct Box {
+  double left, top, right, bottom;
+};
+Box text_box(double x, double baseline, std::string_view text, std::string_view anchor, double size);
+//! Whether two boxes share any area (touching edges do not count).
+bool overlap(const Box& a, const Box& b);
+
+//! Where the labels of reference lines go (line_chart uses it; exposed for tests). Horizontal lines
+//! first, each at the first free place of: above the line at the right, below it at the right, above
+//! at the left, below at the left; then vertical lines in order of position, each at the first free
+//! row from the top (12 px apart), right of its line or, failing that or near the right edge, left.
+//! "Free": inside the frame and overlapping no label already placed. A label with no free place is
+//! left out (its value stays in the chart's description).
+struct PlacedLabel {
+  std::size_t line;   //!< index into LineChart::lines
+  double x, y;        //!< anchor point and baseline [px]
+  const char* anchor;
+  double size;        //!< font size [px]
+  Box box;
+};
+std::vector<PlacedLabel> place_line_labels(const LineChart& c);
 
 //! The chart as one <svg> element (no XML declaration: meant to be inlined in HTML or saved alone).
 std::string line_chart(const LineChart& c);

@@ -35,6 +35,7 @@ struct LabSample {
   //! The lab's FTIR reading of the fresh oil (its baseline), added to the model's oxidation and
   //! nitration, which start from 0 [A/cm].
   double oxidation_baseline = 0, nitration_baseline = 0;
+  bool oxidation_baseline_given = false, nitration_baseline_given = false;  //!< the lab file stated it for this row
   //! Readings trended but not modelled (wear metals, silicon, viscosity, water …), by column name,
   //! in the unit of lab_trend_columns(); and columns the reader did not know, as written.
   std::map<std::string, double> trended;
@@ -60,6 +61,10 @@ struct FitSettings {
   Precision precision;                  //!< for every lab not in lab_precision
   std::map<std::string, Precision> lab_precision;  //!< by the lab's name as the lab file writes it
   bool priors = true;                   //!< the weak prior per parameter (ParameterInfo::prior_sd)
+  //! Fit an FTIR baseline per lab and reading (oxidation, nitration) where the lab file states none
+  //! and the lab has no fresh-oil sample (oil hours ≤ fresh_sample_hours) but at least 3 readings.
+  bool fit_ftir_baseline = true;
+  double fresh_sample_hours = 24;
   int max_iterations = 200;
   double outlier_threshold = 3;  //!< |residual| / (σ·s) above this is flagged
 };
@@ -80,14 +85,25 @@ struct SampleResidual {
   bool censored = false, outlier = false;
 };
 
+//! An FTIR baseline the fit estimated (docs/model.md §12): the weighted mean offset of a lab's
+//! readings from the model, profiled out at every step.
+struct FittedBaseline {
+  std::string lab;           //!< as the lab file writes it ("" when it names none)
+  std::string reading;       //!< "oxidation" or "nitration"
+  double value = 0;          //!< [A/cm]
+  double standard_error = 0; //!< [A/cm]: the readings' precisions (widened by max(1, χ²ᵣ)) and the fitted parameters' covariance
+  int readings = 0;
+};
+
 struct FitResult {
   std::vector<FittedParameter> parameters;
+  std::vector<FittedBaseline> baselines;  //!< FTIR baselines fitted (their labs' samples carry them)
   std::vector<std::vector<double>> correlation;        //!< of the estimates
   std::vector<std::vector<double>> covariance;         //!< in fit space (s² (JᵀJ)⁻¹)
   std::vector<SampleResidual> residuals;
   double sum_of_squares = 0;   //!< Σ standardized² at the optimum
   int observations = 0;        //!< residuals that count
-  int degrees_of_freedom = 0;  //!< observations − parameters
+  int degrees_of_freedom = 0;  //!< observations − parameters − fitted baselines
   double s2 = 0;               //!< reduced χ² = sum_of_squares / degrees_of_freedom (goodness of fit)
   int iterations = 0;
   bool converged = false;
@@ -112,6 +128,14 @@ std::vector<std::string> default_parameters(const EngineCase& c, const std::vect
 //! The precision of one reading of a sample: the row's own figure, else its lab's, else the default.
 double reading_sigma(const LabSample& s, const std::string& reading, const Precision& fallback,
                      const std::map<std::string, Precision>& by_lab);
+
+//! The FTIR baselines a fit estimates, as (lab, reading): those with no stated baseline, no fresh-oil
+//! sample and at least 3 readings (FitSettings::fit_ftir_baseline).
+std::vector<std::pair<std::string, std::string>> baseline_groups(const std::vector<LabSample>& samples, const FitSettings& s);
+//! Profiles those baselines out of residuals (docs/model.md §12): b̂ = Σ(y − ŷ)/σ² / Σ1/σ² per group,
+//! its predictions raised and residuals lowered by b̂; returns (b̂, Σ1/σ²) per group.
+std::vector<std::pair<double, double>> profile_baselines(std::vector<SampleResidual>& r, const std::vector<LabSample>& samples,
+                                                         const std::vector<std::pair<std::string, std::string>>& groups);
 
 //! The upper tail P(X ≥ x) of a χ² distribution with k degrees of freedom.
 double chi2_upper_tail(double x, int k);

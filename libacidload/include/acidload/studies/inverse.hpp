@@ -35,10 +35,13 @@ EngineCase with_lever(const EngineCase& c, Lever l, double value);
 //! The lever's value in a case (of its first segment).
 double lever_value(const EngineCase& c, Lever l);
 
-//! The drain interval of a case [h]; the hours cap when no limit other than the cap is reached.
-double drain_interval(const EngineCase& c);
+//! The drain interval of a case [h]: the oil hours at its first oil-condition limit; none when no such
+//! limit is reached within the plant's planned maximum (limits.max-hours, a horizon, docs/model.md §9)
+//! or the record — "no limit within N h", never the horizon counted as an interval.
+std::optional<double> drain_interval(const EngineCase& c);
 
-//! drain_interval() of the case with the lever at each of `n` values [h], on `threads` threads
+//! drain_interval() of the case with the lever at each of `n` values [h], NaN where no limit is reached
+//! within the planned maximum ("no limit within N h"), on `threads` threads
 //! (0 = every core). Each value is its own run, so the answers are identical whatever the thread
 //! count. A refused value throws the InputError of the lowest refused element, naming its index.
 //! When `stop` is given and becomes true, the sweep ends early (within one block of values per
@@ -49,15 +52,20 @@ std::vector<double> sweep_drain_interval(const EngineCase& c, Lever l, const dou
 struct InverseAnswer {
   bool found = false;         //!< a value in [low, high] meets the target
   double value = 0;           //!< that value, in the lever's unit
-  double interval_at_value = 0;  //!< the forward model's interval there [h]
-  double interval_at_low = 0, interval_at_high = 0;  //!< at the ends of the range [h]
+  std::optional<double> interval_at_value;  //!< the forward model's interval there [h]
+  //! at the ends of the range [h]; none: no limit within the planned maximum there
+  std::optional<double> interval_at_low, interval_at_high;
+  bool jump = false;          //!< no answer because the interval jumps over the target, near `value`
+  std::optional<double> jump_from, jump_to;  //!< the interval just below and just above that value [h]; none: no limit
   std::string reason;         //!< why there is no answer, in plain words
   int evaluations = 0;        //!< forward runs used
 };
 
 //! The lever value in [low, high] at which the drain interval equals `target_hours`, to `tolerance`
 //! in the lever's unit (TOMS 748 bracketing). If the target lies outside what the range gives, the
-//! answer says so plainly instead of extrapolating.
+//! answer says so plainly instead of extrapolating. A target at or beyond the planned maximum, or one
+//! the interval jumps over (from a limit straight to "no limit within N h", or from one limit to
+//! another), has no answer either, and the reason says which.
 InverseAnswer solve_for_interval(const EngineCase& c, Lever lever, double target_hours, double low, double high,
                                  double tolerance);
 
