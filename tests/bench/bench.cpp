@@ -22,7 +22,7 @@
 #include <vector>
 
 #include "acidload/acidload.hpp"
-#include "acidload/core/rates.hpp"
+#include "acidload/core/oil_rates.hpp"
 #include "acidload/studies/calibration.hpp"
 #include "acidload/studies/monte_carlo.hpp"
 #include "acidload/io/case_file.hpp"

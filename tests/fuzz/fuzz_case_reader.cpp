@@ -12,6 +12,7 @@
 #include "acidload/core/error.hpp"
 #include "acidload/io/csv.hpp"
 #include "acidload/io/document.hpp"
+#include "acidload/io/key_checks.hpp"
 #include "acidload/io/quantity.hpp"
 
 #if __has_include("acidload/io/case_file.hpp")

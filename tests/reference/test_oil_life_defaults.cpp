@@ -3,7 +3,7 @@
 #include "../support/reference_check.hpp"
 
 #include "acidload/core/combustion.hpp"
-#include "acidload/core/limits.hpp"
+#include "acidload/core/condemning_limits.hpp"
 #include "acidload/core/oil.hpp"
 #include "acidload/core/transfer.hpp"
 

@@ -9,6 +9,8 @@
 
 #include "acidload/core/error.hpp"
 #include "acidload/io/document.hpp"
+#include "acidload/io/key_checks.hpp"
+#include "acidload/io/suggestions.hpp"
 
 using namespace acidload;
 using namespace acidload::io;

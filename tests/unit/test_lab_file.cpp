@@ -6,6 +6,7 @@
 
 #include "acidload/core/error.hpp"
 #include "acidload/io/case_file.hpp"
+#include "acidload/io/fitted_overlay.hpp"
 #include "acidload/io/lab_file.hpp"
 
 using namespace acidload;

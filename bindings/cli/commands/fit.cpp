@@ -1,5 +1,6 @@
 // acidload fit CASE --lab FILE --parameters KEYS: calibrate parameters to the plant's lab history.
 #include "../report.hpp"
+#include "acidload/io/fitted_overlay.hpp"
 #include "acidload/io/lab_file.hpp"
 #include "fit_common.hpp"
 

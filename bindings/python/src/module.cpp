@@ -14,6 +14,7 @@
 
 #include "acidload/acidload.hpp"
 #include "acidload/io/case_file.hpp"
+#include "acidload/io/fitted_overlay.hpp"
 #include "acidload/io/lab_file.hpp"
 #include "acidload/io/quantity.hpp"
 #include "acidload/io/report.hpp"

@@ -19,6 +19,7 @@
 //
 // Every field's comment repeats its unit in brackets.
 #include "acidload/core/combustion.hpp"
+#include "acidload/core/condemning_limits.hpp"
 #include "acidload/core/constants.hpp"
 #include "acidload/core/dew_points.hpp"
 #include "acidload/core/economics.hpp"
@@ -28,10 +29,9 @@
 #include "acidload/core/gas.hpp"
 #include "acidload/core/halocarbons.hpp"
 #include "acidload/core/heating_value.hpp"
-#include "acidload/core/limits.hpp"
 #include "acidload/core/oil.hpp"
+#include "acidload/core/oil_rates.hpp"
 #include "acidload/core/plausibility.hpp"
-#include "acidload/core/rates.hpp"
 #include "acidload/core/scrubber.hpp"
 #include "acidload/core/so3_equilibrium.hpp"
 #include "acidload/core/species.hpp"

@@ -11,8 +11,10 @@
 
 #include "acidload/io/case_file.hpp"
 #include "acidload/io/document.hpp"
+#include "acidload/io/key_checks.hpp"
 #include "acidload/io/keys.hpp"
 #include "acidload/io/quantity.hpp"
+#include "acidload/io/suggestions.hpp"
 #include "acidload/studies/operation.hpp"
 
 namespace acidload::io::detail {

@@ -8,7 +8,7 @@
 
 #include "acidload/core/halocarbons.hpp"
 #include "acidload/core/species.hpp"
-#include "acidload/core/rates.hpp"
+#include "acidload/core/oil_rates.hpp"
 #include "acidload/core/water.hpp"
 #include "acidload/studies/economics.hpp"
 #include "case_reader.hpp"

@@ -10,23 +10,19 @@
 //   - the first row is the header: names non-empty and unique.
 // Columns are 1-based and counted in characters (UTF-8 code points).
 #include "acidload/io/csv.hpp"
+#include "acidload/io/suggestions.hpp"
 
+#include "file_read.hpp"
 #include "text.hpp"
 
 #include <algorithm>
-#include <fstream>
 #include <string_view>
 #include <unordered_map>
 
 namespace acidload::io {
 
 namespace {
-
-InputWhere file_only(const std::string& file) {
-  InputWhere w;
-  w.file = file;
-  return w;
-}
+using detail::file_only;
 
 bool is_space(char c) { return c == ' ' || c == '\t'; }
 
@@ -231,20 +227,7 @@ CsvTable parse_csv(const std::string& text, const std::string& file_name, std::s
 }
 
 CsvTable read_csv(const std::string& path, std::size_t max_bytes) {
-  if (const std::string why = detail::not_a_plain_file(path); !why.empty())
-    throw InputError("file", path, "a readable CSV file (" + why + ")", file_only(path));
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw InputError("file", path, "a readable CSV file (cannot open it)", file_only(path));
-  std::string text;
-  char buf[65536];
-  while (in.read(buf, sizeof buf) || in.gcount() > 0) {
-    text.append(buf, static_cast<std::size_t>(in.gcount()));
-    if (text.size() > max_bytes)
-      throw InputError("file", "more than " + std::to_string(max_bytes) + " bytes",
-                       "a file of at most " + std::to_string(max_bytes) + " bytes", file_only(path));
-    if (!in) break;
-  }
-  if (in.bad()) throw InputError("file", path, "a readable CSV file (reading it failed)", file_only(path));
+  const std::string text = detail::read_capped_file(path, max_bytes, "CSV", "file");
   return parse_csv(text, path, max_bytes);
 }
 

@@ -16,7 +16,9 @@
 // whether that is an error.
 #include "acidload/io/document.hpp"
 
+#include "file_read.hpp"
 #include "text.hpp"
+#include "utf8.hpp"
 
 #include <yaml-cpp/eventhandler.h>
 #include <yaml-cpp/exceptions.h>
@@ -26,34 +28,21 @@
 #include <algorithm>
 #include <cstdint>
 #include <cstdio>
-#include <fstream>
 #include <sstream>
 #include <unordered_map>
 
 namespace acidload::io {
 
 namespace {
+using detail::code_points;
 using detail::describe;
+using detail::file_only;
 using detail::display_line;
 using detail::split_lines;
-
-InputWhere file_only(const std::string& file) {
-  InputWhere w;
-  w.file = file;
-  return w;
-}
 
 const std::string top_level = "(top level)";
 
 std::string shown_key(const std::string& path) { return path.empty() ? top_level : path; }
-
-// Number of UTF-8 code points in s (continuation bytes are not counted).
-int code_points(std::string_view s) {
-  int n = 0;
-  for (unsigned char c : s)
-    if ((c & 0xC0) != 0x80) ++n;
-  return n;
-}
 
 // A 1-based line and byte column → 1-based character column.
 int char_column(const std::vector<std::string>& lines, int line, int byte_column0) {
@@ -136,65 +125,16 @@ std::string token_at(std::string_view text, std::size_t pos) {
   return std::string(text.substr(pos, std::min<std::size_t>(end - pos, 40)));
 }
 
-// Decodes one UTF-8 sequence at s[i]; returns its length, or 0 if it is not valid UTF-8
-// (overlong forms, surrogates and code points beyond U+10FFFF are invalid).
-std::size_t utf8_length(std::string_view s, std::size_t i, std::uint32_t& cp) {
-  const auto b = [&](std::size_t k) { return static_cast<unsigned char>(s[i + k]); };
-  const unsigned char c = b(0);
-  std::size_t n;
-  if (c < 0x80) {
-    cp = c;
-    return 1;
-  } else if (c >= 0xC2 && c <= 0xDF) {
-    n = 2;
-    cp = c & 0x1F;
-  } else if (c >= 0xE0 && c <= 0xEF) {
-    n = 3;
-    cp = c & 0x0F;
-  } else if (c >= 0xF0 && c <= 0xF4) {
-    n = 4;
-    cp = c & 0x07;
-  } else {
-    return 0;
-  }
-  if (i + n > s.size()) return 0;
-  for (std::size_t k = 1; k < n; ++k) {
-    if ((b(k) & 0xC0) != 0x80) return 0;
-    cp = (cp << 6) | (b(k) & 0x3F);
-  }
-  if ((n == 3 && cp < 0x800) || (n == 4 && (cp < 0x10000 || cp > 0x10FFFF)) || (cp >= 0xD800 && cp <= 0xDFFF))
-    return 0;
-  return n;
-}
-
-// Refuses text yaml-cpp would read differently from how we count lines: invalid UTF-8, control
-// characters (other than tab, LF and CR before LF), C1 controls and the Unicode line and paragraph
-// separators, and a byte-order mark anywhere but at the start (removed before this check).
+// Refuses text yaml-cpp would read differently from how we count lines (detail::first_text_fault),
+// at the faulty byte.
 void check_text(std::string_view text, const std::vector<std::string>& lines, const std::string& file) {
-  for (std::size_t i = 0; i < text.size();) {
-    std::uint32_t cp = 0;
-    const std::size_t n = utf8_length(text, i, cp);
-    std::string what;
-    if (n == 0) {
-      what = "UTF-8 text (this byte is not valid UTF-8)";
-    } else if (cp == '\r') {
-      if (i + 1 >= text.size() || text[i + 1] != '\n') what = "line ends LF or CR LF (a lone CR is here)";
-    } else if ((cp < 0x20 && cp != '\t' && cp != '\n') || cp == 0x7F || (cp >= 0x80 && cp <= 0x9F)) {
-      what = "text without control characters";
-    } else if (cp == 0x2028 || cp == 0x2029) {
-      what = "line ends LF or CR LF (a Unicode line or paragraph separator is here)";
-    } else if (cp == 0xFEFF) {
-      what = "text without a byte-order mark after its start";
-    }
-    if (!what.empty()) {
-      const Mark m = mark_of_offset(text, lines, i);
-      char code[8];
-      std::snprintf(code, sizeof code, "0x%02X", static_cast<unsigned char>(text[i]));
-      throw InputError(top_level, std::string("byte ") + code, what,
-                       InputWhere{file, m.line, m.column, display_line(lines, m.line)});
-    }
-    i += n;
-  }
+  detail::TextFault f;
+  if (!detail::first_text_fault(text, f)) return;
+  const Mark m = mark_of_offset(text, lines, f.offset);
+  char code[8];
+  std::snprintf(code, sizeof code, "0x%02X", static_cast<unsigned char>(text[f.offset]));
+  throw InputError(top_level, std::string("byte ") + code, f.expected,
+                   InputWhere{file, m.line, m.column, display_line(lines, m.line)});
 }
 
 // Thrown through yaml-cpp by the handler; the InputError inside is rethrown by parse_document.
@@ -402,35 +342,6 @@ class TreeBuilder : public YAML::EventHandler {
   static constexpr std::size_t max_path = 512;
 };
 
-
-std::string to_lower(std::string_view s) {
-  std::string r(s);
-  for (char& c : r)
-    if (c >= 'A' && c <= 'Z') c = static_cast<char>(c - 'A' + 'a');
-  return r;
-}
-
-std::size_t levenshtein(const std::string& a, const std::string& b) {
-  std::vector<std::size_t> row(b.size() + 1);
-  for (std::size_t j = 0; j <= b.size(); ++j) row[j] = j;
-  for (std::size_t i = 1; i <= a.size(); ++i) {
-    std::size_t diag = row[0];
-    row[0] = i;
-    for (std::size_t j = 1; j <= b.size(); ++j) {
-      const std::size_t up = row[j];
-      row[j] = std::min({row[j] + 1, row[j - 1] + 1, diag + (a[i - 1] == b[j - 1] ? 0 : 1)});
-      diag = up;
-    }
-  }
-  return row[b.size()];
-}
-
-std::string join_list(const std::vector<std::string>& items) {
-  std::string s;
-  for (std::size_t i = 0; i < items.size(); ++i) s += (i ? ", " : "") + items[i];
-  return s;
-}
-
 }  // namespace
 
 const Node* Node::find(std::string_view key) const {
@@ -478,51 +389,8 @@ Document parse_document(std::string_view text, std::string file_name, const Read
 }
 
 Document read_document(const std::string& path, const ReadLimits& limits) {
-  if (const std::string why = detail::not_a_plain_file(path); !why.empty())
-    throw InputError("file", path, "a readable YAML file (" + why + ")", file_only(path));
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw InputError("file", path, "a readable YAML file (cannot open it)", file_only(path));
-  std::string text;
-  char buf[65536];
-  while (in.read(buf, sizeof buf) || in.gcount() > 0) {
-    text.append(buf, static_cast<std::size_t>(in.gcount()));
-    if (text.size() > limits.max_bytes)
-      throw InputError(top_level, "more than " + std::to_string(limits.max_bytes) + " bytes",
-                       "a file of at most " + std::to_string(limits.max_bytes) + " bytes", file_only(path));
-    if (!in) break;
-  }
-  if (in.bad()) throw InputError("file", path, "a readable YAML file (reading it failed)", file_only(path));
+  const std::string text = detail::read_capped_file(path, limits.max_bytes, "YAML", top_level);
   return parse_document(text, path, limits);
-}
-
-std::string closest(std::string_view word, const std::vector<std::string>& candidates) {
-  const std::string w = to_lower(word);
-  const std::size_t limit = std::max<std::size_t>(2, w.size() / 3);
-  std::string best;
-  std::size_t best_d = limit + 1;
-  for (const auto& c : candidates) {
-    const std::size_t d = levenshtein(w, to_lower(c));
-    if (d < best_d) {
-      best_d = d;
-      best = c;
-    }
-  }
-  return best;
-}
-
-void require_keys(const Document& doc, const Node& map, const std::vector<std::string>& allowed) {
-  const std::string section = shown_key(map.path);
-  if (map.type != Node::Type::map)
-    throw doc.error(map, describe(map), "a map of the keys of " + section + ": " + join_list(allowed));
-  for (std::size_t i = 0; i < map.entries.size(); ++i) {
-    const std::string& key = map.entries[i].first;
-    if (std::find(allowed.begin(), allowed.end(), key) != allowed.end()) continue;
-    std::string expected = "one of the keys of " + section + ": " + join_list(allowed);
-    const std::string near = closest(key, allowed);
-    if (!near.empty()) expected += " (closest: '" + near + "')";
-    const Mark at = i < map.key_marks.size() ? map.key_marks[i] : map.mark;
-    throw doc.error(at, map.path.empty() ? key : map.path + "." + key, key, expected);
-  }
 }
 
 }  // namespace acidload::io

@@ -14,6 +14,7 @@
 #include "acidload/io/csv.hpp"
 #include "acidload/io/quantity.hpp"
 #include "acidload/io/results.hpp"
+#include "acidload/io/suggestions.hpp"
 
 namespace acidload::io {
 
@@ -22,21 +23,6 @@ const std::vector<std::string> lab_columns = {"charge", "oil-hours", "engine-hou
                                               "tbn", "tbn-method", "tan", "san", "i-ph", "oxidation", "nitration", "ftir-unit",
                                               "tbn-sd", "tan-sd", "san-sd", "oxidation-sd", "nitration-sd",
                                               "oxidation-baseline", "nitration-baseline"};
-
-std::size_t edit_distance(const std::string& a, const std::string& b) {
-  std::vector<std::size_t> row(b.size() + 1);
-  for (std::size_t j = 0; j <= b.size(); ++j) row[j] = j;
-  for (std::size_t i = 1; i <= a.size(); ++i) {
-    std::size_t diag = row[0];
-    row[0] = i;
-    for (std::size_t j = 1; j <= b.size(); ++j) {
-      const std::size_t up = row[j];
-      row[j] = std::min({row[j] + 1, row[j - 1] + 1, diag + (a[i - 1] == b[j - 1] ? 0 : 1)});
-      diag = up;
-    }
-  }
-  return row[b.size()];
-}
 
 // "2026-03-14", "2026-03-14 08:30" or "2026-03-14T08:30": digits in place, month, day, hour and minute in range.
 bool iso_date(const std::string& v) {
@@ -279,57 +265,6 @@ std::vector<LabSample> read_lab_samples(const std::string& path, std::vector<std
     out.push_back(s);
   }
   return out;
-}
-
-namespace {
-std::string g(double v) {
-  char b[40];
-  std::snprintf(b, sizeof b, "%.9g", v);
-  return b;
-}
-// The value as a case file writes it.
-std::string written(const std::string& key, double v) {
-  static const std::map<std::string, std::string> unit = {
-      {"model.liner-wall-rise", "K"},           {"model.oxidation-rate", "A/cm/h"},
-      {"model.ring-zone-offset", "K"},          {"model.weak-base-d2896", "mg KOH/g"},
-      {"model.weak-base-d4739", "mg KOH/g"},    {"model.base-floor", "mg KOH/g"},
-      {"model.additive-depletion", "1/h"},      {"engine.jacket-water-out", "K"},
-      {"oil.fresh-tbn", "mg KOH/g"},            {"oil.volume", "m3"},
-      {"fuel.h2s", "ppmv"},                     {"model.induction-time", "h"}};
-  static const std::vector<std::string> bare = {"model.wet-so2-factor", "model.organic-acid-yield", "model.nitration-yield",
-                                                "model.depleted-oxidation-factor", "model.viscosity-per-oxidation",
-                                                "model.viscosity-per-nitration"};
-  const auto it = unit.find(key);
-  if (it != unit.end()) return g(v) + " " + it->second;
-  if (std::find(bare.begin(), bare.end(), key) != bare.end()) return g(v);
-  return g(v * 100) + " %";  // the shares
-}
-}  // namespace
-
-std::string overlay_text(const FitResult& fit, const std::string& case_file, const std::string& lab_file) {
-  std::map<std::string, std::vector<std::pair<std::string, std::string>>> sections;
-  for (const FittedParameter& p : fit.parameters) {
-    const auto dot = p.key.find('.');
-    sections[p.key.substr(0, dot)].push_back({p.key.substr(dot + 1), written(p.key, p.estimate) + "   # ± " +
-                                                                      written(p.key, p.standard_error) + " (1 standard error)"});
-  }
-  std::string o = overlay_signature + std::string(version()) + " to " + lab_file + " for " + case_file + ".\n" +
-                  "# Apply with: acidload run " + case_file + " --overlay <this file>\n" +
-                  "# Reduced chi-square " + g(fit.s2) + " on " + std::to_string(fit.degrees_of_freedom) +
-                  " degrees of freedom. Estimates support, not replace, lab analysis and the engine maker's limits.\n" +
-                  "format-version: 1\n";
-  for (const auto& [section, entries] : sections) {
-    o += section + ":\n";
-    for (const auto& [k, v] : entries) o += "  " + k + ": " + v + "\n";
-  }
-  return o;
-}
-
-void write_overlay(const std::string& path, const FitResult& fit, const std::string& case_file, const std::string& lab_file,
-                   const std::vector<std::string>& other_inputs) {
-  std::vector<std::string> inputs{case_file, lab_file};
-  inputs.insert(inputs.end(), other_inputs.begin(), other_inputs.end());
-  write_owned_file(path, overlay_text(fit, case_file, lab_file), overlay_signature, inputs);
 }
 
 }  // namespace acidload::io

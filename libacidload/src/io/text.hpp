@@ -11,6 +11,13 @@
 
 namespace acidload::io::detail {
 
+//! Where an error lies when only the file is known.
+inline InputWhere file_only(const std::string& file) {
+  InputWhere w;
+  w.file = file;
+  return w;
+}
+
 //! Splits text into lines without their line ends (LF or CR LF).
 inline std::vector<std::string> split_lines(std::string_view text) {
   std::vector<std::string> lines;

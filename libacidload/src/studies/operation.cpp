@@ -2,7 +2,7 @@
 
 #include "acidload/core/error.hpp"
 #include "acidload/core/fuel.hpp"
-#include "acidload/core/rates.hpp"
+#include "acidload/core/oil_rates.hpp"
 
 namespace acidload {
 

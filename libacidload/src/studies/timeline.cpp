@@ -5,7 +5,7 @@
 #include <type_traits>
 
 #include "acidload/core/error.hpp"
-#include "acidload/core/rates.hpp"
+#include "acidload/core/oil_rates.hpp"
 #include "acidload/core/species.hpp"
 
 namespace acidload {

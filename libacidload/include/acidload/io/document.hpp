@@ -60,12 +60,6 @@ Document parse_document(std::string_view text, std::string file_name, const Read
 //! Reads and parses a file; a missing or unreadable file is an InputError naming it.
 Document read_document(const std::string& path, const ReadLimits& limits = {});
 
-//! The candidate closest to `word` by edit distance (case-insensitive), or "" when none is close
-//! (distance more than a third of the word's length, at least 2).
-std::string closest(std::string_view word, const std::vector<std::string>& candidates);
-
-//! Checks that a map holds only `allowed` keys; an unknown key throws, listing the valid keys and
-//! the closest one. A non-map node throws "expected a map of …".
-void require_keys(const Document& doc, const Node& map, const std::vector<std::string>& allowed);
+// Spelling suggestions: acidload/io/suggestions.hpp; key validation: acidload/io/key_checks.hpp.
 
 }  // namespace acidload::io

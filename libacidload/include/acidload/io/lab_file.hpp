@@ -1,6 +1,5 @@
 #pragma once
-// Lab results as a CSV file, the uncertainty section of a case, and fitted parameters written
-// as an overlay that `acidload run --overlay` accepts.
+// Lab results as a CSV file (the fitted parameters are written as an overlay by fitted_overlay.hpp).
 //
 // Lab CSV columns (names ours; a header "tbn [mg KOH/g]" gives bare cells that unit):
 //   charge        which oil charge of the case's record, 1 = the first      (required)
@@ -42,15 +41,5 @@ const std::vector<TrendColumn>& lab_trend_columns();
 //! Reads lab samples; every mistake names the file, line, column, the column and the cell. Notes
 //! (columns carried through unread) go to `notes` when given.
 std::vector<LabSample> read_lab_samples(const std::string& path, std::vector<std::string>* notes = nullptr);
-
-//! How an overlay acidload wrote begins (its first line, followed by the version).
-inline constexpr const char* overlay_signature = "# Fitted by acidload ";
-//! The fitted parameters as overlay text (format version 1), in case-file units.
-std::string overlay_text(const FitResult& fit, const std::string& case_file, const std::string& lab_file);
-//! Writes the overlay atomically (io::write_owned_file): refused for the case, the lab file and
-//! `other_inputs` (overlays, any file the command read), and for an existing file that is not an
-//! overlay acidload wrote.
-void write_overlay(const std::string& path, const FitResult& fit, const std::string& case_file,
-                   const std::string& lab_file, const std::vector<std::string>& other_inputs = {});
 
 }  // namespace acidload::io

@@ -9,7 +9,7 @@
 #include <string>
 #include <vector>
 
-#include "acidload/core/limits.hpp"
+#include "acidload/core/condemning_limits.hpp"
 #include "acidload/core/oil.hpp"
 #include "acidload/studies/parameters.hpp"
 #include "acidload/studies/whatif.hpp"

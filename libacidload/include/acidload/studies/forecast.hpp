@@ -9,7 +9,7 @@
 #include <string>
 #include <vector>
 
-#include "acidload/core/limits.hpp"
+#include "acidload/core/condemning_limits.hpp"
 #include "acidload/studies/calibration.hpp"
 
 namespace acidload {

@@ -7,7 +7,7 @@
 #include <vector>
 
 #include "acidload/core/fuel.hpp"
-#include "acidload/core/limits.hpp"
+#include "acidload/core/condemning_limits.hpp"
 #include "acidload/core/oil.hpp"
 #include "acidload/core/transfer.hpp"
 

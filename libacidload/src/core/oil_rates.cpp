@@ -1,4 +1,4 @@
-#include "acidload/core/rates.hpp"
+#include "acidload/core/oil_rates.hpp"
 
 #include "acidload/core/constants.hpp"
 #include "acidload/core/error.hpp"

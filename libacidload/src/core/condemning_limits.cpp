@@ -1,4 +1,4 @@
-#include "acidload/core/limits.hpp"
+#include "acidload/core/condemning_limits.hpp"
 
 #include "acidload/core/error.hpp"
 
