@@ -74,11 +74,26 @@ def test_uncertainty_parameters_are_the_calibratable_keys_and_the_prices():
 
 
 def test_fit_parameters_are_the_calibratable_keys():
+    # the names fit (--parameters) and uncertainty accept are the parameter table's
+    # (studies/parameters.cpp); the registry's calibratable rows must be exactly those, oil.consumption
+    # included, and a name either side lacks fails here
+    acidload = need_acidload()
+    calibratable = [k["path"] for k in registry() if k["calibratable"]]
+    fit = list(acidload._core.parameter_keys())
+    assert len(set(fit)) == len(fit) and len(set(calibratable)) == len(calibratable)
+    assert set(fit) == set(calibratable), {"only in the parameter table": set(fit) - set(calibratable),
+                                           "only in the registry": set(calibratable) - set(fit)}
+    assert "oil.consumption" in calibratable
+
+
+def test_solve_levers_set_calibratable_keys():
+    # each lever of solve sets one case key, the same one fit and uncertainty vary under that name
     acidload = need_acidload()
     calibratable = {k["path"] for k in registry() if k["calibratable"]}
-    fit = set(acidload._core.parameter_keys())
-    # oil.consumption is fitted in kg/h from a record; the case gives it as g/kWh, so it is no case key to vary
-    assert fit - {"oil.consumption"} == calibratable
+    levers = dict(acidload._core.lever_keys())
+    assert set(levers) == {"h2s", "fresh-tbn", "jacket-water-out", "oil-volume"}
+    assert set(levers.values()) <= calibratable, set(levers.values()) - calibratable
+    assert set(levers.values()) <= set(acidload._core.parameter_keys())
 
 
 def test_alternatives_are_pairs():

@@ -92,6 +92,16 @@ uncertainty:
   CHECK(c.uncertainty.inputs[2].distribution.c == doctest::Approx(0.03));
   CHECK_THROWS_AS(io::load_case_text(std::string(text) + "    - {parameter: model.so3-share, distribution: uniform, low: 3 %, high: 1 %}\n", "u.yaml", "."), InputError);
   CHECK_THROWS_AS(io::load_case_text(std::string(text) + "    - {parameter: model.so3-shar, distribution: uniform, low: 1 %, high: 3 %}\n", "u.yaml", "."), InputError);
+  {  // oil.consumption varies as the fit varies it: an oil flow in kg/h (or g/h), not g/kWh
+    const io::CaseFile oc = io::load_case_text(
+        std::string(text) + "    - {parameter: oil.consumption, distribution: uniform, low: 40 g/h, high: 0.08 kg/h}\n", "u.yaml", ".");
+    CHECK(oc.uncertainty.inputs[3].distribution.a == doctest::Approx(0.04));
+    CHECK(oc.uncertainty.inputs[3].distribution.b == doctest::Approx(0.08));
+    CHECK(oc.uncertainty.inputs[3].unit == "kg/h");
+    CHECK_THROWS_WITH_AS(io::load_case_text(std::string(text) + "    - {parameter: oil.consumption, distribution: uniform, low: 0.1 g/kWh, high: 0.3 g/kWh}\n",
+                                            "u.yaml", "."),
+                         doctest::Contains("an oil flow in kg/h or g/h"), InputError);
+  }
 
   FitResult fit;
   fit.s2 = 1.1;

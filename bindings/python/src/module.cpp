@@ -766,6 +766,11 @@ PYBIND11_MODULE(_core, m) {
     io::read_lab_samples(path, &notes);
     return notes;
   }, py::arg("path"), "The notes reading a lab file gives (columns carried through unread).");
+  m.def("lever_keys", []() {
+    std::vector<std::pair<std::string, std::string>> k;
+    for (Lever l : all_levers) k.emplace_back(std::string(name(l)), std::string(case_key(l)));
+    return k;
+  }, "(lever, case key) for every lever of solve: the parameter of fit and uncertainty each one sets.");
   m.def("parameter_keys", []() {
     std::vector<std::string> k;
     for (const auto& p : parameter_table()) k.push_back(p.key);

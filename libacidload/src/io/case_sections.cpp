@@ -556,6 +556,13 @@ UncertaintySettings read_uncertainty(const Reader& r, const Node& u) {
       const Node* n = item.find(field);
       if (!n) r.fail(item, "(no " + std::string(field) + ")", std::string("a '") + field + "' for a " + dist + " distribution");
       if (k == bare) return quantity(r.doc(*n), *n, Kind::number);
+      if (key == "oil.consumption") {  // varied as the fit varies it: kg/h of the first segment
+        double v = 0;
+        std::string unit;
+        const bool ok = number_and_unit(r, *n, v, unit) && (unit == "kg/h" || unit == "g/h");
+        if (!ok) r.fail(*n, n->scalar, "an oil flow in kg/h or g/h (oil.consumption varies as the fit varies it)");
+        return unit == "g/h" ? v * 1e-3 : v;
+      }
       if (pk.type == KeyType::contaminant) {  // written as a contaminant figure in ppmv
         const Concentration c = r.contaminant(*n, Basis::dry);
         if (c.unit != ConcentrationUnit::ppmv || c.basis != Basis::dry) r.fail(*n, n->scalar, "an H2S figure in ppmv (dry)");
@@ -568,7 +575,9 @@ UncertaintySettings read_uncertainty(const Reader& r, const Node& u) {
     {  // refused draws are shown in the unit the first figure was written in
       const Node* first = item.find(dist == "normal" ? "mean" : dist == "lognormal" ? "median" : "low");
       const std::string u = first ? unit_written(first->scalar) : "";
-      if (pk.type == KeyType::contaminant) {
+      if (key == "oil.consumption") {
+        x.unit = "kg/h";
+      } else if (pk.type == KeyType::contaminant) {
         x.unit = "ppmv";
       } else if (!u.empty() || kind == Kind::fraction) {
         x.unit = u.empty() ? "" : u;

@@ -187,7 +187,8 @@ std::vector<CaseKey> build_table() {
           "OilProperties::fresh_tbn"));
   b.w("tbn-method", {"D2896", "D4739"}, "D2896", "the method of `fresh-tbn`", "OilProperties::fresh_tbn_method");
   b.q("fresh-tan", K::acid_number, 0, 20, "mg KOH/g", "1.5 mg KOH/g", "fresh-oil acid number (D664)", "OilProperties::fresh_tan");
-  b.q("consumption", K::specific_consumption, 0, 5e-9, "g/kWh", "0.2 g/kWh", "oil burnt", "Segment::oil_consumption");
+  cal(b.q("consumption", K::specific_consumption, 0, 5e-9, "g/kWh", "0.2 g/kWh",
+          "oil burnt (fit and uncertainty vary it as kg/h of the first segment)", "Segment::oil_consumption"));
   b.w("makeup", {"continuous", "top-ups"}, "continuous",
       "makeup keeps the level, or the level falls until a `top-up` event", "OilCharge::continuous_makeup");
   b.q("residual-share", K::fraction, 0, 0.9, "%", "10 %", "of the charge left in the system at an oil change",

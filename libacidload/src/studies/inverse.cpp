@@ -25,8 +25,18 @@ std::string_view name(Lever l) {
   return "?";
 }
 
+std::string_view case_key(Lever l) {
+  switch (l) {
+    case Lever::h2s_ppmv_dry: return "fuel.h2s";
+    case Lever::fresh_tbn: return "oil.fresh-tbn";
+    case Lever::jacket_water_out: return "engine.jacket-water-out";
+    case Lever::oil_volume: return "oil.volume";
+  }
+  return "?";
+}
+
 std::optional<Lever> lever_named(std::string_view word) {
-  for (Lever l : {Lever::h2s_ppmv_dry, Lever::fresh_tbn, Lever::jacket_water_out, Lever::oil_volume})
+  for (Lever l : all_levers)
     if (name(l) == word) return l;
   return std::nullopt;
 }

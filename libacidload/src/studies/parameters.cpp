@@ -88,10 +88,8 @@ bool per_segment(std::string_view key) { return key == "engine.blow-by" || key =
 
 double get_parameter(const EngineCase& c, std::string_view key) {
   parameter(key);
-  if (key == "engine.jacket-water-out") return lever_value(c, Lever::jacket_water_out);
-  if (key == "fuel.h2s") return lever_value(c, Lever::h2s_ppmv_dry);
-  if (key == "oil.fresh-tbn") return lever_value(c, Lever::fresh_tbn);
-  if (key == "oil.volume") return lever_value(c, Lever::oil_volume);
+  for (Lever l : all_levers)
+    if (key == case_key(l)) return lever_value(c, l);
   return *field(const_cast<EngineCase&>(c), key, 0);
 }
 
@@ -102,11 +100,12 @@ void set_parameter(EngineCase& c, std::string_view key, double v) {
                                        : p.bound == Bound::interval ? v >= p.low && v <= p.high
                                                                     : true);
   if (!ok) throw InputError(std::string(key), format_value(v), "a value " + range_text(p));
-  if (key == "engine.jacket-water-out") c = with_lever(c, Lever::jacket_water_out, v);
-  else if (key == "fuel.h2s") c = with_lever(c, Lever::h2s_ppmv_dry, v);
-  else if (key == "oil.fresh-tbn") c = with_lever(c, Lever::fresh_tbn, v);
-  else if (key == "oil.volume") c = with_lever(c, Lever::oil_volume, v);
-  else if (per_segment(key)) {
+  for (Lever l : all_levers)
+    if (key == case_key(l)) {
+      c = with_lever(c, l, v);
+      return;
+    }
+  if (per_segment(key)) {
     // scale every segment by the same factor, so a record's variation is kept
     const double first = *field(c, key, 0);
     for (std::size_t i = 0; i < c.record.size(); ++i) {

@@ -19,6 +19,11 @@ enum class Lever {
   oil_volume,         //!< oil in circulation at 15 °C [m³]
 };
 std::string_view name(Lever l);  //!< "h2s", "fresh-tbn", "jacket-water-out", "oil-volume"
+//! The case key a lever sets, as fit and uncertainty name it: "fuel.h2s", "oil.fresh-tbn",
+//! "engine.jacket-water-out", "oil.volume" (each a parameter of studies/parameters.hpp).
+std::string_view case_key(Lever l);
+//! Every lever, in the order solve lists them.
+inline constexpr Lever all_levers[] = {Lever::h2s_ppmv_dry, Lever::fresh_tbn, Lever::jacket_water_out, Lever::oil_volume};
 //! The lever name() calls `word`; nullopt for any other word.
 std::optional<Lever> lever_named(std::string_view word);
 
