@@ -473,3 +473,44 @@ TEST_CASE("an FTIR baseline is fitted per lab only where none is stated and no f
   fs.fit_ftir_baseline = false;
   CHECK(calibrate(history_case(), s, fs).baselines.empty());
 }
+
+TEST_CASE("a fit whose optimum lies on a parameter's range limit: one-sided differences there, converged inside the range") {
+  // The depleted-oxidation factor m (docs/model.md §16) is fitted on a log scale (above 0), but the
+  // model accepts it only from 1 (the antioxidant spent cannot slow oxidation down), so a step below
+  // 1 is refused. Readings made with half the oxidation rate and m = 1, fitted with the case's rate
+  // and only m free, want m below 1: the optimum sits on the limit. The fit must stop on it, inside
+  // the range, with a finite slope taken one-sided (a central difference would ask the model for
+  // m < 1 and get a refusal; a zero column instead would leave the standard error infinite).
+  EngineCase base = history_case();
+  set_parameter(base, "model.induction-time", 200);
+  EngineCase t = base;
+  set_parameter(t, "model.oxidation-rate", 0.5 * get_parameter(base, "model.oxidation-rate"));
+  set_parameter(t, "model.depleted-oxidation-factor", 1.0);
+  Precision p;
+  std::vector<LabSample> s = history_samples(t, 1, p);
+  for (const SampleResidual& r : predict(t, s, p)) {  // noise-free readings
+    LabSample& x = s[r.sample];
+    if (r.reading == "tbn") x.tbn = r.predicted;
+    if (r.reading == "tan") x.tan = r.predicted;
+    if (r.reading == "oxidation") x.oxidation = r.predicted;
+  }
+  {  // the limit is the model's: a run below it is refused
+    EngineCase below = base;
+    set_parameter(below, "model.depleted-oxidation-factor", 0.999);
+    CHECK_THROWS_AS(predict(below, s, p), InputError);
+  }
+  FitSettings fs;
+  fs.parameters = {"model.depleted-oxidation-factor"};
+  fs.priors = false;
+  const FitResult f = calibrate(base, s, fs);
+  REQUIRE(f.parameters.size() == 1);
+  const FittedParameter& m = f.parameters[0];
+  INFO("estimate " << m.estimate << ", standard error " << m.standard_error << ", " << f.iterations << " iterations");
+  CHECK(f.converged);
+  CHECK(!m.held);
+  CHECK(m.estimate >= 1.0);
+  // on the limit to within the fit's difference step (1e-5 in ln m): the down-step there is refused
+  CHECK(m.estimate < 1.0 + 1e-5);
+  CHECK(std::isfinite(m.standard_error));
+  CHECK(m.standard_error > 0);
+}
