@@ -6,6 +6,7 @@
 #include "acidload/acidload.hpp"
 #include "acidload/io/document.hpp"
 #include "acidload/io/quantity.hpp"
+#include "acidload/studies/figure_table.hpp"
 #include "cli.hpp"
 
 namespace acidload_cli {
@@ -157,20 +158,6 @@ void print_comparison(std::FILE* out, const io::CaseFile& c, const std::vector<V
 }
 
 void print_conversion(std::FILE* out, const EngineCase& c, const std::string& figure, const std::string& species) {
-  const Segment& s = c.record.front();
-  const GasContext ctx = context(s.fuel, s.operation.fuel_flow);
-  double M = 0;  // molar mass the figure is stated as [kg/mol]
-  Formula compound;
-  bool is_compound = false;
-  if (species == "H2S") M = molar_mass(Gas::H2S);
-  else if (species == "S") M = atomic_weight(Element::S) * 1e-3;
-  else if (species == "Cl") M = atomic_weight(Element::Cl) * 1e-3;
-  else if (species == "F") M = atomic_weight(Element::F) * 1e-3;
-  else {
-    compound = parse_formula(find_halocarbon(species).formula);
-    M = molar_mass(compound);
-    is_compound = true;
-  }
   io::Document doc;
   doc.file = "(command line)";
   doc.lines = {figure};
@@ -179,28 +166,18 @@ void print_conversion(std::FILE* out, const EngineCase& c, const std::string& fi
   n.scalar = figure;
   n.mark = {1, 1};
   n.path = "figure";
-  const Concentration given = io::concentration(doc, n, Basis::dry);
-  const double x = to_wet_mole_fraction(given, M, ctx);
+  const FigureTable t = figure_in_every_unit(c.record.front(), io::concentration(doc, n, Basis::dry), species);
+  const GasContext& ctx = t.gas;
   std::fprintf(out, "%s of %s in the gas of '%s' (reference %.2f K, %.3f kPa; water %.3f %%; CH4 %.3f %% wet; LHV %.3f MJ/Nm3):\n",
                figure.c_str(), species.c_str(), c.name.c_str(), ctx.reference.temperature, ctx.reference.pressure * 1e-3,
-               ctx.water_fraction * 100, ctx.methane_fraction * 100, lower_heating_value_volumetric(s.fuel) * 1e-6);
-  const auto row = [&](const char* what, double xx, double m) {
-    std::fprintf(out, "  %-24s %12.5g ppmv dry %12.5g ppmv wet %12.5g mg/Nm3 dry %12.5g mg/Nm3 wet\n", what,
-                 from_wet_mole_fraction(xx, ConcentrationUnit::ppmv, Basis::dry, m, ctx),
-                 from_wet_mole_fraction(xx, ConcentrationUnit::ppmv, Basis::wet, m, ctx),
-                 from_wet_mole_fraction(xx, ConcentrationUnit::mg_per_m3, Basis::dry, m, ctx),
-                 from_wet_mole_fraction(xx, ConcentrationUnit::mg_per_m3, Basis::wet, m, ctx));
-    std::fprintf(out, "  %-24s %12.5g mg/MJ    %12.5g mg/Nm3 CH4", "", from_wet_mole_fraction(xx, ConcentrationUnit::mg_per_MJ, Basis::wet, m, ctx),
-                 from_wet_mole_fraction(xx, ConcentrationUnit::mg_per_m3_methane, Basis::wet, m, ctx));
+               ctx.water_fraction * 100, ctx.methane_fraction * 100, t.lhv_volumetric * 1e-6);
+  for (const FigureRow& r : t.rows) {
+    std::fprintf(out, "  %-24s %12.5g ppmv dry %12.5g ppmv wet %12.5g mg/Nm3 dry %12.5g mg/Nm3 wet\n", r.what.c_str(),
+                 r.ppmv_dry, r.ppmv_wet, r.mg_per_nm3_dry, r.mg_per_nm3_wet);
+    std::fprintf(out, "  %-24s %12.5g mg/MJ    %12.5g mg/Nm3 CH4", "", r.mg_per_mj, r.mg_per_nm3_methane);
     if (ctx.molar_flow > 0)
-      std::fprintf(out, " %12.5g mol/h at %.1f Nm3/h of fuel", from_wet_mole_fraction(xx, ConcentrationUnit::mol_per_h, Basis::wet, m, ctx),
-                   ctx.molar_flow * molar_volume(ReferenceState::normal()));
+      std::fprintf(out, " %12.5g mol/h at %.1f Nm3/h of fuel", r.mol_per_h, ctx.molar_flow * molar_volume(ReferenceState::normal()));
     std::fprintf(out, "\n");
-  };
-  row(species.c_str(), x, M);
-  if (is_compound) {
-    if (compound[Element::Cl] > 0) row("as Cl", x * compound[Element::Cl], atomic_weight(Element::Cl) * 1e-3);
-    if (compound[Element::F] > 0) row("as F", x * compound[Element::F], atomic_weight(Element::F) * 1e-3);
   }
 }
 

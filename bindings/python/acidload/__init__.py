@@ -23,7 +23,7 @@ from ._calibration import (PARAMETERS, Fit, default_alarm_levels, fit, fit_resid
                            read_lab, read_lab_samples, trend)
 from ._fleet import FLEET_COLUMNS, CaseOutcome, FleetResult, monte_carlo_many, run_many
 from ._errors import Error, FitRefusedError, InputError, NoAnswerError, NotModelledError
-from ._gas import CONCENTRATION_UNITS, accepted_units, convert, molar_mass, molar_volume, parse_quantity
+from ._gas import CONCENTRATION_UNITS, accepted_units, convert, convert_figure, molar_mass, molar_volume, parse_quantity
 from ._results import TRAJECTORY_UNITS, Result, VariantResult, run
 from ._studies import LEVERS, InverseAnswer, drain_interval, solve_for_interval
 from . import economics, oil, scrubber, so3, water
@@ -48,5 +48,5 @@ __all__ = [
     # errors
     "Error", "InputError", "NotModelledError", "NoAnswerError", "FitRefusedError",
     # physics from the core
-    "molar_mass", "molar_volume", "convert", "parse_quantity", "accepted_units", "CONCENTRATION_UNITS", "water", "so3", "oil", "scrubber", "economics",
+    "molar_mass", "molar_volume", "convert", "convert_figure", "parse_quantity", "accepted_units", "CONCENTRATION_UNITS", "water", "so3", "oil", "scrubber", "economics",
 ]

@@ -18,6 +18,28 @@ def convert(value: float, from_unit: str, from_basis: str, to_unit: str, to_basi
             reference_temperature_k: float, reference_pressure_pa: float, water_fraction: float,
             methane_fraction: float, lhv_j_per_mol: float, flow_mol_per_h: float) -> float: ...
 
+class FigureRow:
+    what: str
+    molar_mass: float  # [kg/mol]
+    ppmv_dry: float
+    ppmv_wet: float
+    mg_per_nm3_dry: float
+    mg_per_nm3_wet: float
+    mg_per_mj: float
+    mg_per_nm3_methane: float
+    mol_per_h: float
+
+class FigureTable:
+    lhv_volumetric: float  # [J/m³]
+    rows: List[FigureRow]
+    reference_temperature: float  # [K]
+    reference_pressure: float  # [Pa]
+    water_fraction: float
+    methane_fraction: float
+    molar_flow: float  # [mol/h]
+
+def figure_in_every_unit(case: EngineCase, figure: str, species: str) -> FigureTable: ...
+
 class _WaterModule:
     def saturation_pressure(self, temperature_k: float) -> float: ...  # [Pa]
     def saturation_temperature(self, pressure_pa: float) -> float: ...  # [K]
@@ -233,6 +255,7 @@ class LabSample:
 def read_lab_samples(path: str) -> List[LabSample]: ...
 def read_lab_notes(path: str) -> List[str]: ...
 def parameter_keys() -> List[str]: ...
+def lever_keys() -> List[Tuple[str, str]]: ...  # (lever, case key)
 def parameter_bound(key: str) -> str: ...  # "positive", "share", "interval" or "free"
 def parameter_range(key: str) -> Tuple[float, float, float, str]: ...  # low, high, prior sd (fit space), unit
 def to_fit_space(key: str, x: float) -> float: ...

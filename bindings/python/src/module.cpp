@@ -9,6 +9,7 @@
 #include <array>
 #include <cstddef>
 #include <map>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -24,6 +25,7 @@
 #include "acidload/studies/monte_carlo.hpp"
 #include "acidload/studies/trend.hpp"
 #include "acidload/studies/inverse.hpp"
+#include "acidload/studies/figure_table.hpp"
 
 #include <atomic>
 #include <chrono>
@@ -78,15 +80,47 @@ Lever lever_from(const std::string& text) {
   throw InputError("lever", text, "one of h2s, fresh-tbn, jacket-water-out, oil-volume");
 }
 
-ConcentrationUnit unit_from(const std::string& text) {
-  for (ConcentrationUnit u : {ConcentrationUnit::ppmv, ConcentrationUnit::mg_per_m3, ConcentrationUnit::mg_per_MJ,
-                              ConcentrationUnit::mg_per_m3_methane, ConcentrationUnit::mol_per_h})
-    if (text == name(u)) return u;
-  std::string names;
-  for (ConcentrationUnit u : {ConcentrationUnit::ppmv, ConcentrationUnit::mg_per_m3, ConcentrationUnit::mg_per_MJ,
-                              ConcentrationUnit::mg_per_m3_methane, ConcentrationUnit::mol_per_h})
-    names += (names.empty() ? "" : ", ") + std::string(name(u));
-  throw InputError("unit", text, "one of: " + names);
+// A contaminant unit as the program and case files write it ("ppmv", "mg/Nm3 CH4", "mg/kWh", "mg/m3 wet"):
+// read by the case reader's own parser, so Python takes exactly the program's spellings. The core unit
+// it is, the figure in that unit per one of it (mg/kWh is 1/3.6 mg/MJ), and the basis where it names one.
+struct UnitAndBasis {
+  ConcentrationUnit unit;
+  double per_unit = 1;
+  std::optional<Basis> basis;
+};
+UnitAndBasis unit_from(const std::string& text, const char* argument) {
+  io::Document doc;
+  doc.file = "(argument)";
+  const std::string figure = "1 " + text;
+  doc.lines = {figure};
+  io::Node n;
+  n.type = io::Node::Type::scalar;
+  n.scalar = figure;
+  n.mark = {1, 1};
+  n.path = argument;
+  try {
+    const Concentration dry = io::concentration(doc, n, Basis::dry), wet = io::concentration(doc, n, Basis::wet);
+    return {dry.unit, dry.value, dry.basis == wet.basis ? std::optional<Basis>(dry.basis) : std::nullopt};
+  } catch (const InputError& e) {
+    throw InputError(argument, text, e.expected());
+  }
+}
+
+// A figure ("300 ppmv", "450 mg/Nm3 wet") as the program's convert reads it.
+Concentration figure_from(const std::string& figure) {
+  io::Document doc;
+  doc.file = "(argument)";
+  doc.lines = {figure};
+  io::Node n;
+  n.type = io::Node::Type::scalar;
+  n.scalar = figure;
+  n.mark = {1, 1};
+  n.path = "figure";
+  try {
+    return io::concentration(doc, n, Basis::dry);
+  } catch (const InputError& e) {
+    throw InputError("figure", figure, e.expected());
+  }
 }
 
 Basis basis_from(const std::string& text) {
@@ -333,16 +367,51 @@ PYBIND11_MODULE(_core, m) {
           g.methane_fraction = methane;
           g.lhv_molar = lhv;
           g.molar_flow = flow;
-          const Concentration c{value, unit_from(from_unit), basis_from(from_basis)};
-          return convert(c, unit_from(to_unit), basis_from(to_basis), molar_mass_kg, g);
+          // the basis: as the unit names it ("mg/Nm3 wet"), else the argument, else dry; both must agree
+          const auto basis = [](const UnitAndBasis& u, const std::string& given, const char* argument) {
+            const std::optional<Basis> b = given.empty() ? std::nullopt : std::optional<Basis>(basis_from(given));
+            if (u.basis && b && *u.basis != *b)
+              throw InputError(argument, given, std::string("the basis the unit names (") + (*u.basis == Basis::dry ? "dry" : "wet") + ")");
+            return u.basis ? *u.basis : b.value_or(Basis::dry);
+          };
+          const UnitAndBasis from = unit_from(from_unit, "from_unit"), to = unit_from(to_unit, "to_unit");
+          const Concentration c{value * from.per_unit, from.unit, basis(from, from_basis, "from_basis")};
+          return convert(c, to.unit, basis(to, to_basis, "to_basis"), molar_mass_kg, g) / to.per_unit;
         },
         py::arg("value"), py::arg("from_unit"), py::arg("from_basis"), py::arg("to_unit"), py::arg("to_basis"),
         py::arg("molar_mass_kg_per_mol"), py::arg("reference_temperature_k"), py::arg("reference_pressure_pa"),
         py::arg("water_fraction"), py::arg("methane_fraction"), py::arg("lhv_j_per_mol"), py::arg("flow_mol_per_h"),
-        "acidload::convert: a contaminant figure from one unit and basis to another. Units: ppmv, mg/m3 (at the "
-        "reference state), mg/MJ (of LHV), mg/m3 CH4, mol/h; bases dry or wet. molar mass [kg/mol] of the species "
+        "acidload::convert: a contaminant figure from one unit and basis to another. Units as the program and case "
+        "files write them (ppmv, ppm, mg/Nm3, mg/m3 at the reference state, mg/MJ of LHV, mg/kWh, mg/Nm3 CH4, mol/h, "
+        "optionally followed by dry or wet); bases dry, wet or '' (the unit's, else dry). molar mass [kg/mol] of the species "
         "the figure is stated as; reference state [K], [Pa]; water and methane mole fractions of the wet gas "
         "[mol/mol]; LHV of the wet gas [J/mol]; gas flow [mol/h].");
+
+  py::class_<FigureRow>(m, "FigureRow", "A contaminant figure of one species in every unit (acidload::FigureRow).")
+      .def_readonly("what", &FigureRow::what)
+      .def_readonly("molar_mass", &FigureRow::molar_mass, "[kg/mol]")
+      .def_readonly("ppmv_dry", &FigureRow::ppmv_dry)
+      .def_readonly("ppmv_wet", &FigureRow::ppmv_wet)
+      .def_readonly("mg_per_nm3_dry", &FigureRow::mg_per_nm3_dry)
+      .def_readonly("mg_per_nm3_wet", &FigureRow::mg_per_nm3_wet)
+      .def_readonly("mg_per_mj", &FigureRow::mg_per_mj)
+      .def_readonly("mg_per_nm3_methane", &FigureRow::mg_per_nm3_methane)
+      .def_readonly("mol_per_h", &FigureRow::mol_per_h);
+  py::class_<FigureTable>(m, "FigureTable", "The gas of the case's first segment and the figure's rows.")
+      .def_readonly("lhv_volumetric", &FigureTable::lhv_volumetric, "[J/m³]")
+      .def_readonly("rows", &FigureTable::rows)
+      .def_property_readonly("reference_temperature", [](const FigureTable& t) { return t.gas.reference.temperature; }, "[K]")
+      .def_property_readonly("reference_pressure", [](const FigureTable& t) { return t.gas.reference.pressure; }, "[Pa]")
+      .def_property_readonly("water_fraction", [](const FigureTable& t) { return t.gas.water_fraction; }, "[mol/mol] of the wet gas")
+      .def_property_readonly("methane_fraction", [](const FigureTable& t) { return t.gas.methane_fraction; }, "[mol/mol] of the wet gas")
+      .def_property_readonly("molar_flow", [](const FigureTable& t) { return t.gas.molar_flow; }, "[mol/h]");
+  m.def("figure_in_every_unit",
+        [](const EngineCase& c, const std::string& figure, const std::string& species) {
+          return figure_in_every_unit(c.record.front(), figure_from(figure), species);
+        },
+        py::arg("case"), py::arg("figure"), py::arg("species"),
+        "acidload::figure_in_every_unit: a contaminant figure as the program's convert reads it ('300 ppmv', "
+        "'450 mg/Nm3 wet', '60 mg/Nm3 CH4') in every unit for the gas of the case's first segment.");
 
   m.def("parse_quantity",
         [](const std::string& text, const std::string& kind) {

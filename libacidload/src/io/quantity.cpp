@@ -339,10 +339,11 @@ Concentration concentration(const Document& doc, const Node& node, Basis default
       {"ppmv", ConcentrationUnit::ppmv, true, 1},       {"ppm", ConcentrationUnit::ppmv, true, 1},
       {"mg/Nm3", ConcentrationUnit::mg_per_m3, true, 1}, {"mg/m3", ConcentrationUnit::mg_per_m3, true, 1},
       {"mg/MJ", ConcentrationUnit::mg_per_MJ, false, 1}, {"mg/kWh", ConcentrationUnit::mg_per_MJ, false, 1 / 3.6},
-      {"mg/Nm3 CH4", ConcentrationUnit::mg_per_m3_methane, false, 1}, {"mol/h", ConcentrationUnit::mol_per_h, false, 1},
+      {"mg/Nm3 CH4", ConcentrationUnit::mg_per_m3_methane, false, 1}, {"mg/m3 CH4", ConcentrationUnit::mg_per_m3_methane, false, 1},
+      {"mol/h", ConcentrationUnit::mol_per_h, false, 1},
   };
   const std::string expected =
-      "a concentration with one of the units: ppmv, ppm, mg/Nm3, mg/m3, mg/MJ, mg/kWh, mg/Nm3 CH4, mol/h, "
+      "a concentration with one of the units: ppmv, ppm, mg/Nm3, mg/m3, mg/MJ, mg/kWh, mg/Nm3 CH4, mg/m3 CH4, mol/h, "
       "then optionally dry or wet";
   const auto fail = [&](const std::string& problem) {
     return doc.error(node, detail::describe(node), problem.empty() ? expected : expected + " (" + problem + ")");
