@@ -41,7 +41,9 @@ def test_python_summary_equals_the_programs(path, tmp_path):
         assert len(mine) == len(t["tan"]), v.name
         for col, key in (("engine_hours_h", "engine_hours"), ("tan_mg_koh_per_g", "tan"),
                          ("san_mg_koh_per_g", "san"), ("tbn_d2896_mg_koh_per_g", "tbn_d2896"),
-                         ("oxidation_a_per_cm", "oxidation"), ("oil_mass_kg", "oil_mass")):
+                         ("oxidation_a_per_cm", "oxidation"), ("oil_mass_kg", "oil_mass"),
+                         ("antioxidant_remaining_pct_of_fresh", "antioxidant_remaining"),
+                         ("viscosity_change_100c_pct", "viscosity_change")):
             j = header.index(col)
             for row, x in zip(mine, t[key]):
                 assert math.isclose(float(row[j]), x, rel_tol=1e-9, abs_tol=1e-12), (v.name, col, row[j], x)

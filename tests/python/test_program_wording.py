@@ -45,3 +45,52 @@ def test_sweeps_and_solve_say_no_limit_within_the_planned_maximum(tmp_path):
     assert "no limit within 300 h at 0 ppmv dry" in r.stdout and "300 h and 300 h" not in r.stdout
     r = run("solve", case_file, "--for", "h2s", "--target", "300 h")
     assert "no answer" in r.stdout and "planned maximum" in r.stdout
+
+
+JUMPING_CASE = """# Invented data: a test case whose TBN curve steps up where 5 % of the oil is drained and made up fresh.
+format-version: 1
+case: a partial drain at 1000 h
+fuel:
+  basis: dry
+  composition: {CH4: 50 %, CO2: 50 %}
+  h2s: 300 ppmv
+engine:
+  power: 1 MW
+  electrical-efficiency: 40 %
+  nox: 500 mg/Nm3 at 5 % O2
+oil:
+  volume: 600 L
+  fresh-tbn: 6 mg KOH/g
+  consumption: 0.2 g/kWh
+limits:
+  ignore: [tan-rise, crossover, san, oxidation, nitration, viscosity, antioxidant]
+record:
+  segments:
+    - {hours: 1000 h}
+    - {hours: 7000 h, event: partial-drain, event-amount: 5 %}
+"""
+
+
+def test_solve_refuses_a_target_the_interval_jumps_over(tmp_path):
+    # TBN fall the only limit; the partial drain at 1000 h steps TBN up, so an H2S that brings TBN to
+    # its limit just after 1000 h lasts tens of hours longer: the interval jumps down to 1000 h and the
+    # hours in between are given by no H2S (docs/model.md §11). The jump is found by a sweep here.
+    import numpy as np
+    import acidload
+    case_file = tmp_path / "jump.yaml"
+    case_file.write_text(JUMPING_CASE, encoding="utf-8")
+    case = acidload.load_case(case_file)
+    h2s = np.linspace(100, 600, 501)
+    swept = acidload.drain_interval(case, h2s_ppmv=h2s)
+    steps = np.diff(swept)
+    k = int(np.argmin(steps))
+    assert swept[k] > 1000 >= swept[k + 1] and -steps[k] > 30  # a real jump, to the partial drain
+    target = 0.5 * (swept[k] + swept[k + 1])
+    a = acidload.solve_for_interval(case, target_h=target, h2s_ppmv=(0, 3000))
+    assert not a.found and a.value is None and a.jump and "jumps from" in a.reason and "past the target" in a.reason
+    assert h2s[k] <= a.jump_at <= h2s[k + 1]
+    assert a.jump_from_h > target > a.jump_to_h and abs(a.jump_to_h - 1000) < 0.5
+    r = run("solve", case_file, "--for", "h2s", "--target", f"{target:.1f} h")
+    assert r.returncode == 0, r.stderr
+    assert "no answer: near" in r.stdout and "the interval jumps from" in r.stdout and "to 1000 h" in r.stdout
+    assert "where no limit is reached" not in r.stdout  # both sides of this jump reach a limit

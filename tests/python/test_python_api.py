@@ -228,9 +228,19 @@ def test_trajectory_arrays_equal_the_csv_the_program_writes():
     col = {h: i for i, h in enumerate(header)}
     t = result.trajectory
     for name, key in (("tan_mg_koh_per_g", "tan"), ("san_mg_koh_per_g", "san"), ("oil_hours_h", "oil_hours"),
-                      ("tbn_d4739_mg_koh_per_g", "tbn_d4739"), ("oil_mass_kg", "oil_mass")):
+                      ("tbn_d4739_mg_koh_per_g", "tbn_d4739"), ("oil_mass_kg", "oil_mass"),
+                      ("antioxidant_remaining_pct_of_fresh", "antioxidant_remaining"),
+                      ("viscosity_change_100c_pct", "viscosity_change")):
         csv = np.array([float(r[col[name]]) for r in rows])
         assert np.allclose(t[key], csv, rtol=1e-9, atol=1e-12), name  # the CSV has 10 significant digits
+    # the percentage columns are the shares in percent; a fresh charge (oil hours 0) has all its
+    # antioxidant and its own viscosity (by the definitions of docs/model.md §16 and §17.1)
+    assert np.allclose(t["antioxidant_remaining"], 100 * t["antioxidant"], rtol=1e-15)
+    assert np.allclose(t["viscosity_change"], 100 * t["viscosity_rise"], rtol=1e-15)
+    fresh = (t["oil_hours"] == 0) & (t["charge"] == 1)  # the first charge starts fresh; later ones keep a residual
+    assert fresh.any()
+    assert np.all(t["antioxidant_remaining"][fresh] == 100) and np.all(t["viscosity_change"][fresh] == 0)
+    assert acidload.TRAJECTORY_UNITS["antioxidant_remaining"] == "% of fresh"
 
 
 def test_to_dataframe_with_pandas():

@@ -125,6 +125,27 @@ TEST_CASE("a case file gives exactly the inputs of the same values through the A
   CHECK(hot.charge.mass == got.charge.mass);
 }
 
+TEST_CASE("fuel-gas limits per kWh of fuel heat read as per MJ") {
+  // 1 kWh = 1e3 W × 3600 s = 3.6 MJ (SI Brochure, 9th ed., Table 8: 1 h = 3600 s)
+  std::string text = case_text;
+  const std::string at = "  nox: 500 mg/Nm3 at 5 % O2\n";
+  text.replace(text.find(at), at.size(), at + "  fuel-gas-sulfur-limit: 720 mg/kWh\n  fuel-gas-halogen-limit: 36 mg/kWh\n");
+  const io::CaseFile f = io::load_case_text(text, "limits.yaml", ".");
+  const FuelGasLimits& l = f.variants.at(0).fuel_gas_limits;
+  CHECK(l.sulfur_per_energy == doctest::Approx(200e-12).epsilon(1e-14));   // 200 mg/MJ in kg/J
+  CHECK(l.halogens_per_energy == doctest::Approx(10e-12).epsilon(1e-14));  // 10 mg/MJ
+  CHECK(l.sulfur_per_methane < 0);
+  // a per-volume figure of the gas is not a fuel-gas limit: refused, naming the units that are
+  std::string bad = case_text;
+  bad.replace(bad.find(at), at.size(), at + "  fuel-gas-sulfur-limit: 40 mg/Nm3\n");
+  try {
+    io::load_case_text(bad, "limits.yaml", ".");
+    FAIL("a fuel-gas limit in mg/Nm3 was accepted");
+  } catch (const InputError& e) {
+    CHECK(std::string(e.what()).find("mg/kWh") != std::string::npos);
+  }
+}
+
 TEST_CASE("an overlay merges over the base before the variants") {
   namespace fs = std::filesystem;
   const fs::path dir = fs::temp_directory_path() / "acidload-overlay-test";

@@ -131,3 +131,43 @@ TEST_CASE("no limit within the planned maximum is no interval: none, NaN in a sw
   REQUIRE(a.found);
   CHECK(std::fabs(*a.interval_at_value - 400) < 0.05);
 }
+
+TEST_CASE("a target the interval jumps over is refused, with where and between what") {
+  // The sanity case, TBN fall the only limit, with 5 % of the oil drained and made up fresh at
+  // 1000 h: the TBN curve steps up there. An H2S that brings TBN to its limit just after 1000 h
+  // gets the base of the fresh oil and lasts some 70 h longer, so the interval jumps from about
+  // 1070 h down to 1000 h (where the partial drain is): no H2S gives 1030 h. The jump, 7 % of the
+  // target, lies well above the 1 % a continuous crossing is told apart by (docs/model.md §11;
+  // tests/mutation/mutations.txt moves that threshold to 10 %).
+  EngineCase c = sanity();
+  for (std::size_t k = 0; k < limit_count; ++k)
+    c.model.limits.enabled[k] = all_limits[k] == Limit::tbn_fall || all_limits[k] == Limit::max_hours;
+  Segment rest = c.record[0];
+  c.record[0].hours = 1000;
+  rest.hours = 7000;
+  rest.events.push_back({OilEvent::Kind::partial_drain, 0.05});
+  c.record.push_back(rest);
+  const double target = 1030;
+  const InverseAnswer a = solve_for_interval(c, Lever::h2s_ppmv_dry, target, 0, 3000, 1e-3);
+  CHECK(!a.found);
+  REQUIRE(a.jump);
+  REQUIRE(a.jump_from.has_value());
+  REQUIRE(a.jump_to.has_value());
+  CHECK(*a.jump_from > target);  // just below the answer's H2S: past the partial drain
+  CHECK(*a.jump_to < target);    // just above it: at the partial drain
+  CHECK(*a.jump_to == doctest::Approx(1000).epsilon(1e-4));
+  CHECK(*a.jump_from - *a.jump_to > 0.03 * target);
+  CHECK(*a.jump_from - *a.jump_to < 0.1 * target);
+  // verified forward: either side of the jump the interval misses the target, on both sides
+  const double below = *drain_interval(with_lever(c, Lever::h2s_ppmv_dry, a.value * 0.999));
+  const double above = *drain_interval(with_lever(c, Lever::h2s_ppmv_dry, a.value * 1.001));
+  CHECK(below > target);
+  CHECK(above < target);
+  CHECK(a.reason.find("no value gives 1030 h") != std::string::npos);
+  CHECK(a.reason.find("jumps from 1068 h to 1000 h") != std::string::npos);
+  CHECK(a.reason.find("no limit is reached") == std::string::npos);  // both sides reach a limit
+  // the same case with a target off the jump is answered
+  const InverseAnswer off = solve_for_interval(c, Lever::h2s_ppmv_dry, 1200, 0, 3000, 1e-3);
+  REQUIRE(off.found);
+  CHECK(std::fabs(*off.interval_at_value - 1200) < 0.05);
+}

@@ -211,6 +211,10 @@ TEST_CASE("concentrations: unit, basis, and what is refused") {
   CHECK(c("12 mg/Nm³").unit == ConcentrationUnit::mg_per_m3);
   CHECK(c("12 mg/m3").unit == ConcentrationUnit::mg_per_m3);
   CHECK(c("3 mg/MJ").unit == ConcentrationUnit::mg_per_MJ);
+  // 1 kWh = 1e3 W × 3600 s = 3.6 MJ (SI Brochure, 9th ed., Table 8: 1 h = 3600 s): 36 mg/kWh is 10 mg/MJ
+  CHECK(c("36 mg/kWh").unit == ConcentrationUnit::mg_per_MJ);
+  CHECK(c("36 mg/kWh").value == doctest::Approx(10.0).epsilon(1e-15));
+  CHECK(contains(c_error("36 mg/kWh wet"), "dry or wet applies to ppmv and mg/Nm3 only"));
   CHECK(c("40 mg/Nm3 CH4").unit == ConcentrationUnit::mg_per_m3_methane);
   CHECK(c("0.5 mol/h").unit == ConcentrationUnit::mol_per_h);
   CHECK(c("0 ppmv").value == 0);

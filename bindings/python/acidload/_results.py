@@ -35,6 +35,8 @@ TRAJECTORY_UNITS: Dict[str, str] = {
     "oil_mass": "kg",           # oil in circulation
     "antioxidant": "-",         # antioxidant reserve, share of fresh
     "viscosity_rise": "-",      # kinematic viscosity at 100 degC over fresh, less 1
+    "antioxidant_remaining": "% of fresh",  # the antioxidant reserve, as trajectories.csv
+    "viscosity_change": "% over fresh",     # kinematic viscosity at 100 degC, as trajectories.csv
 }
 
 

@@ -195,6 +195,8 @@ py::dict trajectory_arrays(const CaseRun& run, std::size_t i) {
   column("oil_mass", [](const TrajectoryPoint& p) { return p.state.mass; });
   column("antioxidant", [](const TrajectoryPoint& p) { return p.state.antioxidant; });
   column("viscosity_rise", [](const TrajectoryPoint& p) { return p.viscosity_rise; });
+  column("antioxidant_remaining", [](const TrajectoryPoint& p) { return 100 * p.state.antioxidant; });  // [% of fresh]
+  column("viscosity_change", [](const TrajectoryPoint& p) { return 100 * p.viscosity_rise; });  // [% over fresh at 100 °C]
   return out;
 }
 

@@ -327,8 +327,8 @@ void read_engine(const Reader& r, const Node& e, EngineInputs& in) {
       double& per_methane = sulfur ? in.fuel_gas_limits.sulfur_per_methane : in.fuel_gas_limits.halogens_per_methane;
       double& per_energy = sulfur ? in.fuel_gas_limits.sulfur_per_energy : in.fuel_gas_limits.halogens_per_energy;
       if (c.unit == ConcentrationUnit::mg_per_m3_methane) per_methane = c.value * 1e-6;      // mg → kg per Nm³ CH4
-      else if (c.unit == ConcentrationUnit::mg_per_MJ) per_energy = c.value * 1e-12;        // mg/MJ → kg/J
-      else r.fail(*n, n->scalar, "a fuel-gas limit in mg/Nm3 CH4 or mg/MJ (per kWh: divide by 3.6)");
+      else if (c.unit == ConcentrationUnit::mg_per_MJ) per_energy = c.value * 1e-12;        // mg/MJ (mg/kWh read as such) → kg/J
+      else r.fail(*n, n->scalar, "a fuel-gas limit in mg/Nm3 CH4, mg/MJ or mg/kWh (of fuel heat)");
       r.seen[std::string("engine.") + which] = n;
     }
   if (const Node* n = e.find("nox")) op.nox = read_nox(r, *n);

@@ -173,10 +173,10 @@ std::vector<CaseKey> build_table() {
   b.q("oxidation-catalyst", K::fraction, 0, 1, "%", "none",
       "an oxidation catalyst in the exhaust: the share of SO2 it turns to SO3 (raises the exhaust acid dew point)",
       "EngineCase::catalyst_so3_conversion");
-  b.c("fuel-gas-sulfur-limit", "the engine maker's limit on total sulfur in the fuel gas, in `mg/Nm3 CH4` or `mg/MJ` "
-      "(mg/kWh ÷ 3.6); above it a warning", "FuelGasLimits::sulfur_per_*").default_text = "none";
-  b.c("fuel-gas-halogen-limit", "the engine maker's limit on organic Cl + F in the fuel gas, in `mg/Nm3 CH4` or `mg/MJ`; "
-      "above it a warning", "FuelGasLimits::halogens_per_*").default_text = "none";
+  b.c("fuel-gas-sulfur-limit", "the engine maker's limit on total sulfur in the fuel gas, in `mg/Nm3 CH4`, `mg/MJ` or "
+      "`mg/kWh` (of fuel heat, LHV; 1 kWh = 3.6 MJ); above it a warning", "FuelGasLimits::sulfur_per_*").default_text = "none";
+  b.c("fuel-gas-halogen-limit", "the engine maker's limit on organic Cl + F in the fuel gas, in `mg/Nm3 CH4`, `mg/MJ` "
+      "or `mg/kWh` (of fuel heat); above it a warning", "FuelGasLimits::halogens_per_*").default_text = "none";
   b.other("nox", T::special, "0",
           "engine-out NOx as NO2: `<n> mg/Nm3 at <n> % O2` (dry, 0 °C) or `<n> g/kWh`", "Operation::nox");
 

@@ -330,15 +330,17 @@ Concentration concentration(const Document& doc, const Node& node, Basis default
     const char* name;
     ConcentrationUnit unit;
     bool has_basis;
+    double factor;  // to `unit`
   };
+  // mg/kWh (per kWh of fuel heat, LHV) is read as mg/MJ: 1 kWh = 1e3 W × 3600 s = 3.6 MJ exactly (SI Brochure, 9th ed., Table 8: 1 h = 3600 s)
   static const ConcUnit units[] = {
-      {"ppmv", ConcentrationUnit::ppmv, true},       {"ppm", ConcentrationUnit::ppmv, true},
-      {"mg/Nm3", ConcentrationUnit::mg_per_m3, true}, {"mg/m3", ConcentrationUnit::mg_per_m3, true},
-      {"mg/MJ", ConcentrationUnit::mg_per_MJ, false}, {"mg/Nm3 CH4", ConcentrationUnit::mg_per_m3_methane, false},
-      {"mol/h", ConcentrationUnit::mol_per_h, false},
+      {"ppmv", ConcentrationUnit::ppmv, true, 1},       {"ppm", ConcentrationUnit::ppmv, true, 1},
+      {"mg/Nm3", ConcentrationUnit::mg_per_m3, true, 1}, {"mg/m3", ConcentrationUnit::mg_per_m3, true, 1},
+      {"mg/MJ", ConcentrationUnit::mg_per_MJ, false, 1}, {"mg/kWh", ConcentrationUnit::mg_per_MJ, false, 1 / 3.6},
+      {"mg/Nm3 CH4", ConcentrationUnit::mg_per_m3_methane, false, 1}, {"mol/h", ConcentrationUnit::mol_per_h, false, 1},
   };
   const std::string expected =
-      "a concentration with one of the units: ppmv, ppm, mg/Nm3, mg/m3, mg/MJ, mg/Nm3 CH4, mol/h, "
+      "a concentration with one of the units: ppmv, ppm, mg/Nm3, mg/m3, mg/MJ, mg/kWh, mg/Nm3 CH4, mol/h, "
       "then optionally dry or wet";
   const auto fail = [&](const std::string& problem) {
     return doc.error(node, detail::describe(node), problem.empty() ? expected : expected + " (" + problem + ")");
@@ -383,7 +385,7 @@ Concentration concentration(const Document& doc, const Node& node, Basis default
   if (basis_given && !found->has_basis)
     throw fail("dry or wet applies to ppmv and mg/Nm3 only; " + rest + " has no basis");
   if (v < 0) throw fail("a concentration is not negative");
-  c.value = v;
+  c.value = v * found->factor;
   c.unit = found->unit;
   return c;
 }

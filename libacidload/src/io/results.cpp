@@ -178,13 +178,15 @@ std::string summary_json(const CaseFile& c, const std::vector<VariantSummary>& r
 std::string trajectories_csv(const std::vector<VariantSummary>& rows) {
   std::ostringstream o;
   o << "variant,charge,engine_hours_h,oil_hours_h,calendar_hours_h,tbn_d2896_mg_koh_per_g,tbn_d4739_mg_koh_per_g,"
-       "tan_mg_koh_per_g,san_mg_koh_per_g,oxidation_a_per_cm,nitration_a_per_cm,oil_mass_kg\n";
+       "tan_mg_koh_per_g,san_mg_koh_per_g,oxidation_a_per_cm,nitration_a_per_cm,oil_mass_kg,"
+       "antioxidant_remaining_pct_of_fresh,viscosity_change_100c_pct\n";
   for (const VariantSummary& v : rows)
     for (const TrajectoryPoint& p : v.run.trajectory)
       o << csv_field(v.name) << ',' << p.charge + 1 << ','  // charges from 1, as in the console and lab files
         << num(p.engine_hours) << ',' << num(p.oil_hours) << ','
         << num(p.calendar_hours) << ',' << num(p.tbn_d2896) << ',' << num(p.tbn_d4739) << ',' << num(p.tan) << ','
-        << num(p.san) << ',' << num(p.state.oxidation) << ',' << num(p.state.nitration) << ',' << num(p.state.mass) << '\n';
+        << num(p.san) << ',' << num(p.state.oxidation) << ',' << num(p.state.nitration) << ',' << num(p.state.mass) << ','
+        << num(100 * p.state.antioxidant) << ',' << num(100 * p.viscosity_rise) << '\n';
   return o.str();
 }
 

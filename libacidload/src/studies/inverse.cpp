@@ -6,6 +6,7 @@
 #include <algorithm>
 #include <atomic>
 #include <cstdint>
+#include <cstdio>
 #include <exception>
 #include <limits>
 #include <thread>
@@ -184,7 +185,9 @@ InverseAnswer solve_for_interval(const EngineCase& c, Lever lever, double target
   const double mid = 0.5 * (bracket.first + bracket.second);
   if (!left || !right || std::fabs(*left - *right) > 0.01 * target) {
     a.jump = true, a.value = mid, a.jump_from = left, a.jump_to = right;
-    a.reason = "no value gives " + format_value(target) + " h: near " + format_value(mid) + " the interval jumps from " +
+    char near[32];
+    std::snprintf(near, sizeof near, "%.4g", mid);  // where, to the digits that matter (the exact figure in `value`)
+    a.reason = "no value gives " + format_value(target) + " h: near " + near + " the interval jumps from " +
                interval_words(left, planned) + " to " + interval_words(right, planned) + ", past the target" +
                (!left || !right ? " into the region where no limit is reached" : "");
     return a;
