@@ -13,6 +13,9 @@
 #include <thread>
 
 #include "acidload/core/error.hpp"
+#include "acidload/core/fuel.hpp"
+#include "acidload/core/species.hpp"
+#include "acidload/io/document.hpp"
 
 namespace acidload_cli {
 
@@ -193,6 +196,36 @@ std::uint64_t count_option(const std::string& text, const char* option, double l
     throw acidload::InputError(option, text,
                                "a whole number from " + acidload::format_value(lo) + " to " + acidload::format_value(hi));
   return static_cast<std::uint64_t>(v);
+}
+
+double h2s_ppmv_dry_option(const std::string& text, const acidload::EngineCase& c, const char* option) {
+  using namespace acidload;
+  io::Document doc;
+  doc.file = "(command line)";
+  doc.lines = {text};
+  io::Node n;
+  n.type = io::Node::Type::scalar;
+  n.scalar = text;
+  n.mark = {1, 1};
+  n.path = option;
+  Concentration given;
+  try {
+    given = io::concentration(doc, n, Basis::dry);
+  } catch (const InputError& e) {
+    throw UsageError(std::string(option) + " '" + text + "' for h2s: " + e.expected());
+  }
+  const Segment& s = c.record.front();
+  const GasContext ctx = context(s.fuel, s.operation.fuel_flow);
+  const double m = molar_mass(Gas::H2S);
+  return from_wet_mole_fraction(to_wet_mole_fraction(given, m, ctx), ConcentrationUnit::ppmv, Basis::dry, m, ctx);
+}
+
+DrawOptions draw_options(const std::string& draws, const std::string& seed, const std::string& threads, double max_draws) {
+  DrawOptions o;
+  if (!draws.empty()) o.draws_given = true, o.draws = count_option(draws, "--draws", 1, max_draws);
+  if (!seed.empty()) o.seed_given = true, o.seed = count_option(seed, "--seed", 0, 9e15);
+  if (!threads.empty()) o.threads = static_cast<int>(count_option(threads, "--threads", 1, 256));
+  return o;
 }
 
 const acidload::EngineCase& pick_variant(const acidload::io::CaseFile& c, const std::string& name) {

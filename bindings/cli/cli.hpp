@@ -106,6 +106,20 @@ double quantity_option(const std::string& text, acidload::io::Kind k, const char
 //! A whole-number option: digits (or an exponent form of a whole number); a fraction or other text
 //! is a UsageError (2); a whole number outside [lo, hi] is an InputError (3).
 std::uint64_t count_option(const std::string& text, const char* option, double lo, double hi);
+//! An H2S figure for --range in any contaminant unit and basis ('0 ppmv', '50 ppmv wet', '700 mg/Nm3')
+//! as ppmv dry in the gas of the case's first segment (solve's h2s lever, costs' changeout level);
+//! a figure that does not parse is a UsageError (2) naming `option`.
+double h2s_ppmv_dry_option(const std::string& text, const acidload::EngineCase& c, const char* option);
+//! --draws, --seed and --threads of a Monte Carlo command, read before the case so that a malformed
+//! number is a usage error whatever the file holds; where not given, the case's own draws and seed.
+struct DrawOptions {
+  bool draws_given = false, seed_given = false;
+  std::uint64_t draws = 0, seed = 0;
+  int threads = 0;  //!< 0: as many as the machine has
+  int draws_or(int from_case) const { return draws_given ? static_cast<int>(draws) : from_case; }
+  std::uint64_t seed_or(std::uint64_t from_case) const { return seed_given ? seed : from_case; }
+};
+DrawOptions draw_options(const std::string& draws, const std::string& seed, const std::string& threads, double max_draws);
 //! The variant named (the first when `name` is empty); an InputError (3) listing the case's
 //! variants when there is none of that name.
 const acidload::EngineCase& pick_variant(const acidload::io::CaseFile& c, const std::string& name);

@@ -8,6 +8,7 @@
 #include "acidload/io/case_file.hpp"
 #include "acidload/io/fitted_overlay.hpp"
 #include "acidload/io/lab_file.hpp"
+#include "acidload/studies/parameters.hpp"
 
 using namespace acidload;
 namespace fs = std::filesystem;
@@ -106,6 +107,38 @@ uncertainty:
   CHECK(e.model.oxidation.rate_at_reference == doctest::Approx(0.0102).epsilon(1e-8));
   CHECK(e.model.oxidation.organic_acid_yield == doctest::Approx(0.09).epsilon(1e-8));
   CHECK(e.record[0].operation.blowby_share == doctest::Approx(0.012).epsilon(1e-8));
+  fs::remove(ov);
+  fs::remove(cs);
+}
+
+TEST_CASE("an overlay a fit writes sets every fit parameter back to its estimate, in the registry's unit") {
+  // The writer takes each key's unit from the registry (io/keys): a round trip through the case
+  // reader for every parameter of fit and uncertainty, oil.consumption (kg/h) and fuel.h2s included.
+  const char* text = R"(format-version: 1
+fuel: {composition: {CH4: 55 %, CO2: 45 %}, h2s: 300 ppmv}
+engine: {power: 1 MW, electrical-efficiency: 40 %}
+oil: {volume: 600 L, fresh-tbn: 30 mg KOH/g, consumption: 0.2 g/kWh}
+)";
+  const fs::path cs = write("acidload-overlay-all-case.yaml", text);
+  const EngineCase base = io::load_case(cs.string(), {}).variants[0];
+  FitResult fit;
+  fit.s2 = 1;
+  fit.degrees_of_freedom = 10;
+  for (const ParameterInfo& p : parameter_table()) {
+    // a value away from the default and inside both the fit's range and the registry's
+    double v = p.bound == Bound::interval ? p.low + 0.37 * (p.high - p.low)
+               : p.bound == Bound::share  ? 0.037
+                                          : get_parameter(base, p.key) * 1.3;
+    if (p.key == "model.base-floor") v = 2.5;  // below the fresh TBN of 30 mg KOH/g
+    fit.parameters.push_back({p.key, get_parameter(base, p.key), v, 0.1 * v, 0, 0});
+  }
+  const fs::path ov = fs::temp_directory_path() / "acidload-overlay-all.yaml";
+  io::write_overlay(ov.string(), fit, cs.string(), "lab.csv");
+  const EngineCase e = io::load_case(cs.string(), {ov.string()}).variants[0];
+  for (const FittedParameter& p : fit.parameters) {
+    INFO(p.key);
+    CHECK(get_parameter(e, p.key) == doctest::Approx(p.estimate).epsilon(1e-7));
+  }
   fs::remove(ov);
   fs::remove(cs);
 }

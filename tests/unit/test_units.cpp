@@ -4,11 +4,14 @@
 // SFINAE-friendly, so a wrong conversion is a hard error there, not a false trait here).
 #include <doctest/doctest.h>
 
+#include <string>
 #include <type_traits>
 
 #include <boost/units/is_dimensionless_unit.hpp>
 
+#include "acidload/core/constants.hpp"
 #include "acidload/core/species.hpp"
+#include "acidload/io/quantity.hpp"
 #include "acidload/units.hpp"
 
 using namespace acidload;
@@ -90,6 +93,20 @@ TEST_CASE("Nm³ is an amount of substance: 1 Nm³ = p_n/(R·T_n) mol") {
   CHECK(u::normal_molar_volume == doctest::Approx(22.41396954e-3).epsilon(1e-9));
   // The core's own molar volume at the normal state is the same V_m.
   CHECK(close(u::normal_molar_volume, molar_volume(ReferenceState::normal()), 1e-15));
+}
+
+TEST_CASE("one Nm³: the typed face and the case reader's units share core/constants.hpp's V_m exactly") {
+  // Not a check of the value (the case above does that against CODATA) but of there being one
+  // definition: units.hpp's V_m is the core constant itself, and the reader's factor is its inverse.
+  CHECK(u::normal_molar_volume == constants::normal_molar_volume);
+  for (const char* text : {"1 Nm3/h", "503 Nm3/h", "2.2e4 Nm3/h"}) {
+    double read = 0;
+    std::string why;
+    REQUIRE(io::parse_quantity_text(text, io::Kind::molar_flow, read, why));
+    const double flow = std::stod(text);
+    CHECK(read == flow * (1.0 / constants::normal_molar_volume));  // bit-identical: the reader's factor is 1/V_m
+    CHECK(close(read, u::to_core(flow * u::normal_m3_per_hour)));  // Boost's chain of factors: last bits only
+  }
 }
 
 TEST_CASE("Nm³/h becomes mol/h: flow / V_m(normal)") {

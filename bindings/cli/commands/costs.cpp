@@ -6,7 +6,6 @@
 #include "../site_report.hpp"
 #include "acidload/io/site_file.hpp"
 #include "acidload/acidload.hpp"
-#include "acidload/io/document.hpp"
 #include "acidload/io/economics_results.hpp"
 
 namespace acidload_cli {
@@ -41,40 +40,13 @@ CostsOptions parse(const std::vector<std::string>& args) {
   return o;
 }
 
-// An H2S figure ('50 ppmv', '70 mg/Nm3', '40 ppmv wet') as ppmv dry in the gas of the case's first segment.
-double ppmv_dry(const std::string& text, const acidload::EngineCase& c) {
-  using namespace acidload;
-  io::Document doc;
-  doc.file = "(command line)";
-  doc.lines = {text};
-  io::Node n;
-  n.type = io::Node::Type::scalar;
-  n.scalar = text;
-  n.mark = {1, 1};
-  n.path = "--range";
-  Concentration given;
-  try {
-    given = io::concentration(doc, n, Basis::dry);
-  } catch (const InputError& e) {
-    throw UsageError("--range '" + text + "': " + e.expected());
-  }
-  const Segment& s = c.record.front();
-  const GasContext ctx = context(s.fuel, s.operation.fuel_flow);
-  const double m = molar_mass(Gas::H2S);
-  return from_wet_mole_fraction(to_wet_mole_fraction(given, m, ctx), ConcentrationUnit::ppmv, Basis::dry, m, ctx);
-}
-
 int run(const std::vector<std::string>& args, std::FILE* out) {
   using namespace acidload;
   const CostsOptions o = parse(args);
   double step = 0.2;
   if (!o.step.empty()) step = quantity_option(o.step, io::Kind::fraction, "--sensitivity");
   if (!(step > 0 && step < 1)) throw InputError("--sensitivity", o.step, "a share above 0 and below 100 %");
-  const std::optional<std::uint64_t> draws =
-      o.draws.empty() ? std::nullopt : std::optional(count_option(o.draws, "--draws", 1, 1e7));
-  const std::optional<std::uint64_t> seed =
-      o.seed.empty() ? std::nullopt : std::optional(count_option(o.seed, "--seed", 0, 9e15));
-  const int threads = o.threads.empty() ? 0 : static_cast<int>(count_option(o.threads, "--threads", 1, 256));
+  const DrawOptions draws = draw_options(o.draws, o.seed, o.threads, 1e7);
   if (io::is_site_file(o.case_file)) {
     if (o.cheapest || o.monte_carlo || !o.overlays.empty() || !o.step.empty())
       throw UsageError("a site file takes only --out here (no --cheapest-level, --monte-carlo, --sensitivity or --overlay)");
@@ -107,16 +79,16 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
     const std::size_t stage = o.stage.empty() ? level_stage(c)
                                               : static_cast<std::size_t>(count_option(o.stage, "--stage", 1, static_cast<double>(c.train.size()))) - 1;
     LevelRange range = default_level_range(c, stage);
-    if (!o.low.empty()) range = {ppmv_dry(o.low, c.engine), ppmv_dry(o.high, c.engine)};
+    if (!o.low.empty()) range = {h2s_ppmv_dry_option(o.low, c.engine, "--range"), h2s_ppmv_dry_option(o.high, c.engine, "--range")};
     print_cheapest_level(out, c, cheapest_level(c, stage, range.low, range.high));
   }
   if (o.monte_carlo) {
     if (file.uncertainty.inputs.empty())
       throw InputError("uncertainty", "(no section)", "an 'uncertainty' section with inputs in " + o.case_file,
                        InputWhere{o.case_file, 1, 1, ""});
-    const std::uint64_t used_seed = seed ? *seed : file.uncertainty.seed;
-    const CostMonteCarlo m = cost_monte_carlo(file.costs, file.uncertainty.inputs,
-                                              draws ? static_cast<int>(*draws) : file.uncertainty.draws, used_seed, threads);
+    const std::uint64_t used_seed = draws.seed_or(file.uncertainty.seed);
+    const CostMonteCarlo m = cost_monte_carlo(file.costs, file.uncertainty.inputs, draws.draws_or(file.uncertainty.draws),
+                                              used_seed, draws.threads);
     print_cost_monte_carlo(out, v, file.uncertainty.inputs, m, used_seed);
   }
   print_scrubbing_caution(out);

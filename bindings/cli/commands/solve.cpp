@@ -2,8 +2,10 @@
 #include "../cli.hpp"
 #include "../report.hpp"
 #include "acidload/acidload.hpp"
-#include "acidload/io/document.hpp"
+#include "acidload/core/plausibility.hpp"
 #include "acidload/studies/inverse.hpp"
+
+#include <cmath>
 
 namespace acidload_cli {
 namespace {
@@ -28,30 +30,6 @@ SolveOptions parse(const std::vector<std::string>& args) {
   return o;
 }
 
-// An H2S figure for --range in any contaminant unit and basis ('0 ppmv', '50 ppmv wet', '700 mg/Nm3'),
-// as ppmv dry in the gas of the case's first segment (the lever's unit).
-double h2s_ppmv_dry(const std::string& text, const acidload::EngineCase& c) {
-  using namespace acidload;
-  io::Document doc;
-  doc.file = "(command line)";
-  doc.lines = {text};
-  io::Node n;
-  n.type = io::Node::Type::scalar;
-  n.scalar = text;
-  n.mark = {1, 1};
-  n.path = "--range";
-  Concentration given;
-  try {
-    given = io::concentration(doc, n, Basis::dry);
-  } catch (const InputError& e) {
-    throw UsageError("--range '" + text + "' for h2s: " + e.expected());
-  }
-  const Segment& s = c.record.front();
-  const GasContext ctx = context(s.fuel, s.operation.fuel_flow);
-  const double m = molar_mass(Gas::H2S);
-  return from_wet_mole_fraction(to_wet_mole_fraction(given, m, ctx), ConcentrationUnit::ppmv, Basis::dry, m, ctx);
-}
-
 int run(const std::vector<std::string>& args, std::FILE* out) {
   using namespace acidload;
   const SolveOptions o = parse(args);
@@ -74,8 +52,8 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
   LeverSearch search = default_search(c, *lever);
   if (!o.low.empty()) {
     if (*lever == Lever::h2s_ppmv_dry) {
-      search.low = h2s_ppmv_dry(o.low, c);
-      search.high = h2s_ppmv_dry(o.high, c);
+      search.low = h2s_ppmv_dry_option(o.low, c, "--range");
+      search.high = h2s_ppmv_dry_option(o.high, c, "--range");
     } else {
       search.low = quantity_option(o.low, kind, "--range");
       search.high = quantity_option(o.high, kind, "--range");

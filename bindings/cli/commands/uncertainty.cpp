@@ -39,11 +39,7 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
   using namespace acidload;
   const UncertaintyOptions o = parse(args);
   // The numbers are read before the case, so a malformed one is a usage error whatever the file holds.
-  const std::optional<std::uint64_t> draws =
-      o.draws.empty() ? std::nullopt : std::optional(count_option(o.draws, "--draws", 1, max_draws));
-  const std::optional<std::uint64_t> seed =
-      o.seed.empty() ? std::nullopt : std::optional(count_option(o.seed, "--seed", 0, 9e15));
-  const int threads = o.threads.empty() ? 0 : static_cast<int>(count_option(o.threads, "--threads", 1, 256));
+  const DrawOptions draws = draw_options(o.draws, o.seed, o.threads, max_draws);
   const io::CaseFile file = io::load_case(o.case_file, o.overlays);
   const EngineCase& c = pick_variant(file, o.variant);
   // prices (economics.*) are for `costs --monte-carlo`; the drain interval does not depend on them
@@ -59,10 +55,10 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
     for (const std::string& k : fs.parameters) parameter(k);
     fit = calibrate(c, io::read_lab_samples(o.lab), fs);
   }
-  const std::uint64_t used_seed = seed ? *seed : file.uncertainty.seed;
-  const int n = draws ? static_cast<int>(*draws) : file.uncertainty.draws;
+  const std::uint64_t used_seed = draws.seed_or(file.uncertainty.seed);
+  const int n = draws.draws_or(file.uncertainty.draws);
   const ProgressLine progress("uncertainty: " + std::to_string(n) + " draws");
-  const MonteCarloResult r = monte_carlo(c, inputs, fit ? &*fit : nullptr, !o.first_only, n, used_seed, threads);
+  const MonteCarloResult r = monte_carlo(c, inputs, fit ? &*fit : nullptr, !o.first_only, n, used_seed, draws.threads);
   print_monte_carlo(out, c, inputs, r, used_seed);
   print_caution(out);
   return exit_ok;

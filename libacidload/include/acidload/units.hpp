@@ -1,7 +1,8 @@
 #pragma once
 // acidload::units — Boost.Units quantities for the core's inputs, converted once, here, to the plain
 // SI doubles of the core (the units table in acidload/core.hpp). Not a core header: it includes
-// Boost. Link acidload::units (or the umbrella acidload::acidload).
+// Boost. Link acidload::units and include this header yourself: the umbrella (acidload/acidload.hpp,
+// acidload::acidload) leaves it out, so the program and the Python module never compile Boost.Units.
 //
 //   fuel.h2s = units::concentration(450.0 * units::ppmv, Basis::dry);
 //   Operation op = units::operation(503.0 * units::normal_m3_per_hour, 1.0 * units::megawatts,
@@ -122,9 +123,8 @@ struct normal_cubic_metre_base_unit
   static const char* symbol() { return "Nm^3"; }              //!< [-]
 };
 
-//! Ideal-gas molar volume at the normal state, R·T_n/p_n with CODATA R [m³/mol].
-inline constexpr double normal_molar_volume =
-    constants::molar_gas_constant * constants::zero_celsius / constants::standard_atmosphere;
+//! Ideal-gas molar volume at the normal state [m³/mol]: the core's one definition of the Nm³.
+using constants::normal_molar_volume;
 
 }  // namespace acidload::units
 

@@ -109,7 +109,7 @@ double warmup_liner_extra(double dew, double js, double jr, double tw, double ri
   const double a = std::fmin(tw, tr), b = std::fmax(tw, tr);
   constexpr int panels = 16;
   double sum = 0;
-  for (const auto [lo, hi] : {std::pair{0.0, a}, std::pair{a, b}}) {
+  for (const auto& [lo, hi] : {std::pair{0.0, a}, std::pair{a, b}}) {
     if (hi <= lo) continue;
     const double h = (hi - lo) / panels;
     for (int k = 0; k < panels; ++k)

@@ -4,27 +4,13 @@
 #include <cstdio>
 #include <sstream>
 
+#include "output_text.hpp"
+
 namespace acidload::io {
 
 namespace {
-std::string num(double v) {
-  if (!std::isfinite(v)) return "null";
-  char b[32];
-  std::snprintf(b, sizeof b, "%.10g", v);
-  return b;
-}
-std::string quote(const std::string& s) {
-  std::string o = "\"";
-  for (char ch : s) {
-    if (ch == '"' || ch == '\\') o += '\\', o += ch;
-    else if (static_cast<unsigned char>(ch) < 0x20) {
-      char b[8];
-      std::snprintf(b, sizeof b, "\\u%04x", ch);
-      o += b;
-    } else o += ch;
-  }
-  return o + "\"";
-}
+std::string num(double v) { return detail::json_number(v); }
+std::string quote(const std::string& s) { return detail::json_string(s); }
 std::string items(const CostItems& c) {
   std::string s = "{";
   for (std::size_t i = 0; i < cost_item_count; ++i)

@@ -1,11 +1,11 @@
 // Fitted parameters written as an overlay: see acidload/io/fitted_overlay.hpp.
 #include "acidload/io/fitted_overlay.hpp"
 
-#include <algorithm>
 #include <cstdio>
 #include <map>
 
 #include "acidload/core/version.hpp"
+#include "acidload/io/keys.hpp"
 #include "acidload/io/results.hpp"
 
 namespace acidload::io {
@@ -16,22 +16,18 @@ std::string g(double v) {
   std::snprintf(b, sizeof b, "%.9g", v);
   return b;
 }
-// The value as a case file writes it.
-std::string written(const std::string& key, double v) {
-  static const std::map<std::string, std::string> unit = {
-      {"model.liner-wall-rise", "K"},           {"model.oxidation-rate", "A/cm/h"},
-      {"model.ring-zone-offset", "K"},          {"model.weak-base-d2896", "mg KOH/g"},
-      {"model.weak-base-d4739", "mg KOH/g"},    {"model.base-floor", "mg KOH/g"},
-      {"model.additive-depletion", "1/h"},      {"engine.jacket-water-out", "K"},
-      {"oil.fresh-tbn", "mg KOH/g"},            {"oil.volume", "m3"},
-      {"fuel.h2s", "ppmv"},                     {"model.induction-time", "h"}};
-  static const std::vector<std::string> bare = {"model.wet-so2-factor", "model.organic-acid-yield", "model.nitration-yield",
-                                                "model.depleted-oxidation-factor", "model.viscosity-per-oxidation",
-                                                "model.viscosity-per-nitration"};
-  const auto it = unit.find(key);
-  if (it != unit.end()) return g(v) + " " + it->second;
-  if (std::find(bare.begin(), bare.end(), key) != bare.end()) return g(v);
-  return g(v * 100) + " %";  // the shares
+// The value as a case file writes it, in the unit the registry (io/keys) shows the key in. The fit's
+// values are in the parameter table's units (studies/parameters.cpp), which are the core's units of
+// the key's kind, except for the two keys the fit varies in other terms: fuel.h2s (ppmv dry, the
+// lever's unit) and oil.consumption (kg/h of the first segment; the case reads kg/h at the engine's
+// power). `spread`: a standard error, a difference, so a temperature takes no offset.
+std::string written(const std::string& key, double v, bool spread) {
+  const CaseKey& k = case_key(key);
+  if (k.type == KeyType::contaminant) return g(v) + " ppmv dry";
+  if (key == "oil.consumption") return g(v) + " kg/h";
+  if (k.unit.empty()) return g(v);
+  const double shown = from_core_unit(k.kind, k.unit, v) - (spread ? from_core_unit(k.kind, k.unit, 0) : 0);
+  return g(shown) + " " + (spread && k.unit == "degC" ? "K" : k.unit);
 }
 }  // namespace
 
@@ -39,8 +35,8 @@ std::string overlay_text(const FitResult& fit, const std::string& case_file, con
   std::map<std::string, std::vector<std::pair<std::string, std::string>>> sections;
   for (const FittedParameter& p : fit.parameters) {
     const auto dot = p.key.find('.');
-    sections[p.key.substr(0, dot)].push_back({p.key.substr(dot + 1), written(p.key, p.estimate) + "   # ± " +
-                                                                      written(p.key, p.standard_error) + " (1 standard error)"});
+    sections[p.key.substr(0, dot)].push_back({p.key.substr(dot + 1), written(p.key, p.estimate, false) + "   # ± " +
+                                                                      written(p.key, p.standard_error, true) + " (1 standard error)"});
   }
   std::string o = overlay_signature + std::string(version()) + " to " + lab_file + " for " + case_file + ".\n" +
                   "# Apply with: acidload run " + case_file + " --overlay <this file>\n" +

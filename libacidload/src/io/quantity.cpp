@@ -12,6 +12,8 @@
 // a negative concentration are refused here.
 #include "acidload/io/quantity.hpp"
 
+#include "acidload/core/constants.hpp"
+
 #include "text.hpp"
 
 #include <algorithm>
@@ -50,8 +52,8 @@ constexpr Kind all_kinds[] = {Kind::temperature, Kind::temperature_change, Kind:
                               Kind::count, Kind::number};
 
 KindInfo make_info(Kind k) {
-  // Nm³ is an amount: V_m at 0 °C and 101.325 kPa (the normal state).
-  const double per_Nm3 = 1.0 / molar_volume(ReferenceState::normal());  // [mol/Nm³]
+  // Nm³ is an amount: 1/V_m mol, V_m at 0 °C and 101.325 kPa (the normal state; core/constants.hpp).
+  const double per_Nm3 = 1.0 / constants::normal_molar_volume;  // [mol/Nm³]
   KindInfo i;
   switch (k) {
     case Kind::temperature: i = {"temperature", {{"degC", 1, 273.15}, {"K", 1}}}; break;

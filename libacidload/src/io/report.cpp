@@ -21,6 +21,7 @@
 #include "acidload/io/svg.hpp"
 #include "acidload/studies/inverse.hpp"
 #include "acidload/studies/parameters.hpp"
+#include "output_text.hpp"
 
 namespace acidload::io {
 
@@ -816,18 +817,8 @@ std::string report_html(const ReportData& d) {
 
 // ---- CSV ------------------------------------------------------------------------------------
 namespace {
-std::string csv_field(const std::string& s) {
-  if (s.find_first_of(",\"\n\r") == std::string::npos) return s;
-  std::string o = "\"";
-  for (char ch : s) o += ch == '"' ? std::string("\"\"") : std::string(1, ch);
-  return o + "\"";
-}
-std::string num(double v) {
-  if (!std::isfinite(v)) return "";
-  char b[32];
-  std::snprintf(b, sizeof b, "%.10g", v);
-  return b;
-}
+using detail::csv_field;
+std::string num(double v) { return detail::csv_number(v); }
 }  // namespace
 
 std::string summary_csv(const CaseFile& c, const std::vector<VariantSummary>& rows) {

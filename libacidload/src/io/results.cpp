@@ -24,34 +24,14 @@
 #include "acidload/core/constants.hpp"
 #include "acidload/core/error.hpp"
 #include "acidload/core/version.hpp"
+#include "output_text.hpp"
 
 namespace acidload::io {
 
 namespace {
-std::string num(double v) {
-  if (!std::isfinite(v)) return "null";
-  char b[32];
-  std::snprintf(b, sizeof b, "%.10g", v);
-  return b;
-}
-std::string quote(const std::string& s) {
-  std::string o = "\"";
-  for (char ch : s) {
-    if (ch == '"' || ch == '\\') o += '\\', o += ch;
-    else if (static_cast<unsigned char>(ch) < 0x20) {
-      char b[8];
-      std::snprintf(b, sizeof b, "\\u%04x", ch);
-      o += b;
-    } else o += ch;
-  }
-  return o + "\"";
-}
-std::string csv_field(const std::string& s) {
-  if (s.find_first_of(",\"\n") == std::string::npos) return s;
-  std::string o = "\"";
-  for (char ch : s) o += ch == '"' ? std::string("\"\"") : std::string(1, ch);
-  return o + "\"";
-}
+using detail::csv_field;
+std::string num(double v) { return detail::json_number(v); }
+std::string quote(const std::string& s) { return detail::json_string(s); }
 }  // namespace
 
 std::string summary_json(const CaseFile& c, const std::vector<VariantSummary>& rows, const EconomicsResults* economics) {

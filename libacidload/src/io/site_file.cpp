@@ -14,6 +14,7 @@
 #include "acidload/core/error.hpp"
 #include "acidload/core/version.hpp"
 #include "case_reader.hpp"
+#include "output_text.hpp"
 #include "text.hpp"
 
 namespace acidload::io {
@@ -240,30 +241,9 @@ SiteFile load(Reader& r, const std::shared_ptr<Document>& main) {
   return out;
 }
 
-std::string num(double v) {
-  if (!std::isfinite(v)) return "null";
-  char b[32];
-  std::snprintf(b, sizeof b, "%.10g", v);
-  return b;
-}
-std::string quote(const std::string& s) {
-  std::string o = "\"";
-  for (char ch : s) {
-    if (ch == '"' || ch == '\\') o += '\\', o += ch;
-    else if (static_cast<unsigned char>(ch) < 0x20) {
-      char b[8];
-      std::snprintf(b, sizeof b, "\\u%04x", ch);
-      o += b;
-    } else o += ch;
-  }
-  return o + "\"";
-}
-std::string csv_field(const std::string& s) {
-  if (s.find_first_of(",\"\n") == std::string::npos) return s;
-  std::string o = "\"";
-  for (char ch : s) o += ch == '"' ? std::string("\"\"") : std::string(1, ch);
-  return o + "\"";
-}
+std::string num(double v) { return detail::json_number(v); }
+std::string quote(const std::string& s) { return detail::json_string(s); }
+using detail::csv_field;
 std::string items(const CostItems& c) {
   std::string s = "{";
   for (std::size_t i = 0; i < cost_item_count; ++i)

@@ -5,6 +5,10 @@ namespace acidload::constants {
 inline constexpr double molar_gas_constant = 8.314462618;   //!< R [J/(mol·K)], exact (CODATA 2018)
 inline constexpr double standard_atmosphere = 101325.0;     //!< [Pa], exact by definition
 inline constexpr double zero_celsius = 273.15;              //!< 0 °C [K], exact by definition
+//! The normal state of "Nm³" (0 °C, 101.325 kPa) and the ideal-gas molar volume there, V_m = R·T_n/p_n
+//! with CODATA R [m³/mol] (≈ 22.414 L/mol): 1 Nm³ is 1/V_m mol. The one definition of the normal cubic
+//! metre, used by the case reader's units (io/quantity.cpp) and the typed constructors (acidload/units.hpp).
+inline constexpr double normal_molar_volume = molar_gas_constant * zero_celsius / standard_atmosphere;  //!< [m³/mol]
 inline constexpr double mmhg = 133.322387415;               //!< 1 conventional mmHg [Pa] (13.5951 g/cm³ · 1 mm · g_n; the torr, 101325/760, differs by 1.4e-7)
 inline constexpr double hours_per_second = 1.0 / 3600.0;    //!< [h/s]
 inline constexpr double seconds_per_hour = 3600.0;          //!< [s/h]

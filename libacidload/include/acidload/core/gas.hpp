@@ -2,13 +2,16 @@
 // Gas reference states, analysis basis and conversions of contaminant figures.
 #include <string_view>
 
+#include "acidload/core/constants.hpp"
+
 namespace acidload {
 
 //! The state a gas volume is quoted at ("Nm³" = normal state).
 struct ReferenceState {
-  double temperature = 273.15;  //!< [K]
-  double pressure = 101325.0;   //!< [Pa]
-  static ReferenceState normal() { return {273.15, 101325.0}; }    //!< 0 °C, 101.325 kPa
+  double temperature = constants::zero_celsius;       //!< [K]
+  double pressure = constants::standard_atmosphere;   //!< [Pa]
+  //! 0 °C, 101.325 kPa: the state of "Nm³" (its molar volume is constants::normal_molar_volume)
+  static ReferenceState normal() { return {constants::zero_celsius, constants::standard_atmosphere}; }
   static ReferenceState standard() { return {288.15, 101325.0}; }  //!< 15 °C, 101.325 kPa
 };
 //! Validates a reference state; throws InputError naming the field.

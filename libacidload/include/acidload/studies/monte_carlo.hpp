@@ -3,6 +3,7 @@
 #include <cstdint>
 #include <string>
 #include <vector>
+#include <utility>
 
 #include "acidload/studies/whatif.hpp"
 
@@ -19,6 +20,9 @@ struct Distribution {
   double a = 0, b = 0, c = 0;  //!< normal: mean, sd; lognormal: median, σ of ln; uniform: low, high; triangular: low, mode, high
 };
 struct UncertainInput {
+  UncertainInput() = default;
+  //! An input shown in core units, with no position (the case reader fills the rest).
+  UncertainInput(std::string k, Distribution d) : key(std::move(k)), distribution(d) {}
   std::string key;  //!< from parameter_table()
   Distribution distribution;
   //! How a refused draw is shown to the user: in `unit`, as shown_at_zero + core value × shown_per_core
