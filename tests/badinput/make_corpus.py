@@ -59,6 +59,26 @@ cases = {
     "anchor-alias": (HEAD + FUEL + "engine: &e\n  power: 1 MW\n  electrical-efficiency: 40 %\n" + OIL + "variants:\n  - name: x\n    engine: *e\n", "6:9", "anchors and aliases"),
 }
 
+# Site files (docs/case-format.md, "Sites"): the shared sections above, then `site`; line 11 is `site:`.
+SITE = "site:\n  engines:\n    - name: a\n"
+cases.update({
+    "site-engine-own-fuel": (HEAD + FUEL + ENGINE + OIL + SITE + "      fuel: {h2s: 5 ppmv}\n", "14:13", "one gas supply"),
+    "site-engine-name-twice": (HEAD + FUEL + ENGINE + OIL + SITE + "    - name: a\n", "14:13", "not used before"),
+    "site-engine-shared-price": (HEAD + FUEL + ENGINE + OIL + SITE + "      economics: {carbon-price: 3 per kg}\n", "14:33",
+                                 "the train's prices and the currency are the site's"),
+    "site-engine-record-gas": (HEAD + FUEL + ENGINE + OIL + SITE + "      record:\n        segments:\n          - {hours: 100 h, h2s: 3 ppmv}\n",
+                               "16:33", "no gas figures in an engine's record"),
+    "site-record-past-gas-record": (HEAD + FUEL + ENGINE + OIL + "site:\n  gas-record: {segments: [{hours: 100 h}]}\n  engines:\n"
+                                    "    - name: a\n", "14:7", "no longer than the site's gas record"),
+    "site-top-level-record": (HEAD + FUEL + ENGINE + OIL + "record: {segments: [{hours: 10 h}]}\n" + SITE, "11:9", "each engine's record"),
+    "site-without-engines": (HEAD + FUEL + ENGINE + OIL + "site:\n  name: x\n", "12:3", "the site's 'engines'"),
+    "site-misspelt-key": (HEAD + FUEL + ENGINE + OIL + "site:\n  engins: []\n", "12:3", "closest: 'engines'"),
+    "site-gas-negative-hours": (HEAD + FUEL + ENGINE + OIL + "site:\n  gas-record: {segments: [{hours: -5 h}]}\n  engines: [{name: a}]\n",
+                                "12:35", "from 0 to 1e+06 h"),
+    "site-with-variants": (HEAD + FUEL + ENGINE + OIL + "variants: []\n" + SITE, "11:11", "no 'variants' in a site file"),
+    "site-engine-not-a-map": (HEAD + FUEL + ENGINE + OIL + "site:\n  engines:\n    - engine 1\n", "13:7", "keys of site.engines[0]"),
+})
+
 for name, (text, loc, frag) in cases.items():
     (here / f"{name}.yaml").write_text(f"# expect: {loc} | {frag}\n" + text)
 

@@ -1,5 +1,6 @@
 """Example tier: the shipped cases run through the program.
-- Golden results: the summaries of cases/demo-site.yaml and cases/drifting-gas.yaml against
+- Golden results: the summaries of cases/demo-site.yaml and cases/drifting-gas.yaml and the site.json of
+  cases/demo-landfill-site.yaml against
   tests/example/golden.json (regression values written by acidload itself when the physics was
   validated; they guard against unintended change, they are not a validation — that is the
   reference tier's job). Tolerance: 1e-9 relative on every number.
@@ -82,6 +83,32 @@ with tempfile.TemporaryDirectory() as tmp:
         header = (out / "trajectories.csv").read_text().split("\n", 1)[0]
         if not header.startswith("variant,charge,engine_hours_h,oil_hours_h"):
             fail(f"{case}: trajectories.csv header {header!r}")
+    # the demo site (cases/demo-landfill-site.yaml): its site.json, and its files
+    out = tmp / "demo-landfill-site"
+    r = run("run", "cases/demo-landfill-site.yaml", "--out", str(out))
+    if r.returncode != 0:
+        fail(f"demo-landfill-site: exit {r.returncode}: {r.stderr}")
+    else:
+        site = json.loads((out / "site.json").read_text())
+        site.pop("acidload-version")
+        site.pop("site-file")
+        results["demo-landfill-site"] = site
+        if not (out / "engines.csv").read_text().startswith("engine,gas_share,"):
+            fail("demo-landfill-site: engines.csv header")
+        if "Caution:" not in r.stdout:
+            fail("demo-landfill-site: no caution line in the output")
+        before = tree_digest(out)  # a failed site run leaves the previous results untouched
+        bad = tmp / "bad-site.yaml"
+        bad.write_text((root / "cases" / "demo-landfill-site.yaml").read_text().replace("h2s: 350 ppmv", "h2s: 350 ppmw"))
+        r = run("run", str(bad), "--out", str(out))
+        if r.returncode != 3 or tree_digest(out) != before:
+            fail(f"bad site: exit {r.returncode} (expected 3), folder changed: {tree_digest(out) != before}")
+        foreign = tmp / "foreign"
+        foreign.mkdir()
+        (foreign / "notes.txt").write_text("mine")
+        r = run("costs", "cases/demo-landfill-site.yaml", "--out", str(foreign))
+        if r.returncode != 3 or (foreign / "notes.txt").read_text() != "mine" or len(list(foreign.iterdir())) != 1:
+            fail(f"site costs --out a foreign folder: exit {r.returncode}, expected 3 and the folder left as it was")
     if update:
         golden_path.write_text(json.dumps(results, indent=1, sort_keys=True) + "\n")
         print(f"golden results written to {golden_path}")

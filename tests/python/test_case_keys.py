@@ -27,7 +27,7 @@ def schema_sections():
     ref_state = [a for a in s["properties"]["reference-state"]["anyOf"] if a.get("type") == "object"][0]
     sections = {"": s["properties"], "reference-state": ref_state["properties"]}
     for name in ("fuel", "engine", "oil", "model", "limits", "run", "record", "segment", "uncertainty", "uncertain-input",
-                 "scrubbing", "stage", "economics"):
+                 "scrubbing", "stage", "economics", "site", "gas-record", "gas-segment", "site-engine"):
         sections[name] = d[name]["properties"]
     return sections
 

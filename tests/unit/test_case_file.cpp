@@ -8,6 +8,7 @@
 
 #include "acidload/acidload.hpp"
 #include "acidload/io/case_file.hpp"
+#include "acidload/io/site_file.hpp"
 
 using namespace acidload;
 
@@ -172,7 +173,8 @@ TEST_CASE("files of every format version load") {
   for (const auto& e : std::filesystem::directory_iterator(ACIDLOAD_SOURCE_DIR "/cases")) {
     if (e.path().extension() != ".yaml") continue;
     INFO(e.path().string());
-    CHECK_NOTHROW(io::load_case(e.path().string()));
+    if (io::is_site_file(e.path().string())) CHECK_NOTHROW(io::load_site(e.path().string()));  // a site file (site_file.hpp)
+    else CHECK_NOTHROW(io::load_case(e.path().string()));
     ++n;
   }
   CHECK(n >= 3);

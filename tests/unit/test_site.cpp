@@ -172,3 +172,64 @@ TEST_CASE("a site refuses engines on different gas, and no engines") {
   CHECK_THROWS_AS(run_site(site_of({engine(1000, 300), engine(1000, 200)}, {iron_bed(1000, 50)})), InputError);
   CHECK_THROWS_AS(run_site(site_of({}, {iron_bed(1000, 50)})), InputError);
 }
+
+// ---- the site file's gas record (io/site_file.hpp; docs/case-format.md, "Sites")
+
+#include "acidload/io/case_file.hpp"
+#include "acidload/io/site_file.hpp"
+
+TEST_CASE("an engine's record is laid on the gas record by running hours: split at each gas change") {
+  Segment s = acidload_test::sanity_segment(1500, 0);
+  s.starts = 15;
+  s.calendar_hours = 3000;
+  s.events = {OilEvent{}};
+  FuelGas low = acidload_test::sanity_segment(1, 100).fuel, high = acidload_test::sanity_segment(1, 400).fuel;
+  const std::vector<Segment> rec = io::on_gas_record({s, acidload_test::sanity_segment(500, 0)}, {1000, 1000}, {low, high}, "rec");
+  // hand: 1500 h across the change at 1000 h → 1000 h + 500 h (starts 10 + 5, calendar 2000 + 1000, the
+  // event on the first piece only), then the second segment's 500 h all in the second stretch
+  REQUIRE(rec.size() == 3);
+  CHECK(rec[0].hours == 1000);
+  CHECK(rec[1].hours == 500);
+  CHECK(rec[2].hours == 500);
+  CHECK(rec[0].starts == doctest::Approx(10));
+  CHECK(rec[1].starts == doctest::Approx(5));
+  CHECK(rec[0].calendar_hours == doctest::Approx(2000));
+  CHECK(rec[0].events.size() == 1);
+  CHECK(rec[1].events.empty());
+  CHECK(rec[0].fuel[Gas::H2S] == low[Gas::H2S]);
+  CHECK(rec[1].fuel[Gas::H2S] == high[Gas::H2S]);
+  CHECK(rec[2].fuel[Gas::H2S] == high[Gas::H2S]);
+  CHECK(rec[0].operation.fuel_flow == s.operation.fuel_flow);  // the flow as read (docs/case-format.md, "Sites")
+  // a record past the gas record's end is refused
+  CHECK_THROWS_AS(io::on_gas_record({acidload_test::sanity_segment(2001, 0)}, {1000, 1000}, {low, high}, "rec"), InputError);
+  // exactly the gas record's length is fine, and no gas record leaves the record as it is
+  CHECK(io::on_gas_record({acidload_test::sanity_segment(2000, 0)}, {1000, 1000}, {low, high}, "rec").size() == 2);
+  CHECK(io::on_gas_record({s}, {}, {}, "rec").size() == 1);
+}
+
+TEST_CASE("a site file: engines merged over the file's sections, the site's gas, train and prices") {
+  const std::string text = R"(format-version: 1
+fuel: {composition: {CH4: 55 %, CO2: 45 %}, h2s: 200 ppmv}
+engine: {rated-power: 1 MW, electrical-efficiency: 40 %, load: 100 %}
+oil: {volume: 600 L}
+scrubbing: {stages: [{name: bed, kind: iron-oxide, bed-mass: 1 t, changeout-every: 1000 h}]}
+economics: {currency: EUR, iron-oxide-price: 2 per kg, oil-price: 3 per L}
+site:
+  engines:
+    - {name: a}
+    - {name: b, engine: {load: 50 %}, oil: {volume: 400 L}, economics: {oil-price: 4 per L}}
+)";
+  const io::SiteFile f = io::load_site_text(text, "site.yaml", ".");
+  REQUIRE(f.site.engines.size() == 2);
+  CHECK(f.site.name == "site");  // no name, no case title: the file's stem
+  CHECK(f.currency == "EUR");
+  CHECK(f.site.train.size() == 1);
+  CHECK(f.site.prices.iron_oxide == doctest::Approx(2));
+  const EngineCase& a = f.site.engines[0].engine;
+  const EngineCase& b = f.site.engines[1].engine;
+  CHECK(b.record.front().operation.fuel_flow == doctest::Approx(a.record.front().operation.fuel_flow / 2));
+  CHECK(b.charge.mass == doctest::Approx(a.charge.mass * 400 / 600));
+  CHECK(f.site.engines[1].prices.oil == doctest::Approx(4000));  // per m³
+  CHECK(f.site.engines[0].prices.oil == doctest::Approx(3000));
+  CHECK_THROWS_AS(io::load_case_text(text, "site.yaml", "."), InputError);  // a site file is no case
+}

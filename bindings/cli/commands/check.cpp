@@ -1,6 +1,8 @@
 // acidload check CASE: read a case and show what was read, computing nothing.
 #include "../cli.hpp"
 #include "../report.hpp"
+#include "../site_report.hpp"
+#include "acidload/io/site_file.hpp"
 
 namespace acidload_cli {
 namespace {
@@ -18,6 +20,10 @@ CheckOptions parse(const std::vector<std::string>& args) {
 
 int run(const std::vector<std::string>& args, std::FILE* out) {
   const CheckOptions o = parse(args);
+  if (acidload::io::is_site_file(o.case_file)) {
+    if (!o.overlays.empty()) throw UsageError("a site file takes no --overlay");
+    return check_site_file(out, o.case_file);
+  }
   const acidload::io::CaseFile c = acidload::io::load_case(o.case_file, o.overlays);
   print_check(out, c);
   print_oil_cautions(out, c);
@@ -32,7 +38,8 @@ extern const Command check_command{
     "usage: acidload check CASE [--overlay FILE]...\n\n"
     "Reads the case file CASE (and any overlays, merged over it in order) and prints the inputs as\n"
     "read: gas, engine, oil, limits and record of each variant. Nothing is computed.\n"
-    "Exit code 3 with file:line:column and the reason when the case has a mistake.\n",
+    "Exit code 3 with file:line:column and the reason when the case has a mistake.\n"
+    "A site file (a 'site' section) is read as a site: its gas, train and engines.\n",
     run};
 
 }  // namespace acidload_cli

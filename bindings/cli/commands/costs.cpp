@@ -3,6 +3,8 @@
 #include "../cli.hpp"
 #include "../cost_report.hpp"
 #include "../report.hpp"
+#include "../site_report.hpp"
+#include "acidload/io/site_file.hpp"
 #include "acidload/acidload.hpp"
 #include "acidload/io/economics_results.hpp"
 
@@ -10,7 +12,7 @@ namespace acidload_cli {
 namespace {
 
 struct CostsOptions {
-  std::string case_file, variant, stage, low, high, step, draws, seed, threads;
+  std::string case_file, variant, stage, low, high, step, draws, seed, threads, out;
   bool cheapest = false, monte_carlo = false;
   std::vector<std::string> overlays;
 };
@@ -29,6 +31,7 @@ CostsOptions parse(const std::vector<std::string>& args) {
       .value("--seed", o.seed, "N")
       .value("--threads", o.threads, "N")
       .values("--overlay", o.overlays, "FILE")
+      .value("--out", o.out, "FOLDER")
       .parse(args);
   if (!o.cheapest && (!o.stage.empty() || !o.low.empty()))
     throw UsageError("--stage and --range belong to --cheapest-level");
@@ -44,6 +47,12 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
   if (!o.step.empty()) step = quantity_option(o.step, io::Kind::fraction, "--sensitivity");
   if (!(step > 0 && step < 1)) throw InputError("--sensitivity", o.step, "a share above 0 and below 100 %");
   const DrawOptions draws = draw_options(o.draws, o.seed, o.threads, 1e7);
+  if (io::is_site_file(o.case_file)) {
+    if (o.cheapest || o.monte_carlo || !o.overlays.empty() || !o.step.empty())
+      throw UsageError("a site file takes only --out here (no --cheapest-level, --monte-carlo, --sensitivity or --overlay)");
+    return run_site_file(out, o.case_file, o.out, true);
+  }
+  if (!o.out.empty()) throw UsageError("--out belongs to a site file (a case's costs go to run --out's summary.json)");
   const io::CaseFile file = io::load_case(o.case_file, o.overlays);
   if (file.costs.empty())
     throw InputError("economics", "(no section)", "an 'economics' section with the prices in " + o.case_file,
@@ -93,7 +102,8 @@ extern const Command costs_command{
     "costs", "costs CASE", "what scrubbing and oil cost a year and per MWh, by variant; the cheapest level",
     "usage: acidload costs CASE [--sensitivity SHARE] [--cheapest-level [--variant NAME] [--stage N]\n"
     "                           [--range LOW HIGH]] [--monte-carlo [--draws N] [--seed N] [--threads N]]\n"
-    "                           [--overlay FILE]...\n\n"
+    "                           [--overlay FILE]...\n"
+    "       acidload costs SITE [--out FOLDER]\n\n"
     "For a case with an 'economics' section: each variant's scrubbing train run over the record (bed\n"
     "loading, changeouts, the H2S the engine sees), its oil changes at each charge's first limit, and\n"
     "every cost item per year and per MWh with the total and the rank. Then which price moves the\n"
@@ -107,7 +117,10 @@ extern const Command costs_command{
     "                    the stage's inlet).\n"
     "  --monte-carlo     P10/P50/P90 of each total per MWh and the share of draws each variant is\n"
     "                    cheapest, over the 'uncertainty' section's inputs: prices (economics.*) and\n"
-    "                    parameters such as fuel.h2s.\n",
+    "                    parameters such as fuel.h2s.\n\n"
+    "A site file (a 'site' section): the site's tables as 'run' prints them, then every cost item of\n"
+    "each engine per MWh (its own items, plus its gas share of the shared train's); --out FOLDER\n"
+    "writes site.json, engines.csv and train.csv (the rules of run --out).\n",
     run};
 
 }  // namespace acidload_cli

@@ -10,6 +10,7 @@ The Python face of the acidload C++ library (the same code as the ``acidload`` p
     result.to_dataframe()                                     # pandas, when installed
     acidload.drain_interval(case, h2s_ppmv=np.linspace(0, 600, 61))   # a sweep, in C++ [h]
     acidload.solve_for_interval(case, target_h=4000, h2s_ppmv=(0, 800))
+    acidload.Site("cases/demo-landfill-site.yaml").run()     # engines sharing one gas supply and train
 
 Keyword inputs carry their unit in the name (``h2s_ppmv``, ``oil_volume_l``, ``jacket_water_out_c``);
 the core's own units are hours, K, Pa, kg, m³, mol and mg KOH/g. Errors are ValueError subclasses
@@ -21,6 +22,7 @@ from ._economics import COST_ITEMS, Costs, cheapest_level, cost_monte_carlo, cos
 from ._case import KEYWORDS, Case, Variant, case, case_from_dict, load_case, load_case_text
 from ._calibration import (PARAMETERS, Fit, default_alarm_levels, fit, fit_residuals, forecast, monte_carlo, predict,
                            read_lab, read_lab_samples, trend)
+from ._site import Site, SiteResult
 from ._fleet import FLEET_COLUMNS, CaseOutcome, FleetResult, monte_carlo_many, run_many
 from ._errors import Error, FitRefusedError, InputError, NoAnswerError, NotModelledError
 from ._gas import CONCENTRATION_UNITS, accepted_units, convert, convert_figure, molar_mass, molar_volume, parse_quantity
@@ -38,6 +40,8 @@ __all__ = [
     # runs and studies
     "run", "Result", "VariantResult", "TRAJECTORY_UNITS", "drain_interval", "solve_for_interval",
     "InverseAnswer", "LEVERS",
+    # sites: engines sharing one gas supply and one scrubbing train
+    "Site", "SiteResult",
     # fleets: many cases on all cores or a Dask cluster
     "run_many", "monte_carlo_many", "FleetResult", "CaseOutcome", "FLEET_COLUMNS",
     # economics

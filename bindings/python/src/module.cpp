@@ -15,6 +15,7 @@
 
 #include "acidload/acidload.hpp"
 #include "acidload/io/case_file.hpp"
+#include "acidload/io/site_file.hpp"
 #include "acidload/io/fitted_overlay.hpp"
 #include "acidload/io/lab_file.hpp"
 #include "acidload/io/quantity.hpp"
@@ -623,6 +624,91 @@ PYBIND11_MODULE(_core, m) {
   m.def("load_case_text", &io::load_case_text, py::arg("text"), py::arg("file_name"), py::arg("base_dir"),
         py::arg("overlays") = std::vector<std::string>{}, py::call_guard<py::gil_scoped_release>(),
         "Reads a case from YAML text; relative file names (a record CSV) resolve against base_dir.");
+  // a site (docs/model.md §18.4): one gas supply and one train shared by several engines
+  py::class_<io::SiteFile>(m, "SiteFile", "A loaded site file: the shared gas and train, the engines.")
+      .def_readonly("file", &io::SiteFile::file, "path as given")
+      .def_readonly("title", &io::SiteFile::title, "the 'case' key (or the site's name)")
+      .def_property_readonly("name", [](const io::SiteFile& f) { return f.site.name; }, "the site's name")
+      .def_property_readonly("engine_names", [](const io::SiteFile& f) {
+        std::vector<std::string> n;
+        for (const CostCase& c : f.site.engines) n.push_back(c.engine.name);
+        return n;
+      }, "the engines, in the file's order")
+      .def_readonly("currency", &io::SiteFile::currency, "economics.currency")
+      .def_readonly("gas_hours", &io::SiteFile::gas_hours, "the gas record's stretches [h] (empty: the fuel gas throughout)");
+  m.def("is_site_file", &io::is_site_file, py::arg("path"), "True when the file's top level holds 'site'.");
+  m.def("load_site", &io::load_site, py::arg("path"), py::call_guard<py::gil_scoped_release>(),
+        "Reads a site file. Raises InputError with file, line and column.");
+  m.def("load_site_text", &io::load_site_text, py::arg("text"), py::arg("file_name"), py::arg("base_dir"),
+        py::call_guard<py::gil_scoped_release>(), "Reads a site from YAML text.");
+  m.def("run_site", [](const io::SiteFile& f) {
+    SiteResult r;
+    {
+      py::gil_scoped_release nogil;
+      r = run_site(f.site);
+    }
+    const auto items = [](const CostItems& c) {
+      py::dict d;
+      for (std::size_t i = 0; i < cost_item_count; ++i) d[py::str(std::string(name(all_cost_items[i])))] = c[i];
+      return d;
+    };
+    double hours = 0;
+    for (const Segment& s : r.raw) hours += s.hours;
+    py::list stages;
+    for (std::size_t k = 0; k < r.scrubbed.stages.size(); ++k) {
+      const StageRecord& s = r.scrubbed.stages[k];
+      const TrainStage& t = f.site.train[k];
+      py::dict d;
+      d["name"] = t.name;
+      d["kind"] = std::string(name(t.stage.kind));
+      d["changeouts"] = s.changeouts;
+      d["bed_share_used"] = s.bed_share_used;
+      d["first_bed_life_h"] = s.first_bed_life >= 0 ? py::object(py::float_(s.first_bed_life)) : py::object(py::none());
+      const double beds = s.changeouts + s.bed_share_used;
+      d["bed_interval_h"] = is_media_bed(t.stage.kind) ? py::object(py::float_(beds > 0 ? hours / beds : HUGE_VAL)) : py::object(py::none());
+      d["changeouts_per_year"] = r.shared_quantities.stages[k].changeouts;
+      d["sulfur_removed_kg"] = s.sulfur_removed;
+      d["mean_outlet_h2s_ppmv"] = s.mean_outlet_ppmv;
+      stages.append(d);
+    }
+    py::list engines;
+    for (const SiteEngine& e : r.engines) {
+      py::dict d;
+      d["name"] = e.name;
+      d["gas_share"] = e.gas_share;
+      d["running_hours"] = e.costs.record_hours;
+      d["mean_h2s_ppmv"] = e.mean_h2s_ppmv;
+      d["sulfur_burnt_mol"] = e.sulfur_burnt;
+      d["oil_changes"] = e.oil.changes;
+      d["completed_charges"] = e.oil.completed;
+      d["drain_intervals_h"] = e.oil.intervals;
+      d["mwh_per_year"] = e.costs.quantities.energy / 3.6e9;
+      d["oil_changes_per_year"] = e.costs.quantities.oil_changes;
+      d["total_per_year"] = e.costs.total_per_year;
+      d["total_per_mwh"] = e.costs.total_per_mwh;
+      d["per_year"] = items(e.costs.per_year);
+      engines.append(d);
+    }
+    double fuel = 0, h2s = 0;
+    for (const Segment& s : r.raw) fuel += s.operation.fuel_flow * s.hours, h2s += s.operation.fuel_flow * s.fuel[Gas::H2S] * s.hours;
+    py::dict site;
+    site["name"] = r.name;
+    site["running_hours"] = hours;
+    site["hours_per_year"] = r.shared_quantities.running_hours;
+    site["mean_fuel_flow_mol_per_h"] = hours > 0 ? fuel / hours : 0.0;
+    site["mean_h2s_flow_mol_per_h"] = hours > 0 ? h2s / hours : 0.0;
+    site["stages"] = stages;
+    site["sulfur_raw_mol"] = r.scrubbed.sulfur.raw;
+    site["sulfur_stages_mol"] = r.scrubbed.sulfur.stages;
+    site["sulfur_engines_mol"] = r.scrubbed.sulfur.engine;
+    site["sulfur_balance_error"] = r.sulfur_balance_error;
+    site["shared_per_year"] = items(r.shared_per_year);
+    site["total_per_year"] = r.total_per_year;
+    py::dict out;
+    out["site"] = site;
+    out["engines"] = engines;
+    return out;
+  }, py::arg("site"), "Runs a site (the C++ released from the GIL); the per-site and per-engine figures as dicts.");
   m.def("section_keys", [](const std::string& s) { return io::section_keys(s); }, py::arg("section"),
         "The keys of a case-file section ('' for the top level).");
   m.def(

@@ -4,5 +4,6 @@
 // acidload::units where you want typed inputs.
 #include "acidload/core.hpp"
 #include "acidload/studies/economics.hpp"
+#include "acidload/studies/site.hpp"
 #include "acidload/studies/timeline.hpp"
 #include "acidload/studies/whatif.hpp"

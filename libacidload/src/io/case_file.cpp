@@ -26,7 +26,7 @@ using detail::Reader;
 
 // A CSV record as a list of segment nodes; header "name [unit]" gives bare cells a unit. A relative
 // file name resolves next to the file that names it (the case, or the overlay or variant's file).
-std::vector<Node> csv_segments(Reader& r, const Node& file_node) {
+std::vector<Node> csv_rows_of(Reader& r, const Node& file_node, const char* section, const std::string& path) {
   namespace fs = std::filesystem;
   fs::path p = r.text(file_node);
   if (p.is_relative()) p = fs::path(r.dir_of(file_node)) / p;
@@ -42,17 +42,17 @@ std::vector<Node> csv_segments(Reader& r, const Node& file_node) {
   d->lines = t.text;
   const int source = static_cast<int>(r.docs.size());
   r.docs.push_back(d);
-  const NamedColumns cols = named_columns(t, section_keys("segment"), "record column");
+  const NamedColumns cols = named_columns(t, section_keys(section), path + " column");
   std::vector<Node> out;
   for (std::size_t i = 0; i < t.rows.size(); ++i) {
     Node row;
     row.type = Node::Type::map;
     row.mark = {t.lines[i], 1};
-    row.path = "record[" + std::to_string(i) + "]";
+    row.path = path + "[" + std::to_string(i) + "]";
     row.source = source;
     for (std::size_t c = 0; c < t.header.size(); ++c) {
       if (t.rows[i][c].empty()) continue;
-      Node v = cell_node(t, i, c, cols.names[c], cols.units[c], "record");
+      Node v = cell_node(t, i, c, cols.names[c], cols.units[c], path);
       v.source = source;
       row.entries.emplace_back(cols.names[c], v);
       row.key_marks.push_back(v.mark);
@@ -61,6 +61,8 @@ std::vector<Node> csv_segments(Reader& r, const Node& file_node) {
   }
   return out;
 }
+
+std::vector<Node> csv_segments(Reader& r, const Node& file_node) { return csv_rows_of(r, file_node, "segment", "record"); }
 
 // The caps on work (case_file.hpp), checked before anything runs; each refusal names the key that
 // sets the work: the row where the hours pass the cap, the output interval, the detection step.
@@ -103,7 +105,13 @@ const Node& section(const Reader& r, const Node& root, const char* key, const ch
   return *n;
 }
 
-EngineCase build(Reader& r, const Node& root, const std::string& name) {
+}  // namespace
+
+std::vector<Node> detail::csv_rows(Reader& r, const Node& file_node, const char* section, const std::string& path) {
+  return csv_rows_of(r, file_node, section, path);
+}
+
+EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::string& name) {
   r.seen.clear();
   EngineCase c;
   c.name = name;
@@ -214,6 +222,21 @@ EngineCase build(Reader& r, const Node& root, const std::string& name) {
   return c;
 }
 
+void detail::train_error(const Reader& r, const Node& sn, const InputError& e) {
+  // a changeout level the fresh bed cannot hold: at that stage's changeout-at
+  if (const Node* st = sn.find("stages"))
+    for (const Node& item : st->items)
+      if (const Node* at = item.find("changeout-at"))
+        if (const Node* nm = item.find("name"); nm && e.key().find("." + nm->scalar + ".") != std::string::npos)
+          r.fail(*at, at->scalar, e.expected());
+  r.fail(sn, describe(sn), e.key() + ": " + e.expected());
+}
+
+namespace {
+using detail::build_engine_case;
+
+EngineCase build(Reader& r, const Node& root, const std::string& name) { return build_engine_case(r, root, name); }
+
 // A variant's scrubbing train and prices, from its merged tree: the engine then runs on the gas behind
 // the train; with prices (`priced`: the base has an economics section), its cost case keeps the raw gas.
 void scrub_and_price(Reader& r, const Node& tree, EngineCase& c, CaseFile& out, bool priced) {
@@ -233,13 +256,7 @@ void scrub_and_price(Reader& r, const Node& tree, EngineCase& c, CaseFile& out, 
   try {
     c.record = scrub(c, train, step).record;
   } catch (const InputError& e) {
-    // a changeout level the fresh bed cannot hold: at that stage's changeout-at
-    if (const Node* st = sn->find("stages"))
-      for (const Node& item : st->items)
-        if (const Node* at = item.find("changeout-at"))
-          if (const Node* nm = item.find("name"); nm && e.key().find("." + nm->scalar + ".") != std::string::npos)
-            r.fail(*at, at->scalar, e.expected());
-    r.fail(*sn, describe(*sn), e.key() + ": " + e.expected());
+    detail::train_error(r, *sn, e);
   }
 }
 
@@ -269,7 +286,9 @@ std::shared_ptr<Document> parse_into(Reader& r, std::string_view text, const std
   return d;
 }
 
-int format_version(const Reader& r, const Node& root) {
+}  // namespace
+
+int detail::format_version(const Reader& r, const Node& root) {
   const Node* v = root.find("format-version");
   if (!v) throw r.doc(root).error(Mark{1, 1}, "format-version", "(missing)",
                                    "a 'format-version: 1' line (this acidload reads versions 1 to " +
@@ -282,7 +301,7 @@ int format_version(const Reader& r, const Node& root) {
 }
 
 // A layer without the keys that are not merged (an overlay's format-version and case, a variant's name).
-Node without(const Node& n, std::initializer_list<const char*> keys) {
+Node detail::without(const Node& n, std::initializer_list<const char*> keys) {
   Node layer = n;
   for (const char* k : keys)
     for (std::size_t i = 0; i < layer.entries.size(); ++i)
@@ -294,12 +313,19 @@ Node without(const Node& n, std::initializer_list<const char*> keys) {
   return layer;
 }
 
+namespace {
+using detail::format_version;
+using detail::without;
+
 CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::string>& overlays) {
   const Node& root0 = main->root;
   if (root0.type != Node::Type::map)
     throw main->error(Mark{1, 1}, "(top level)", root0.type == Node::Type::null ? "(empty file)" : "(not a map)",
                       "a case: a map with format-version, fuel, engine, oil and optional sections");
   require_keys(*main, root0, section_keys(""));
+  if (const Node* s = root0.find("site"))
+    r.fail(*s, describe(*s), "a case without 'site': this is a site file, which acidload run, costs and check "
+                             "read as a site (Python: acidload.Site)");
   CaseFile out;
   out.file = main->file;
   out.format_version = format_version(r, root0);

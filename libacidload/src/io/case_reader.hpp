@@ -3,6 +3,7 @@
 // Every value is read through the key registry (keys.hpp): its kind, range and the message that
 // names the key as written and its position. Each node keeps the document it came from, so a value
 // merged in from an overlay or a variant is still reported at its own file, line and column.
+#include <initializer_list>
 #include <map>
 #include <memory>
 #include <string>
@@ -89,6 +90,16 @@ void read_economics(const Reader& r, const Node& e, CostCase& c, double& sensiti
 //! replaces; a key of an either-or pair (registry `alternative`) removes its partner. `section` is
 //! the registry section of `into` ("" at the top).
 void merge_layer(Node& into, const Node& from, const std::string& section = "");
+//! One variant's EngineCase from its merged tree (case_file.cpp).
+EngineCase build_engine_case(Reader& r, const Node& root, const std::string& name);
+//! A CSV file's rows as map nodes of `section`'s keys, paths "path[i]" (case_file.cpp).
+std::vector<Node> csv_rows(Reader& r, const Node& file_node, const char* section, const std::string& path);
+//! The file's `format-version`, checked (case_file.cpp).
+int format_version(const Reader& r, const Node& root);
+//! A map without the named keys.
+Node without(const Node& n, std::initializer_list<const char*> keys);
+//! Rethrows a train's refusal (a changeout level the fresh bed cannot hold) at the stage's key.
+[[noreturn]] void train_error(const Reader& r, const Node& scrubbing, const InputError& e);
 //! Marks every node of a tree as coming from document `source`.
 void set_source(Node& n, int source);
 

@@ -96,6 +96,8 @@ std::vector<CaseKey> build_table() {
   b.other("uncertainty", T::section, "–", "inputs for Monte Carlo");
   layer(b.other("scrubbing", T::section, "–", "gas cleaning before the engine: a train of stages"));
   layer(b.other("economics", T::section, "–", "prices: what oil, scrubbing and downtime cost"));
+  b.other("site", T::section, "–",
+          "a site: engines sharing this file's gas and scrubbing train (then no `record`, `variants`, `uncertainty` or `base-name`)");
 
   b.section = "reference-state";
   b.q("temperature", K::temperature, 200, 400, "degC", "0 degC", "temperature of the reference state",
@@ -391,6 +393,36 @@ std::vector<CaseKey> build_table() {
       "Prices::wear_hours");
   b.q("sensitivity-step", K::fraction, 1e-3, 0.99, "%", "20 %", "each price moved by this share in the sensitivity table",
       "EconomicsResults::sensitivity_step");
+
+  // ---- a site (docs/model.md §18.4): engines on this file's one gas supply and one scrubbing train
+  b.section = "site";
+  b.other("name", T::text, "the `case` title", "a name for the site's tables", "SiteCase::name");
+  b.other("gas-record", T::section, "the `fuel` section's gas throughout",
+          "the record of the gas quality on the site's running-hours clock (below)", "SiteFile::gas");
+  b.other("engines", T::list, "required", "the engines, each merged over the file's sections (below)", "SiteCase::engines");
+
+  b.section = "gas-record";
+  alt(b.other("file", T::text, "–", "a CSV of gas segments, relative to the site file", "SiteFile::gas"), "segments");
+  alt(b.other("segments", T::list, "–", "inline gas segments, each with its `hours`", "SiteFile::gas"), "file");
+
+  b.section = "gas-segment";
+  b.q("hours", K::duration, 0, 1e6, "h", "required", "running hours of the site's clock this gas lasts", "SiteFile::gas");
+  b.c("h2s", "hydrogen sulfide in the raw gas", "FuelAnalysis::h2s");
+  b.c("other-sulfur", "other sulfur, as S", "FuelAnalysis::other_sulfur");
+  b.c("chlorine", "organic chlorine, as Cl", "FuelAnalysis::chlorine");
+  b.c("fluorine", "organic fluorine, as F", "FuelAnalysis::fluorine");
+
+  b.section = "site-engine";
+  b.other("name", T::text, "required", "the engine's name, unique on the site", "EngineCase::name");
+  b.other("engine", T::section, "the file's `engine`", "its engine and operation, merged over the file's `engine`");
+  b.other("oil", T::section, "the file's `oil`", "its oil and charge, merged over the file's `oil`");
+  b.other("model", T::section, "the file's `model`", "its model parameters");
+  b.other("limits", T::section, "the file's `limits`", "its condemning limits");
+  b.other("run", T::section, "the file's `run`", "its horizon and output settings");
+  b.other("record", T::section, "one segment of its operation",
+          "its own record: hours, load or power, temperatures, events (no gas figures: the gas is the site's)");
+  b.other("economics", T::section, "the file's `economics`",
+          "its own prices: oil, oil changes, lab, downtime, wear, hours a year (the train's prices are the site's)");
 
   // ---- uncertainty
   b.section = "uncertainty";
