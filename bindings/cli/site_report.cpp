@@ -64,14 +64,14 @@ void print_site(std::FILE* out, const io::SiteFile& f, const SiteResult& r, bool
 }
 }  // namespace
 
-int run_site_file(std::FILE* out, const std::string& file, const std::string& out_folder, bool costs) {
+int run_site_file(std::FILE* out, const std::string& file, const std::string& out_folder, bool costs, int threads) {
   const io::SiteFile f = io::load_site(file);
   if (costs && !f.priced)
     throw InputError("economics", "(no section)", "an 'economics' section with the prices in " + file, InputWhere{file, 1, 1, ""});
   SiteResult r;
   {
     const ProgressLine progress("running the site: " + std::to_string(f.site.engines.size()) + " engines");
-    r = run_site(f.site);
+    r = run_site(f.site, threads);
   }
   if (costs) {  // ranks among the engines, by total per MWh
     for (SiteEngine& e : r.engines) {

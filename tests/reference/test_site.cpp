@@ -85,3 +85,26 @@ TEST_CASE("a site of one engine equals the engine's own case (consistency, not a
   REFERENCE_CHECK("site of one engine: total per year / the engine's", s.total_per_year / v.total_per_year, 1.0, absolute, 1e-14, "-",
                   "consistency with the single-engine economics (docs/model.md §18.4), not a reference");
 }
+
+#include "acidload/io/site_file.hpp"
+
+TEST_CASE("a site file's gas record laid on an engine's running hours: the time-weighted mean by hand") {
+  // docs/case-format.md, "Sites": engine hour t meets the gas record's hour t. No train: the engine
+  // burns the raw gas, so its running-hours mean H2S over 1000 h at 100 ppmv and 1000 h at 400 ppmv
+  // is (1000·100 + 1000·400)/2000 = 250 ppmv (arithmetic), and one of 1000 h sees 100 ppmv.
+  const io::SiteFile f = io::load_site_text(R"(format-version: 1
+fuel: {composition: {CH4: 55 %, CO2: 45 %}, h2s: 200 ppmv}
+engine: {rated-power: 1 MW, electrical-efficiency: 40 %, load: 100 %}
+oil: {volume: 600 L}
+site:
+  gas-record: {segments: [{hours: 1000 h, h2s: 100 ppmv}, {hours: 1000 h, h2s: 400 ppmv}]}
+  engines:
+    - {name: a, record: {segments: [{hours: 1500 h}, {hours: 500 h, load: 80 %}]}}
+    - {name: b, record: {segments: [{hours: 1000 h}]}}
+)", "site.yaml", ".");
+  const SiteResult r = run_site(f.site);
+  REFERENCE_CHECK("site engine H2S on the gas record, 2000 h", r.engines[0].mean_h2s_ppmv, 250, relative, 1e-9, "ppmv",
+                  "time-weighted mean by hand (docs/case-format.md, Sites: one running-hours clock), arithmetic");
+  REFERENCE_CHECK("site engine H2S on the gas record, 1000 h", r.engines[1].mean_h2s_ppmv, 100, relative, 1e-9, "ppmv",
+                  "the first stretch's gas (docs/case-format.md, Sites), arithmetic");
+}

@@ -233,3 +233,20 @@ site:
   CHECK(f.site.engines[0].prices.oil == doctest::Approx(3000));
   CHECK_THROWS_AS(io::load_case_text(text, "site.yaml", "."), InputError);  // a site file is no case
 }
+
+TEST_CASE("a site's engines give the same result on one thread and on several") {
+  SiteCase s;
+  s.train = {iron_bed(1500, 50)};
+  for (double f : {1.0, 0.6, 0.8, 1.1}) {
+    CostCase c;
+    c.engine = engine(6000, 300, f);
+    s.engines.push_back(c);
+  }
+  const SiteResult one = run_site(s, 1), three = run_site(s, 3);
+  REQUIRE(one.engines.size() == three.engines.size());
+  for (std::size_t e = 0; e < one.engines.size(); ++e) {
+    CHECK(one.engines[e].oil.changes == three.engines[e].oil.changes);
+    CHECK(one.engines[e].oil.intervals == three.engines[e].oil.intervals);
+    CHECK(one.engines[e].costs.total_per_year == three.engines[e].costs.total_per_year);
+  }
+}

@@ -129,7 +129,7 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
   if (files.size() == 1 && o.cases.size() == 1 && files.front() == o.cases.front() && acidload::io::is_site_file(files.front())) {
     if (!o.overlays.empty() || !o.summary_csv.empty())
       throw UsageError("a site file takes no --overlay or --summary-csv (its tables are in the --out folder)");
-    return run_site_file(out, files.front(), o.out, false);
+    return run_site_file(out, files.front(), o.out, false, threads);
   }
   if (files.size() == 1 && o.cases.size() == 1 && files.front() == o.cases.front())
     return run_case(out, acidload::io::load_case(files.front(), o.overlays), o.out, o.summary_csv);
@@ -162,7 +162,7 @@ extern const Command run_command{
     "                 case file's name), all in the one folder, swapped in whole.\n"
     "  --summary-csv FILE  also write the comparison table as CSV: one row per variant and charge\n"
     "                 (charges numbered from 1), units in the header; written atomically (one CASE).\n"
-    "  --threads N    threads for a fleet (default: one per core)\n\n"
+    "  --threads N    threads for a fleet or a site's engines (default: one per core)\n\n"
     "A site file (a 'site' section: engines sharing one gas supply and one scrubbing train) runs alone:\n"
     "a table per engine (gas share, H2S behind the train, oil changes, costs) and the site's train\n"
     "(changeouts, hours a bed, sulfur balance); --out FOLDER writes site.json, engines.csv and\n"

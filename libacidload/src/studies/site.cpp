@@ -1,7 +1,11 @@
 #include "acidload/studies/site.hpp"
 
+#include <algorithm>
+#include <atomic>
 #include <cmath>
+#include <exception>
 #include <string>
+#include <thread>
 
 #include "acidload/core/error.hpp"
 
@@ -93,7 +97,7 @@ bool is_shared_item(CostItem i) {
          i == CostItem::consumables || i == CostItem::capital;
 }
 
-SiteResult run_site(const SiteCase& site) {
+SiteResult run_site(const SiteCase& site, int threads) {
   std::vector<const EngineCase*> cases;
   for (const CostCase& c : site.engines) cases.push_back(&c.engine);
   const Merged m = merge(cases);
@@ -148,6 +152,32 @@ SiteResult run_site(const SiteCase& site) {
   const CostItems all = cost_items(q, site.prices);
   for (CostItem i : all_cost_items)
     if (is_shared_item(i)) out.shared_per_year[static_cast<std::size_t>(i)] = all[static_cast<std::size_t>(i)];
+  // each engine's oil changes on its gas (the bulk of the work), on `threads` threads: independent
+  std::vector<OilOverRecord> oils(n);
+  {
+    std::vector<std::exception_ptr> errors(n);
+    std::atomic<std::size_t> next{0};
+    const auto work = [&] {
+      for (std::size_t e; (e = next.fetch_add(1)) < n;) {
+        try {
+          oils[e] = oil_over_record(site.engines[e].engine, records[e]);
+        } catch (...) {
+          errors[e] = std::current_exception();
+        }
+      }
+    };
+    std::size_t workers = threads > 0 ? static_cast<std::size_t>(threads) : std::max(1u, std::thread::hardware_concurrency());
+    workers = std::max<std::size_t>(1, std::min(workers, n));
+    if (workers == 1) {
+      work();
+    } else {
+      std::vector<std::thread> pool;
+      for (std::size_t t = 0; t < workers; ++t) pool.emplace_back(work);
+      for (auto& th : pool) th.join();
+    }
+    for (const auto& x : errors)
+      if (x) std::rethrow_exception(x);
+  }
   double sulfur_engines = 0;
   for (std::size_t e = 0; e < n; ++e) {
     const CostCase& cc = site.engines[e];
@@ -159,7 +189,7 @@ SiteResult run_site(const SiteCase& site) {
     const double own_h = running_hours(r.record);
     r.mean_h2s_ppmv = own_h > 0 ? ppmv_h[e] / own_h : dry_ppmv(cc.engine.record.front().fuel);
     sulfur_engines += burnt[e];
-    r.oil = oil_over_record(cc.engine, r.record);
+    r.oil = std::move(oils[e]);
     // its costs: its own quantities with the site's train (changeout downtime at its own power)
     CostCase mine = cc;
     mine.train = site.train;

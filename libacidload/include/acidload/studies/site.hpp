@@ -49,7 +49,8 @@ std::vector<Segment> site_gas_record(const std::vector<const EngineCase*>& engin
 //! The items shared by the engines of a site (split by gas share).
 bool is_shared_item(CostItem i);
 
-//! Runs the site: the train over the summed flow, then each engine on the gas behind it.
-SiteResult run_site(const SiteCase& site);
+//! Runs the site: the train over the summed flow, then each engine on the gas behind it; the engines'
+//! oil balances on `threads` threads (0: one per core; the result is the same on any number).
+SiteResult run_site(const SiteCase& site, int threads = 0);
 
 }  // namespace acidload
