@@ -76,6 +76,8 @@ cases.update({
     "site-gas-negative-hours": (HEAD + FUEL + ENGINE + OIL + "site:\n  gas-record: {segments: [{hours: -5 h}]}\n  engines: [{name: a}]\n",
                                 "12:35", "from 0 to 1e+06 h"),
     "site-with-variants": (HEAD + FUEL + ENGINE + OIL + "variants: []\n" + SITE, "11:11", "no 'variants' in a site file"),
+    "site-engine-without-power": (HEAD + FUEL + "engine:\n  rated-power: 1 MW\n  electrical-efficiency: 40 %\n" + OIL + SITE, "7:3",
+                                  "for the site's engine 'a'"),
     "site-engine-not-a-map": (HEAD + FUEL + ENGINE + OIL + "site:\n  engines:\n    - engine 1\n", "13:7", "keys of site.engines[0]"),
 })
 

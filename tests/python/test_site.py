@@ -167,3 +167,28 @@ def test_a_site_of_one_engine_is_that_engine_s_case():
     assert math.isclose(e["total_per_year"], c.summary["variants"][0]["total-per-year"], rel_tol=1e-9)
     for item, v in c.per_year()["base"].items():
         assert math.isclose(e["per_year"][item], v, rel_tol=1e-9, abs_tol=1e-9), item
+
+
+def test_the_program_s_exit_codes_for_a_site():
+    bad_usage = run_program("run", str(DEMO), "--overlay", str(DEMO))
+    assert bad_usage.returncode == 2 and "site file" in bad_usage.stderr  # a usage error
+    fleet = run_program("run", str(ROOT / "cases" / "demo-site.yaml"), str(DEMO))
+    assert fleet.returncode == 3 and "demo-landfill-site.yaml:" in fleet.stderr and not fleet.stdout  # a site runs alone
+    assert run_program("costs", str(DEMO), "--monte-carlo").returncode == 2
+
+
+def test_the_schema_takes_the_demo_site_and_refuses_what_the_site_reader_refuses():
+    yaml = need("yaml")
+    jsonschema = need("jsonschema")
+    validator = jsonschema.Draft202012Validator(json.loads((ROOT / "docs" / "case-format.schema.json").read_text()))
+    good = yaml.safe_load(DEMO.read_text())
+    assert not list(validator.iter_errors(good))
+    for mutate in (
+        lambda d: d.__setitem__("variants", [{"name": "x"}]),                    # no variants in a site file
+        lambda d: d["site"]["engines"][0].__setitem__("fuel", {"h2s": "5 ppmv"}),  # one gas supply
+        lambda d: d["site"]["engines"][0].pop("name"),                           # every engine named
+        lambda d: d["site"]["gas-record"]["segments"][0].__setitem__("load", "50 %"),  # gas figures only
+    ):
+        bad = copy.deepcopy(good)
+        mutate(bad)
+        assert list(validator.iter_errors(bad)), mutate

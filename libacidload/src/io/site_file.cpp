@@ -198,7 +198,13 @@ SiteFile load(Reader& r, const std::shared_ptr<Document>& main) {
       if (!merged.find(k))
         r.fail(e, name, std::string("an '") + k + "' section for this engine (or one at the top of the site file for all)");
     CostCase cc;
-    cc.engine = detail::build_engine_case(r, merged, name);
+    try {
+      cc.engine = detail::build_engine_case(r, merged, name);
+    } catch (const InputError& x) {
+      // a mistake in a section the engines share: say which engine it stops
+      if (x.key().rfind("site.engines[", 0) == 0) throw;
+      throw InputError(x.key(), x.value(), x.expected() + " (for the site's engine '" + name + "')", x.where());
+    }
     for (const Segment& s : cc.engine.record)
       if (!same_gas(s.fuel, base_gas)) {
         const Node* rec = e.find("record");
