@@ -610,7 +610,7 @@ PYBIND11_MODULE(_core, m) {
            py::arg("lever"), py::arg("value"), "The variant with one lever set (core unit).")
       .def_property_readonly("segments", [](const EngineCase& c) { return c.record.size(); }, "segments in the record")
       .def_property_readonly("max_hours", [](const EngineCase& c) { return c.model.limits.max_hours; },
-                             "the hours cap on a charge [h]");
+                             "the plant's planned maximum hours on a charge: the horizon [h]");
   py::class_<io::CaseFile>(m, "CaseFile", "A loaded case: the base and its variants.")
       .def_readonly("file", &io::CaseFile::file, "path as given")
       .def_readonly("title", &io::CaseFile::title, "the 'case' key")

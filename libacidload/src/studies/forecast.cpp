@@ -66,7 +66,7 @@ std::pair<std::vector<Segment>, std::vector<Segment>> cut(const std::vector<Segm
   return {before, after};
 }
 
-// The conditions to run on: the planned segments, the last continued to the hours cap.
+// The conditions to run on: the planned segments, the last continued to the planned maximum.
 std::vector<Segment> future_of(const EngineCase& c, const std::vector<Segment>& planned) {
   std::vector<Segment> f = planned.empty() ? std::vector<Segment>{piece(c.record.back(), c.record.back().hours, false)} : planned;
   f.push_back(piece(f.back(), c.model.limits.max_hours, false));

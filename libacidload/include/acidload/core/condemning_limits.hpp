@@ -16,7 +16,7 @@ inline constexpr std::size_t limit_count = 10;
 inline constexpr std::array<Limit, limit_count> all_limits{Limit::tbn_fall, Limit::tan_rise, Limit::crossover,
     Limit::san, Limit::oxidation, Limit::nitration, Limit::viscosity, Limit::antioxidant, Limit::anti_wear,
     Limit::max_hours};
-//! Whether a limit is an oil-condition limit (every limit but the hours cap).
+//! Whether a limit is an oil-condition limit (every limit but the planned maximum, max-hours).
 constexpr bool is_oil_condition(Limit l) { return l != Limit::max_hours; }
 std::string_view name(Limit l);         //!< short key, e.g. "tbn-fall"
 std::string_view description(Limit l);  //!< plain words, e.g. "TBN at or below 50 % of fresh"

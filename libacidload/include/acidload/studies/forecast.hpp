@@ -25,7 +25,7 @@ struct LabLimits {
 struct LimitForecast {
   Limit limit = Limit::tbn_fall;
   std::string key;               //!< name(limit), or "i-ph" for the lab-only i-pH limit
-  bool reached = false;          //!< reached within the hours cap
+  bool reached = false;          //!< reached within the planned maximum (the horizon)
   bool already = false;          //!< the latest sample (or the record) has passed it: change the oil now
   double remaining = 0;          //!< hours from the end of the record [h]; +∞ if not reached
   double low = 0, high = 0;      //!< 90 % band [h] (linearised from the covariance)
@@ -75,7 +75,7 @@ std::vector<LimitForecast> forecast(const FitResult& fit);
 //! What predict_charge runs.
 struct PredictSettings {
   bool next_charge = true;        //!< the next charge (after an oil change at the end of the record), else the current one continued
-  std::vector<Segment> conditions;  //!< planned operation, in order, the last continued to the hours cap; empty: the record's last segment
+  std::vector<Segment> conditions;  //!< planned operation, in order, the last continued to the planned maximum; empty: the record's last segment
   int draws = 400;                //!< parameter draws from the fit's covariance
   std::uint64_t seed = 1;
   bool model_form = true;         //!< add the spread of predicting each past charge from the others
@@ -93,7 +93,7 @@ struct HeldOutCharge {
 struct Prediction {
   bool next_charge = true;
   double interval = 0;            //!< drain interval at the fit's estimates [h] (oil hours of the charge)
-  std::optional<Limit> limit;     //!< the limit that ends it there (none: the hours cap)
+  std::optional<Limit> limit;     //!< the limit that ends it there (none: no limit within the planned maximum)
   double p5 = 0, p50 = 0, p95 = 0;  //!< the interval's band [h]; P5 is the pessimistic end (the earlier change)
   double remaining_p5 = 0, remaining_p50 = 0, remaining_p95 = 0;  //!< current charge: hours from the end of the record [h]
   std::array<int, limit_count> ending{};  //!< how many draws end by each limit
