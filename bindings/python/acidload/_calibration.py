@@ -59,8 +59,9 @@ def read_lab(path: Union[str, os.PathLike]) -> Any:
     """Lab results from a CSV file as a table, one row per sample: a pandas DataFrame when pandas is
     installed, else a dict of numpy arrays. Columns: charge (1 = the first), oil_hours [h], lab, date,
     tbn, tbn_method, tan, san [mg KOH/g] (san_censored: reported "<x"), i_ph, oxidation, nitration
-    [A/cm] (NaN where not reported), every trended reading (fe, cu, … [ppm], viscosity_100 [cSt],
-    water [%]) and the columns acidload does not know, as text. The samples themselves (for
+    [A/cm] (NaN where not reported), every trended reading (fe, cu, … [ppm], viscosity_100 and
+    viscosity_100_fresh [cSt], antioxidant_remaining [% of fresh], water [%]) and the columns acidload
+    does not know, as text. The samples themselves (for
     :func:`fit`) are in ``.attrs["samples"]`` of the DataFrame, or ``.samples`` of the dict."""
     samples = _Samples(read_lab_samples(path))
     cols: Dict[str, Any] = {
