@@ -228,6 +228,7 @@ TEST_CASE("lab CSV: antioxidant remaining [% of fresh] and the fresh oil's visco
   // file:line:column of the cell, the column as written, the value and what was expected
   refuse("charge,oil-hours,viscosity-100-fresh\n1,250,0\n", "2:7", "viscosity-100-fresh reading above 0");
   refuse("charge,oil-hours,viscosity-100-fresh\n1,250,-13\n", "2:7", "'-13'");
+  refuse("charge,oil-hours,viscosity-100-fresh\n1,250,20000\n", "2:7", "at most 10000 cSt");
   refuse("charge,oil-hours,viscosity-100-fresh [cP]\n1,250,13\n", "1:18:", "cSt, mm2/s");
   refuse("charge,oil-hours,antioxidant-remaining\n1,250,lots\n", "2:7", "antioxidant-remaining reading of 0 or more");
   refuse("charge,oil-hours,antioxidant-remaining [%]\n1,250,250\n", "2:7", "at most 200 %");

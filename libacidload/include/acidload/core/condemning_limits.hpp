@@ -50,6 +50,10 @@ struct LimitReading {
   double margin() const;
   bool rising = true;   //!< the limit is reached from below (TAN, SAN, …) or from above (TBN)
 };
+//! A lab sample's kinematic viscosity change over the fresh oil's, (ν − ν_fresh)/ν_fresh [-], both at
+//! 100 °C [any one unit, e.g. cSt]: the "% change from new oil" of used-oil reports (ASTM D445 readings).
+double viscosity_change(double nu, double nu_fresh);
+
 //! The reading of one limit for a state at `oil_hours` [h] of a charge.
 LimitReading read_limit(Limit l, const LimitSettings& s, const OilProperties& oil, const OilState& state,
                         double oil_hours);

@@ -14,17 +14,17 @@
 
 namespace acidload {
 
-//! Limits the lab reads that the model does not (common practice, no single source; the engine
-//! maker's and oil supplier's limits govern).
+//! What the forecast takes beside the case. The lab-only limits (water, i-pH) are the case's
+//! (`limits.water`, `limits.initial-ph`, in LimitSettings) like every other limit.
 struct LabLimits {
-  double initial_ph = 4.0;       //!< i-pH (ASTM D7946) at or below this ends the charge [-] (4–4.5 common practice)
+  std::optional<double> initial_ph;  //!< overrides limits.initial-ph when set [-]; empty: the case's
   double sample_interval = 250;  //!< regular sampling interval [h] (common practice, no source)
 };
 
 //! One limit of the current charge.
 struct LimitForecast {
   Limit limit = Limit::tbn_fall;
-  std::string key;               //!< name(limit), or "i-ph" for the lab-only i-pH limit
+  std::string key;               //!< name(limit), or "i-ph" / "water" for the lab-only limits
   bool reached = false;          //!< reached within the planned maximum (the horizon)
   bool already = false;          //!< the latest sample (or the record) has passed it: change the oil now
   double remaining = 0;          //!< hours from the end of the record [h]; +∞ if not reached
@@ -54,7 +54,7 @@ struct KalmanUpdate {
 };
 
 struct Forecast {
-  std::vector<LimitForecast> limits;  //!< every enabled modelled limit, then i-pH when it was read
+  std::vector<LimitForecast> limits;  //!< every enabled modelled limit, then i-pH and water when the latest sample has them
   bool change_now = false;            //!< some limit is already passed
   bool lab_first = false;             //!< the state was updated by a sample of the current charge
   std::size_t latest_sample = 0;      //!< index of the sample the update used
