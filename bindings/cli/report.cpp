@@ -233,7 +233,7 @@ void print_forecast(std::FILE* out, const FitResult& f, const Forecast& fc) {
   std::fprintf(out, "  %-12s %12s   %s\n", "limit", "remaining", "90 % band (parameters only)");
   for (const LimitForecast& x : fc.limits) {
     if (x.already) std::fprintf(out, "  %-12s %12s   reached now\n", x.key.c_str(), "0 h");
-    else if (x.key == "i-ph") std::fprintf(out, "  %-12s %12s\n", x.key.c_str(), "lab only");
+    else if (x.key == "i-ph" || x.key == "water") std::fprintf(out, "  %-12s %12s   (not passed by the latest sample)\n", x.key.c_str(), "lab only");
     else if (!x.reached) std::fprintf(out, "  %-12s %12s\n", x.key.c_str(), "not reached");
     else std::fprintf(out, "  %-12s %10.0f h   %.0f to %.0f h\n", x.key.c_str(), x.remaining, x.low, x.high);
   }

@@ -199,7 +199,7 @@ std::vector<Segment> hourly_year_daily_readings() {
   return r;
 }
 
-// Monte Carlo's draw without the early stop: the first charge continued to the hours cap, every
+// Monte Carlo's draw without the early stop: the first charge continued to the planned maximum, every
 // limit watched (what each draw cost before the stop), for the ratio.
 std::vector<double> draws_without_stop(const EngineCase& c0, const std::vector<UncertainInput>& in, int draws, std::uint64_t seed) {
   EngineCase c = c0;
@@ -358,7 +358,7 @@ int main(int argc, char** argv) {
     std::printf("2b. Monte Carlo, %d draws of the demo history (cases/demo-site-history.yaml, its 4 inputs)\n", draws);
     std::printf("   1 thread, each draw stopped once its interval and first SAN are known  %8.0f draws/s [%.0f – %.0f]\n",
                 draws / s1.median, draws / s1.high, draws / s1.low);
-    std::printf("   without the stop (first charge run to the hours cap, every limit watched) / with  %.2f [%.2f – %.2f]\n",
+    std::printf("   without the stop (first charge run to the planned maximum, every limit watched) / with  %.2f [%.2f – %.2f]\n",
                 ss.median, ss.low, ss.high);
     std::printf("   intervals of the two agree to %.1e h\n", worst);
     std::printf("   2 threads / 1 thread speed-up  %.2f [%.2f – %.2f]   (target >= 0.9 x %u cores; the machine is shared)   identical results: %s\n\n",

@@ -16,7 +16,7 @@ The cases are invented (random engines in the accepted ranges), not measured."""
 import math
 
 import pytest
-from hypothesis import HealthCheck, assume, given, settings
+from hypothesis import HealthCheck, assume, example, given, settings
 from hypothesis import strategies as st
 
 import importlib.util
@@ -81,13 +81,18 @@ def inputs():
 
 
 def interval(case_text):
-    """The drain interval [h], or None when the case is refused (a relation between inputs) or
-    outside the model (a NotModelledError)."""
+    """The drain interval [h]; +inf when no oil-condition limit is reached within the planned maximum
+    (the summary's drain-interval-h is then null: "no limit within N h", longer than any interval);
+    None when the case is refused (a relation between inputs) or outside the model (a NotModelledError)."""
     try:
         r = acidload.run(acidload.load_case_text(case_text))
     except (acidload.InputError, acidload.NotModelledError):
         return None
-    return r[r.names[0]].summary["drain-interval-h"]
+    s = r[r.names[0]].summary
+    if s["drain-interval-h"] is None:
+        assert s["no-limit-within-h"] is not None, s  # no interval is "no limit within N h", never unexplained
+        return math.inf
+    return s["drain-interval-h"]
 
 
 def no_longer(a, b):
@@ -106,6 +111,9 @@ def monotone(p, key, more):
 
 @PROPERTY
 @given(inputs(), figure(0, 400_000))
+# found with 1500 examples: a trace of H2S (1e-112 ppmv) gave ZareNezhad's exhaust dew point under 0 K
+# and refused the case (now that comparison is left out below 1e-8 atm of SO3)
+@example(p={'ch4': 40.0, 'h2s': 0.0, 'other_s': 0.0, 'cl': 0.0, 'f': 0.0, 'power_kw': 50.0, 'eff': 25.0, 'blowby': 1.0, 'jacket_c': 60.0, 'volume_l': 1.0, 'tbn': 3.0}, other=1.2635537333606667e-112)
 def test_more_h2s_never_lengthens_the_interval(p, other):
     # drawn past the 20 % limit: a figure beyond it must be refused, never read as a cleaner gas
     lo, hi = sorted((p["h2s"], other))
@@ -130,6 +138,9 @@ def test_more_other_sulfur_or_halogen_never_lengthens_the_interval(p, key, share
 
 @PROPERTY
 @given(inputs(), st.sampled_from(["volume_l", "tbn"]), figure(1, 50))
+# the failure once reported: fresh TBN 3 -> 6 turned a crossover at 616 h into no limit within 8000 h,
+# which the summary gives as a null interval; read as "refused" it failed the property (now +inf)
+@example(p={'ch4': 40.0, 'h2s': 0.0, 'other_s': 0.0, 'cl': 0.0, 'f': 1.0, 'power_kw': 50.0, 'eff': 25.0, 'blowby': 7.0, 'jacket_c': 60.0, 'volume_l': 1.0, 'tbn': 3.0}, key="tbn", factor=2.0)
 def test_more_oil_or_a_higher_fresh_tbn_never_shortens_the_interval(p, key, factor):
     top = {"volume_l": 100_000, "tbn": 80}[key]
     if key == "volume_l":

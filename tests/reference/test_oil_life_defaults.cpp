@@ -3,9 +3,11 @@
 #include "../support/reference_check.hpp"
 
 #include "acidload/core/combustion.hpp"
+#include "acidload/core/error.hpp"
 #include "acidload/core/condemning_limits.hpp"
 #include "acidload/core/oil.hpp"
 #include "acidload/core/transfer.hpp"
+#include "acidload/studies/trend.hpp"
 
 using namespace acidload;
 
@@ -39,4 +41,45 @@ TEST_CASE("oil-life term defaults: chosen values and the O2 of air") {
                   "preheated standby 40-60 degC, common practice, no source");
   REFERENCE_CHECK("O2 of air in the correction", op.nox.o2_air, 0.21, absolute, 1e-12, "mol/mol",
                   "21 % in EU permits and TA Luft, from memory");
+}
+
+TEST_CASE("alarm levels of the readings with limits: critical at the limit, caution before it") {
+  const auto level = [](const std::vector<AlarmLevel>& v, const char* q) {
+    for (const AlarmLevel& l : v)
+      if (l.quantity == q) return l;
+    FAIL("no level for " << q);
+    return AlarmLevel{};
+  };
+  const std::vector<AlarmLevel> d = default_alarm_levels();
+  // the critical levels are the default limits (docs/references.md [CondemningLimits], [ASTM-D7590], [ASTM-D7946])
+  REFERENCE_CHECK("water critical level", level(d, "water").critical, 0.5, absolute, 1e-12, "%", "0.5 %, common practice, no source");
+  REFERENCE_CHECK("water caution level", level(d, "water").caution, 0.1, absolute, 1e-12, "%",
+                  "0.1 %, common practice, no source ([LabAlarmLevels])");
+  REFERENCE_CHECK("viscosity change caution level", level(d, "viscosity-100").caution, 15, absolute, 1e-12, "% over fresh",
+                  "+15 % before the +20 % limit, common practice, no source ([LabAlarmLevels])");
+  REFERENCE_CHECK("antioxidant caution level", level(d, "antioxidant-remaining").caution, 50, absolute, 1e-12, "% of fresh",
+                  "twice the 25 % limit, common practice, no source ([LabAlarmLevels])");
+  REFERENCE_CHECK("i-pH caution level", level(d, "i-ph").caution, 5.0, absolute, 1e-12, "-",
+                  "0.5 above the 4.5 limit, common practice, no source ([LabAlarmLevels])");
+  // a case's own limits move both levels; the caution never passes the limit
+  LimitSettings l;
+  l.water = 0.002, l.viscosity_rise = 0.10, l.antioxidant_remaining = 0.60, l.initial_ph = 4.0;
+  const std::vector<AlarmLevel> c = alarm_levels(l);
+  CHECK(level(c, "water").critical == doctest::Approx(0.2));
+  CHECK(level(c, "water").caution == doctest::Approx(0.04));
+  CHECK(level(c, "viscosity-100").critical == doctest::Approx(10));
+  CHECK(level(c, "viscosity-100").caution == doctest::Approx(7.5));
+  CHECK(level(c, "antioxidant-remaining").critical == doctest::Approx(60));
+  CHECK(level(c, "antioxidant-remaining").caution == doctest::Approx(100));  // twice 60, at most all of it
+  CHECK(level(c, "i-ph").critical == doctest::Approx(4.0));
+  CHECK(level(c, "i-ph").caution == doctest::Approx(4.5));
+  CHECK_THROWS_AS(alarm_levels(l, {{"water", 0.1, 0.3, true, "user"}}), InputError);   // critical past 0.2 %
+  CHECK_THROWS_AS(alarm_levels(l, {{"i-ph", 4.5, 3.9, false, "user"}}), InputError);  // below the 4.0 limit
+  CHECK_THROWS_AS(alarm_levels(l, {{"antioxidant-remaining", 70, 50, false, "user"}}), InputError);
+  CHECK_THROWS_AS(alarm_levels(l, {{"viscosity-100", 12, 15, true, "user"}}), InputError);
+  CHECK(level(alarm_levels(l, {{"water", 0.05, 0.1, true, "user"}}), "water").critical == doctest::Approx(0.1));
+  // the change over fresh, by hand from its definition: (16.0 − 13.2)/13.2 = 0.21212…
+  REFERENCE_CHECK("viscosity change over fresh", viscosity_change(16.0, 13.2), 2.8 / 13.2, relative, 1e-14, "-",
+                  "(nu - nu_fresh)/nu_fresh, worked by hand ([derived])");
+  CHECK_THROWS_AS(viscosity_change(16.0, 0), InputError);
 }

@@ -21,7 +21,7 @@ EngineCase engine(double hours = 8000, double h2s = 300) {
   return c;
 }
 
-// A case whose oil life is the hours cap alone: 500 h, so 8000 h hold exactly 16 charges.
+// A case whose oil life is the planned maximum alone: 500 h, so 8000 h hold exactly 16 charges.
 EngineCase capped_engine() {
   EngineCase c = engine();
   c.model.limits.enabled.fill(false);

@@ -22,6 +22,19 @@ TEST_CASE("exhaust dew points: ordered, and the wall temperature keeps the margi
   CHECK(d.minimum_wall_temperature == doctest::Approx(d.sulfuric + default_wall_margin));
 }
 
+TEST_CASE("a trace of H2S (1e-20 ppmv) is no error: the comparison correlations are left out below 1e-8 atm of SO3") {
+  // found by the H2S property (tests/properties): 1e-20 ppmv gave ZareNezhad (2009) a dew point
+  // under 0 K and refused the case, while 0 ppmv and 1e-10 ppmv ran
+  const FuelGas g = acidload_test::sanity_gas(1e-20);
+  const Transfer t = transfer(g, acidload_test::sanity_operation(g), {});
+  const ExhaustDewPoints d = exhaust_dew_points(t.combustion, 101325);
+  CHECK(t.combustion.wet_fraction(Gas::SO3) * 101325 < 1e-8 * 101325);
+  CHECK(d.sulfuric_zarenezhad == 0);  // none (null in summary.json)
+  CHECK(d.sulfuric_okkes == 0);
+  CHECK(d.minimum_wall_temperature >= d.water);
+  CHECK_THROWS_AS(dew_point::sulfuric_zarenezhad(0.1 * 101325, 1e-24 * 101325), InputError);  // why the gate
+}
+
 TEST_CASE("the SO3 share used lies below the equilibrium bound at exhaust temperature") {
   const FuelGas g = acidload_test::sanity_gas();
   const Transfer t = transfer(g, acidload_test::sanity_operation(g), {});

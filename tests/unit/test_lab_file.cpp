@@ -196,3 +196,43 @@ TEST_CASE("lab CSV: trended columns with units, unknown columns carried with a n
   refuse("charge,hour-meter,tbn\n1,100,3\n", "'oil-hours' column");
   refuse("charge,oil-hours,tbn,tbn-sd\n1,250,3,0\n", "above 0");
 }
+
+TEST_CASE("lab CSV: antioxidant remaining [% of fresh] and the fresh oil's viscosity at 100 degC, good and bad") {
+  // invented readings; the columns as ASTM D6971/D7590 (antioxidant, % of the fresh oil's) and D445
+  // (kinematic viscosity, mm2/s = cSt) report them
+  const fs::path p = write("acidload-lab-oil-life.csv",
+                           "charge,oil-hours,viscosity-100 [mm2/s],viscosity-100-fresh [cSt],antioxidant-remaining [%],water\n"
+                           "1,250,13.9,13.2,82,0.04\n"
+                           "1,500,15.1,,31,\n");
+  std::vector<std::string> notes;
+  const auto s = io::read_lab_samples(p.string(), &notes);
+  fs::remove(p);
+  REQUIRE(s.size() == 2);
+  CHECK(notes.empty());  // read columns, not carried through
+  CHECK(s[0].trended.at("viscosity-100-fresh") == doctest::Approx(13.2));
+  CHECK(s[0].trended.at("antioxidant-remaining") == doctest::Approx(82));
+  CHECK(s[1].trended.count("viscosity-100-fresh") == 0);
+  CHECK(s[1].trended.at("antioxidant-remaining") == doctest::Approx(31));
+  const auto refuse = [](const std::string& text, const std::string& where, const std::string& fragment) {
+    const fs::path q = write("acidload-lab-oil-life-bad.csv", text);
+    try {
+      io::read_lab_samples(q.string());
+      FAIL("accepted: " << text);
+    } catch (const InputError& e) {
+      INFO(e.what());
+      CHECK(std::string(e.what()).find("acidload-lab-oil-life-bad.csv:" + where) != std::string::npos);
+      CHECK(std::string(e.what()).find(fragment) != std::string::npos);
+    }
+    fs::remove(q);
+  };
+  // file:line:column of the cell, the column as written, the value and what was expected
+  refuse("charge,oil-hours,viscosity-100-fresh\n1,250,0\n", "2:7", "viscosity-100-fresh reading above 0");
+  refuse("charge,oil-hours,viscosity-100-fresh\n1,250,-13\n", "2:7", "'-13'");
+  refuse("charge,oil-hours,viscosity-100-fresh\n1,250,20000\n", "2:7", "at most 10000 cSt");
+  refuse("charge,oil-hours,viscosity-100-fresh [cP]\n1,250,13\n", "1:18:", "cSt, mm2/s");
+  refuse("charge,oil-hours,antioxidant-remaining\n1,250,lots\n", "2:7", "antioxidant-remaining reading of 0 or more");
+  refuse("charge,oil-hours,antioxidant-remaining [%]\n1,250,250\n", "2:7", "at most 200 %");
+  refuse("charge,oil-hours,antioxidant-remaining [ppm]\n1,250,25\n", "1:18:", "among: %");
+  refuse("charge,oil-hours,antioxidant-remainig\n1,250,25\n", "1:18:", "closest: 'antioxidant-remaining'");
+  refuse("charge,oil-hours,water [%]\n1,250,101\n", "2:7", "at most 100 %");
+}

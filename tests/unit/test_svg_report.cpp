@@ -412,13 +412,13 @@ TEST_CASE("text boxes: width by characters, anchors, and overlap only with share
 }
 
 TEST_CASE("crowded reference lines: every label placed, none overlapping another or leaving the frame") {
-  // drain intervals bunched at the hours cap and a limit line along the top, as happens when several
+  // drain intervals bunched at the planned maximum and a limit line along the top, as happens when several
   // variants reach no limit: the labels "8000 h" used to sit on the limit's label
   svg::LineChart c = sample_chart();
   c.x_range = svg::Range{0, 8000};
   c.lines.clear();
   c.lines.push_back({svg::ReferenceLine::Direction::horizontal, 6.0, "TBN limit 6.00 (fresh)", -1});
-  c.lines.push_back({svg::ReferenceLine::Direction::horizontal, 5.9, "hours cap 8000 h", -1});
+  c.lines.push_back({svg::ReferenceLine::Direction::horizontal, 5.9, "planned maximum 8000 h", -1});
   for (double at : {8000.0, 8000.0, 7990.0, 7900.0, 1999.0, 1999.0, 1999.0, 2050.0})
     c.lines.push_back({svg::ReferenceLine::Direction::vertical, at, std::to_string(static_cast<int>(at)) + " h", 0});
   const std::string out = svg::line_chart(c);

@@ -58,7 +58,7 @@ extern const Command predict_command{
     "                        [--current] [--draws N] [--seed N] [--variant NAME] [--overlay FILE]...\n\n"
     "Fits as 'acidload fit' does, then answers how long the next charge will last: an oil change at the\n"
     "end of CASE's record (the oil left in the system carried over), the current charge started from its\n"
-    "latest sample (lab-first), and the planned operation run on to the hours cap. Prints the drain\n"
+    "latest sample (lab-first), and the planned operation run on to the planned maximum. Prints the drain\n"
     "interval, the limit that ends it and one band for it (P5 pessimistic, P50, P95 optimistic) from\n"
     "draws of the fit's joint covariance widened by the model's own error, estimated by predicting each\n"
     "past charge from the others. Limits the latest sample has already passed are flagged first.\n"

@@ -73,7 +73,7 @@ extern const Command uncertainty_command{
     "Monte Carlo over the uncertain inputs declared in CASE's 'uncertainty' section (normal, lognormal,\n"
     "uniform, triangular) and, with --lab, over the parameters fitted to that lab file (as 'acidload fit'\n"
     "does), drawn jointly from the fit's covariance: P5, P10, P50, P90 and P95 of the drain interval of\n"
-    "every charge of the record (each run on under its own last conditions to the hours cap; the low end\n"
+    "every charge of the record (each run on under its own last conditions to the planned maximum; the low end\n"
     "is the pessimistic one) and of the time to the first free strong acid. A draw outside a\n"
     "parameter's range is clipped into it and counted. Every draw has its own counter-based random\n"
     "stream, so the result is the same for any number of threads (default: every core). N is a whole\n"

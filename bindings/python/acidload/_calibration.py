@@ -59,8 +59,9 @@ def read_lab(path: Union[str, os.PathLike]) -> Any:
     """Lab results from a CSV file as a table, one row per sample: a pandas DataFrame when pandas is
     installed, else a dict of numpy arrays. Columns: charge (1 = the first), oil_hours [h], lab, date,
     tbn, tbn_method, tan, san [mg KOH/g] (san_censored: reported "<x"), i_ph, oxidation, nitration
-    [A/cm] (NaN where not reported), every trended reading (fe, cu, … [ppm], viscosity_100 [cSt],
-    water [%]) and the columns acidload does not know, as text. The samples themselves (for
+    [A/cm] (NaN where not reported), every trended reading (fe, cu, … [ppm], viscosity_100 and
+    viscosity_100_fresh [cSt], antioxidant_remaining [% of fresh], water [%]) and the columns acidload
+    does not know, as text. The samples themselves (for
     :func:`fit`) are in ``.attrs["samples"]`` of the DataFrame, or ``.samples`` of the dict."""
     samples = _Samples(read_lab_samples(path))
     cols: Dict[str, Any] = {
@@ -220,17 +221,31 @@ class ForecastResult(list):
         self.warnings: List[str] = list(d["warnings"])
 
 
-def forecast(result: Fit, *, initial_ph_limit: float = 4.0, sample_interval_h: float = 250.0) -> ForecastResult:
+def _optional_ph(v: Optional[float]) -> Optional[float]:
+    if v is None:
+        return None
+    x = number(v, "initial_ph_limit")
+    if not 0 <= x <= 14:
+        raise InputError(f"'initial_ph_limit' = {v!r}: expected an i-pH from 0 to 14", key="initial_ph_limit",
+                         value=repr(v), expected="an i-pH from 0 to 14")
+    return x
+
+
+def forecast(result: Fit, *, initial_ph_limit: Optional[float] = None, sample_interval_h: float = 250.0) -> ForecastResult:
     """The lab-first forecast of the current (last) charge: the model state moved toward the latest
     sample (a Kalman-type update), every limit that sample has already passed flagged (``already``
-    True; SAN and i-pH included), the hours left to the others with a 90 % band, and when the next
-    sample is due. The i-pH limit (4.0) and the sampling interval (250 h) are common practice, no source."""
-    return ForecastResult(_core.forecast(result._r, float(initial_ph_limit), float(sample_interval_h)))
+    True, ``why`` the reading against the limit): TBN, TAN, SAN, FTIR, and from the lab columns the
+    viscosity change over fresh (viscosity-100 with viscosity-100-fresh), antioxidant remaining, water
+    and i-pH against the case's limits (``limits.viscosity-change``, ``antioxidant-remaining``,
+    ``water``, ``initial-ph``; water and i-pH are rows "water" and "i-ph" of their own); the hours left
+    to the others with a 90 % band, and when the next sample is due. ``initial_ph_limit`` overrides
+    ``limits.initial-ph`` when given. The sampling interval (250 h) is common practice, no source."""
+    return ForecastResult(_core.forecast(result._r, _optional_ph(initial_ph_limit), float(sample_interval_h)))
 
 
 def predict(fit_or_case: Union[Fit, Case, Variant], lab: Any = None, *, parameters: Optional[Sequence[str]] = None,
             conditions: Optional[Union[Case, Variant, Sequence[Union[Case, Variant]]]] = None, next_charge: bool = True,
-            draws: int = 400, seed: int = 1, model_form: bool = True, initial_ph_limit: float = 4.0,
+            draws: int = 400, seed: int = 1, model_form: bool = True, initial_ph_limit: Optional[float] = None,
             variant: Optional[str] = None) -> Dict[str, Any]:
     """The drain interval of the next charge (after an oil change at the end of the record; oil carried
     over as the change leaves it) or, with ``next_charge=False``, of the current one continued, under
@@ -246,7 +261,7 @@ def predict(fit_or_case: Union[Fit, Case, Variant], lab: Any = None, *, paramete
         for c in (conditions if isinstance(conditions, (list, tuple)) else [conditions]):
             plan.append(_engine_case(c, None))
     out = dict(_core.predict_charge(f._r, bool(next_charge), plan, int(draws), int(seed), bool(model_form), True,
-                                    float(initial_ph_limit)))
+                                    _optional_ph(initial_ph_limit)))
     out["current"] = ForecastResult(out["current"])
     return out
 
@@ -255,9 +270,12 @@ def trend(result: Fit, levels: Optional[Dict[str, Tuple[float, float]]] = None) 
     """Trend and alarms after a fit: the latest sample against the model's band, the current charge's TBN
     slope against the model's (tbn_slope, tbn_slope_model [mg KOH/g per h]) with the H2S it implies
     (implied_h2s_ppmv; "acid load above the model: check H2S and scrubber breakthrough"), and wear metals,
-    silicon, sodium, potassium, water, viscosity-100 (change from the charge's first sample [%]) against
-    caution and critical levels. ``levels`` replaces defaults: {"fe": (30, 50), "tbn": (2.5, 2.0)} (a
-    level pair falling, as for TBN, alarms at or below). Defaults: :func:`default_alarm_levels`,
+    silicon, sodium, potassium, water, viscosity-100 (change over fresh [%] with viscosity-100-fresh,
+    else from the charge's first sample), antioxidant-remaining [% of fresh] and i-ph against caution and
+    critical levels. For water, viscosity-100, antioxidant-remaining and i-ph the critical level is the
+    case's limit and the caution level lies before it; a level given for them beyond the limit raises
+    InputError. ``levels`` replaces defaults: {"fe": (30, 50), "tbn": (2.5, 2.0)} (a level pair falling,
+    as for TBN, alarms at or below). Defaults: :func:`default_alarm_levels` (for the default limits),
     common practice, no source; the engine maker's and oil supplier's limits govern."""
     lv = []
     for q, (caution, critical) in (levels or {}).items():

@@ -610,7 +610,7 @@ PYBIND11_MODULE(_core, m) {
            py::arg("lever"), py::arg("value"), "The variant with one lever set (core unit).")
       .def_property_readonly("segments", [](const EngineCase& c) { return c.record.size(); }, "segments in the record")
       .def_property_readonly("max_hours", [](const EngineCase& c) { return c.model.limits.max_hours; },
-                             "the hours cap on a charge [h]");
+                             "the plant's planned maximum hours on a charge: the horizon [h]");
   py::class_<io::CaseFile>(m, "CaseFile", "A loaded case: the base and its variants.")
       .def_readonly("file", &io::CaseFile::file, "path as given")
       .def_readonly("title", &io::CaseFile::title, "the 'case' key")
@@ -895,6 +895,10 @@ PYBIND11_MODULE(_core, m) {
         "The lever value in [low, high] (core unit) at which the drain interval equals target_hours [h] "
         "(TOMS 748 bracketing); an answer with found=False and a reason when the range gives none.");
 
+  m.def("viscosity_change", &viscosity_change, py::arg("nu"), py::arg("nu_fresh"),
+        "A lab sample's kinematic viscosity change over the fresh oil's, (nu - nu_fresh)/nu_fresh [-], both at 100 °C "
+        "in one unit (what the forecast holds to limits.viscosity-change).");
+
   // ---- calibration, forecast, Monte Carlo
   py::class_<LabSample>(m, "LabSample", "One lab report of a used-oil sample (readings [mg KOH/g], FTIR [A/cm]).")
       .def_readonly("charge", &LabSample::charge, "0-based charge of the record")
@@ -1096,18 +1100,19 @@ PYBIND11_MODULE(_core, m) {
     d["warnings"] = fc.warnings;
     return d;
   };
-  m.def("forecast", [forecast_dict](const FitResult& f, double initial_ph, double sample_interval) {
+  m.def("forecast", [forecast_dict](const FitResult& f, std::optional<double> initial_ph, double sample_interval) {
     Forecast fc;
     {
       py::gil_scoped_release release;
       fc = forecast_current(f, LabLimits{initial_ph, sample_interval});
     }
     return forecast_dict(fc);
-  }, py::arg("fit"), py::arg("initial_ph") = LabLimits{}.initial_ph, py::arg("sample_interval") = LabLimits{}.sample_interval,
-        "The lab-first forecast of the current charge: limits (remaining hours [h], 90 % band, already), the state "
+  }, py::arg("fit"), py::arg("initial_ph") = py::none(), py::arg("sample_interval") = LabLimits{}.sample_interval,
+        "The lab-first forecast of the current charge: limits (remaining hours [h], 90 % band, already; initial_ph "
+        "None: the case's limits.initial-ph), the state "
         "update, the next sample due [h].");
   m.def("predict_charge", [forecast_dict](const FitResult& f, bool next_charge, const std::vector<EngineCase>& plan, int draws,
-                                          std::uint64_t seed, bool model_form, bool lab_first, double initial_ph) {
+                                          std::uint64_t seed, bool model_form, bool lab_first, std::optional<double> initial_ph) {
     PredictSettings ps;
     ps.next_charge = next_charge;
     for (const EngineCase& c : plan) ps.conditions.insert(ps.conditions.end(), c.record.begin(), c.record.end());
@@ -1139,7 +1144,7 @@ PYBIND11_MODULE(_core, m) {
     d["notes"] = p.notes, d["warnings"] = p.warnings;
     return d;
   }, py::arg("fit"), py::arg("next_charge") = true, py::arg("plan") = std::vector<EngineCase>{}, py::arg("draws") = 400,
-        py::arg("seed") = 1, py::arg("model_form") = true, py::arg("lab_first") = true, py::arg("initial_ph") = LabLimits{}.initial_ph,
+        py::arg("seed") = 1, py::arg("model_form") = true, py::arg("lab_first") = true, py::arg("initial_ph") = py::none(),
         "The drain interval of the next charge (or the current one continued) with its P5/P50/P95 band [h]; plan: cases "
         "whose records are the planned operation (empty: the record's last segment).");
   m.def("trend", [](const FitResult& f, const std::vector<std::tuple<std::string, double, double, bool>>& levels) {

@@ -33,6 +33,12 @@ void validate(const LimitSettings& s) {
   check::in_range("limits.initial-ph", s.initial_ph, 0.0, 14.0, "");
 }
 
+double viscosity_change(double nu, double nu_fresh) {
+  check::positive("viscosity-100", nu);
+  check::positive("viscosity-100-fresh", nu_fresh);
+  return nu / nu_fresh - 1;  // (ν − ν_fresh)/ν_fresh, the change as a share of fresh
+}
+
 double LimitReading::margin() const { return rising ? limit - value : value - limit; }
 
 LimitReading read_limit(Limit l, const LimitSettings& s, const OilProperties& oil, const OilState& x, double hours) {

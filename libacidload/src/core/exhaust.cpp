@@ -20,8 +20,12 @@ ExhaustDewPoints exhaust_dew_points(const Combustion& c, double p, double margin
   const double ps = c.wet_fraction(Gas::SO3) * p;
   if (ps > 0 && pw > 0) {
     d.sulfuric = dew_point::sulfuric_verhoff_banchero(pw, ps);
-    d.sulfuric_zarenezhad = dew_point::sulfuric_zarenezhad(pw, ps);
-    if (ps > 1e-8 * 101325) d.sulfuric_okkes = dew_point::sulfuric_okkes(pw, ps);
+    // the two correlations reported beside it only from 1e-8 atm of SO3 up (below it ZareNezhad's
+    // quadratic in ln p gives no temperature at all, under 0 K, and Okkes' is undefined): reported as none
+    if (ps > 1e-8 * 101325) {
+      d.sulfuric_zarenezhad = dew_point::sulfuric_zarenezhad(pw, ps);
+      d.sulfuric_okkes = dew_point::sulfuric_okkes(pw, ps);
+    }
     d.sulfuric_in_fitted_range = dew_point::in_fitted_range_verhoff_banchero(pw, ps);
   }
   const double ph = c.wet_fraction(Gas::HCl) * p;

@@ -284,8 +284,8 @@ std::vector<CaseKey> build_table() {
   b.q("anti-wear-remaining", K::fraction, 0, 1, "%", "off",
       "anti-wear additive (its acidity) down to this share of fresh; setting it switches the limit on",
       "LimitSettings::anti_wear_remaining");
-  b.q("water", K::fraction, 0, 1, "%", "0.5 %", "lab only: water in the oil above this share", "LimitSettings::water");
-  b.q("initial-ph", K::number, 0, 14, "", "4.5", "lab only: i-pH (ASTM D7946) at or below this", "LimitSettings::initial_ph");
+  b.q("water", K::fraction, 0, 1, "%", "0.5 %", "lab only: water in the oil above this share (the forecast holds the latest sample to it)", "LimitSettings::water");
+  b.q("initial-ph", K::number, 0, 14, "", "4.5", "lab only: i-pH (ASTM D7946) at or below this (the forecast holds the latest sample to it)", "LimitSettings::initial_ph");
   b.q("max-hours", K::duration, 1, 1e6, "h", "8000 h",
       "the plant's planned maximum hours on a charge: the horizon; reaching it is no limit ('no limit within N h')",
       "LimitSettings::max_hours");

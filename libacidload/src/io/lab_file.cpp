@@ -59,7 +59,13 @@ const std::vector<TrendColumn>& lab_trend_columns() {
     for (const auto& e : elements) c.push_back({e.name, "ppm", ppm, e.what});
     c.push_back({"viscosity-100", "cSt", {{"cSt", 1}, {"mm2/s", 1}}, "kinematic viscosity at 100 degC"});
     c.push_back({"viscosity-40", "cSt", {{"cSt", 1}, {"mm2/s", 1}}, "kinematic viscosity at 40 degC"});
-    c.push_back({"water", "%", {{"%", 1}, {"ppm", 1e-4}}, "water content"});
+    // the fresh oil's viscosity at 100 degC, for the change in % of a sample's (limits.viscosity-change)
+    c.push_back({"viscosity-100-fresh", "cSt", {{"cSt", 1}, {"mm2/s", 1}}, "the fresh oil's kinematic viscosity at 100 degC",
+                 1e4, true});
+    // ASTM D6971 / D7590 (voltammetry) report the antioxidant left as % of the fresh oil's; a top-up of
+    // a stronger oil or the method's scatter can read a little above 100, 200 is beyond any
+    c.push_back({"antioxidant-remaining", "%", {{"%", 1}}, "antioxidant remaining, % of the fresh oil's", 200});
+    c.push_back({"water", "%", {{"%", 1}, {"ppm", 1e-4}}, "water content", 100});
     c.push_back({"soot", "%", {{"%", 1}}, "soot or insolubles"});
     return c;
   }();
@@ -107,7 +113,11 @@ std::vector<LabSample> read_lab_samples(const std::string& path, std::vector<std
     if (!near.empty()) keep.push_back(c);  // named_columns refuses it with the closest name
     else other_col.push_back(c);
   }
-  for (std::size_t c : keep) modelled.header.push_back(t.header[c]);
+  modelled.header_columns.clear();  // where each kept column's name stands in the header, for its errors
+  for (std::size_t c : keep) {
+    modelled.header.push_back(t.header[c]);
+    modelled.header_columns.push_back(c < t.header_columns.size() ? t.header_columns[c] : 1);
+  }
   for (std::size_t r = 0; r < t.rows.size(); ++r) {
     std::vector<std::string> cells;
     std::vector<int> at;
@@ -127,12 +137,16 @@ std::vector<LabSample> read_lab_samples(const std::string& path, std::vector<std
     if (!ok) {
       std::string all;
       for (const auto& [u, f] : tc.units) all += (all.empty() ? "" : ", ") + u;
-      throw d.error(Mark{t.lines.empty() ? 1 : t.lines.front() - 1, 1}, "lab column", t.header[trend_col[k]],
+      const std::size_t c = trend_col[k];
+      throw d.error(Mark{t.header_line > 0 ? t.header_line : 1, c < t.header_columns.size() ? t.header_columns[c] : 1},
+                    "lab column", t.header[c],
                     "the unit of " + tc.name + " (" + tc.what + ") among: " + all);
     }
   }
   const CsvTable& m = modelled;
-  const NamedColumns cols = named_columns(m, lab_columns, "lab column");
+  // every column the reader knows is offered as the closest name of a misspelt one (the trended
+  // ones were taken out of `m` above, so only a misspelling reaches the refusal)
+  const NamedColumns cols = named_columns(m, known, "lab column");
   const std::vector<std::string>& names = cols.names;
   const std::vector<std::string>& units = cols.units;
   const auto col = [&](const char* n) -> int {
@@ -253,8 +267,11 @@ std::vector<LabSample> read_lab_samples(const std::string& path, std::vector<std
         if (u == trend_unit[k]) factor = f;
       char* end = nullptr;
       const double v = std::strtod(cellv.c_str(), &end);
-      if (end == cellv.c_str() || *end != '\0' || !std::isfinite(v) || v < 0 || v > 1e7)
-        throw t.error(i, trend_col[k], "a " + tc.name + " reading of 0 or more, a bare number in " + tc.unit +
+      if (end == cellv.c_str() || *end != '\0' || !std::isfinite(v) || v < 0 || (tc.above_zero && v == 0) ||
+          v * factor > tc.high)
+        throw t.error(i, trend_col[k], "a " + tc.name + " reading " + (tc.above_zero ? "above 0" : "of 0 or more") +
+                                           (tc.high < 1e7 ? " and at most " + format_value(tc.high) + " " + tc.unit : "") +
+                                           ", a bare number in " + tc.unit +
                                            (trend_unit[k].empty() ? "" : " (the header's " + trend_unit[k] + ")"));
       s.trended[tc.name] = v * factor;
     }

@@ -210,7 +210,7 @@ std::vector<InputRow> input_rows(const CaseFile& c, std::size_t variant) {
   add({"limits.san"}, "SAN limit", l.san > 0 ? "above " + fixed(l.san, 2) + " mg KOH/g" : "any free strong acid");
   add({"limits.oxidation"}, "oxidation limit", fmt(l.oxidation) + " A/cm");
   add({"limits.nitration"}, "nitration limit", fmt(l.nitration) + " A/cm");
-  add({"limits.max-hours"}, "hours cap on a charge", fixed(l.max_hours, 0) + " h");
+  add({"limits.max-hours"}, "planned maximum hours on a charge (horizon)", fixed(l.max_hours, 0) + " h");
   std::string ignored;
   for (Limit x : all_limits)
     if (!l.enabled[static_cast<std::size_t>(x)] && x != Limit::crossover) ignored += (ignored.empty() ? "" : ", ") + std::string(name(x));
@@ -244,7 +244,7 @@ std::vector<std::string> result_warnings(const CaseFile& c, const std::vector<Va
     else if (*v.charge.first == Limit::crossover)
       w.push_back(who + "TAN crosses TBN at " + hours(v.charge.drain_interval) + ".");
     if (v.charge.first && *v.charge.first == Limit::max_hours)
-      w.push_back(who + "only the hours cap ends the charge (" + hours(v.charge.drain_interval) + ").");
+      w.push_back(who + "no oil-condition limit within the planned maximum (" + hours(v.charge.drain_interval) + ").");
     if (v.charge.first && v.charge.drain_interval < 500)
       w.push_back(who + "a drain interval under 500 h (" + hours(v.charge.drain_interval) + ").");
     if (v.charge.floor_reached_at >= 0 && (!v.charge.first || v.charge.floor_reached_at < v.charge.drain_interval))
@@ -255,7 +255,7 @@ std::vector<std::string> result_warnings(const CaseFile& c, const std::vector<Va
 }
 
 H2sSweep h2s_sweep(const EngineCase& record_case, double top, int points) {
-  // one charge under the first segment's operation, held up to the hours cap
+  // one charge under the first segment's operation, held up to the planned maximum
   EngineCase c = record_case;
   Segment first = c.record.front();
   first.events.clear();
@@ -683,13 +683,13 @@ std::string report_html(const ReportData& d) {
       p.radius = 6;
       ch.points.push_back(p);
     }
-    if (cap > 0) ch.lines.push_back({svg::ReferenceLine::Direction::horizontal, cap, "hours cap " + fixed(cap, 0) + " h", -1});
+    if (cap > 0) ch.lines.push_back({svg::ReferenceLine::Direction::horizontal, cap, "planned maximum " + fixed(cap, 0) + " h", -1});
     ch.description = desc;
     h << figure(svg::line_chart(ch), "Figure " + std::to_string(fig++) +
                                          ". Drain interval against H2S: each variant's curve with only the H2S changed "
                                          "(power and efficiency kept) for a fresh charge under the operation of the "
                                          "record's first segment; the larger marker on each curve is the variant as it "
-                                         "is. Where no limit is reached the curve sits at the hours cap.");
+                                         "is. Where no limit is reached within the planned maximum the curve sits on it (no limit within that horizon).");
   }
   h << "</section>\n";
 

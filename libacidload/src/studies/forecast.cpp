@@ -9,6 +9,7 @@
 #include "acidload/core/error.hpp"
 #include "acidload/studies/monte_carlo.hpp"
 #include "acidload/studies/parameters.hpp"
+#include "acidload/studies/trend.hpp"
 
 namespace acidload {
 
@@ -66,7 +67,7 @@ std::pair<std::vector<Segment>, std::vector<Segment>> cut(const std::vector<Segm
   return {before, after};
 }
 
-// The conditions to run on: the planned segments, the last continued to the hours cap.
+// The conditions to run on: the planned segments, the last continued to the planned maximum.
 std::vector<Segment> future_of(const EngineCase& c, const std::vector<Segment>& planned) {
   std::vector<Segment> f = planned.empty() ? std::vector<Segment>{piece(c.record.back(), c.record.back().hours, false)} : planned;
   f.push_back(piece(f.back(), c.model.limits.max_hours, false));
@@ -328,18 +329,34 @@ void already_by_sample(const FitResult& fit, const LabSample& s, const LabLimits
     mark(Limit::oxidation, "oxidation " + g3(*s.oxidation - s.oxidation_baseline) + " A/cm" + at + " is at or above " + g3(L.oxidation));
   if (s.nitration && on(Limit::nitration) && *s.nitration - s.nitration_baseline >= L.nitration)
     mark(Limit::nitration, "nitration " + g3(*s.nitration - s.nitration_baseline) + " A/cm" + at + " is at or above " + g3(L.nitration));
-  if (s.initial_ph) {
+  // the oil-life limits the lab reads directly: viscosity change over fresh, antioxidant remaining
+  const std::size_t i = static_cast<std::size_t>(&s - fit.samples.data());
+  if (const std::optional<double> dv = sample_viscosity_change(fit.samples, i); dv && on(Limit::viscosity) && *dv >= L.viscosity_rise)
+    mark(Limit::viscosity, "viscosity at 100 degC " + g3(s.trended.at("viscosity-100")) + " cSt" + at + " is " + g3(100 * *dv) +
+                               " % over fresh (" + g3(*fresh_viscosity(fit.samples, i)) + " cSt): at or above the limit +" +
+                               g3(100 * L.viscosity_rise) + " % (limits.viscosity-change)");
+  if (const auto a = s.trended.find("antioxidant-remaining");
+      a != s.trended.end() && on(Limit::antioxidant) && a->second / 100 <= L.antioxidant_remaining)
+    mark(Limit::antioxidant, "antioxidant remaining " + g3(a->second) + " % of fresh" + at + " is at or below the limit " +
+                                 g3(100 * L.antioxidant_remaining) + " % (limits.antioxidant-remaining)");
+  // lab-only limits (not modelled): a row of their own, reached or not
+  const auto lab_only = [&](const char* key, bool passed, const std::string& why) {
     LimitForecast f;
-    f.key = "i-ph";
+    f.key = key;
     f.limit = Limit::max_hours;
-    f.remaining = inf;
-    if (*s.initial_ph <= lab.initial_ph) {
-      f.already = f.reached = true;
-      f.remaining = 0;
-      f.why = "i-pH " + g3(*s.initial_ph) + at + " is at or below " + g3(lab.initial_ph);
-    }
+    f.remaining = f.low = f.high = inf;
+    if (passed) f.already = f.reached = true, f.remaining = f.low = f.high = 0, f.why = why;
     out.push_back(f);
+  };
+  if (s.initial_ph) {
+    const double lim = lab.initial_ph.value_or(L.initial_ph);
+    lab_only("i-ph", *s.initial_ph <= lim,
+             "i-pH " + g3(*s.initial_ph) + at + " is at or below the limit " + g3(lim) +
+                 (lab.initial_ph ? " (set for this forecast)" : " (limits.initial-ph)"));
   }
+  if (const auto w = s.trended.find("water"); w != s.trended.end())
+    lab_only("water", w->second / 100 > L.water,
+             "water " + g3(w->second) + " %" + at + " is above the limit " + g3(100 * L.water) + " % (limits.water)");
 }
 
 }  // namespace

@@ -54,7 +54,7 @@ double percentile(std::vector<double> v, double p) {
 }
 
 namespace {
-// The first charge as it ran, continued under its last conditions up to the hours cap: the drain
+// The first charge as it ran, continued under its last conditions up to the planned maximum: the drain
 // interval of a record with oil changes is that of its first charge, not cut short by the change.
 EngineCase first_charge_to_cap(const EngineCase& c) {
   EngineCase x = c;

@@ -4,21 +4,62 @@
 #include <cmath>
 #include <cstdio>
 
+#include "acidload/core/error.hpp"
 #include "acidload/studies/inverse.hpp"
 
 namespace acidload {
 
-const std::vector<AlarmLevel>& default_alarm_levels() {
-  // common practice for gas-engine oils, no source: trend them, and ask the engine maker and the oil
-  // supplier for their condemning limits, which govern
+namespace {
+std::string fmt_level(double v) {
+  char b[32];
+  std::snprintf(b, sizeof b, "%.3g", v);
+  return b;
+}
+
+// common practice for gas-engine oils, no source: trend them, and ask the engine maker and the oil
+// supplier for their condemning limits, which govern
+const std::vector<AlarmLevel>& unbound_levels() {
   static const std::string cp = "common practice, no source";
   static const std::vector<AlarmLevel> t = {
       {"fe", 30, 50, true, cp},   {"cu", 25, 50, true, cp},  {"pb", 10, 20, true, cp},  {"al", 10, 20, true, cp},
       {"cr", 5, 10, true, cp},    {"sn", 5, 10, true, cp},   {"si", 15, 25, true, cp},  {"na", 25, 50, true, cp},
-      {"k", 10, 20, true, cp},    {"water", 0.1, 0.2, true, cp}, {"viscosity-100", 15, 25, true, cp},
-      {"soot", 0.5, 1.0, true, cp},
+      {"k", 10, 20, true, cp},    {"soot", 0.5, 1.0, true, cp},
   };
   return t;
+}
+}  // namespace
+
+const std::vector<AlarmLevel>& default_alarm_levels() {
+  static const std::vector<AlarmLevel> t = alarm_levels(LimitSettings{});
+  return t;
+}
+
+std::vector<AlarmLevel> alarm_levels(const LimitSettings& L, const std::vector<AlarmLevel>& user) {
+  std::vector<AlarmLevel> levels = unbound_levels();
+  // bound to the case's limits: critical is the limit (the forecast's "change the oil now"), caution
+  // before it (the proportions: common practice, no source; docs/references.md [LabAlarmLevels])
+  const std::string b = "the case's limit; caution before it: common practice, no source";
+  const double water = 100 * L.water, visc = 100 * L.viscosity_rise, aox = 100 * L.antioxidant_remaining;
+  levels.push_back({"water", 0.2 * water, water, true, "limits.water " + fmt_level(water) + " %: " + b});
+  levels.push_back({"viscosity-100", 0.75 * visc, visc, true, "limits.viscosity-change +" + fmt_level(visc) + " %: " + b});
+  levels.push_back({"antioxidant-remaining", std::min(100.0, 2 * aox), aox, false,
+                    "limits.antioxidant-remaining " + fmt_level(aox) + " %: " + b});
+  levels.push_back({"i-ph", L.initial_ph + 0.5, L.initial_ph, false, "limits.initial-ph " + fmt_level(L.initial_ph) + ": " + b});
+  for (const AlarmLevel& u : user) {
+    auto it = std::find_if(levels.begin(), levels.end(), [&](const AlarmLevel& l) { return l.quantity == u.quantity; });
+    if (it != levels.end() && it->basis.rfind("limits.", 0) == 0) {
+      const double lim = it->critical;  // the case's limit
+      const bool beyond = u.rising ? (u.caution > lim || u.critical > lim) : (u.caution < lim || u.critical < lim);
+      if (u.rising != it->rising || beyond)
+        throw InputError("alarm level " + u.quantity, fmt_level(u.caution) + " / " + fmt_level(u.critical),
+                         std::string("a caution and a critical level at or ") + (it->rising ? "below" : "above") +
+                             " the case's limit " + it->basis.substr(0, it->basis.find(':')) +
+                             ", which ends the charge: a level is never beyond the limit");
+    }
+    if (it != levels.end()) *it = u;
+    else levels.push_back(u);
+  }
+  return levels;
 }
 
 namespace {
@@ -38,6 +79,8 @@ const char* what_to_check(const std::string& q) {
   if (q == "water") return "water in the oil: check for coolant leaks and condensation (cold running)";
   if (q == "viscosity-100") return "viscosity change: oxidation, nitration, soot or dilution — check with the oil supplier";
   if (q == "soot") return "combustion: check the air-fuel ratio and the ignition";
+  if (q == "antioxidant-remaining") return "antioxidant spent: oxidation will speed up — plan the oil change, check the oil temperature";
+  if (q == "i-ph") return "strong acid in the oil: check H2S and halogens in the gas and the scrubber, plan the oil change";
   return "check with the oil supplier";
 }
 
@@ -55,16 +98,27 @@ std::optional<double> slope(const std::vector<double>& t, const std::vector<doub
 
 }  // namespace
 
+std::optional<double> fresh_viscosity(const std::vector<LabSample>& s, std::size_t i) {
+  const auto own = s[i].trended.find("viscosity-100-fresh");
+  if (own != s[i].trended.end()) return own->second;
+  for (const LabSample& x : s)
+    if (x.charge == s[i].charge)
+      if (const auto it = x.trended.find("viscosity-100-fresh"); it != x.trended.end()) return it->second;
+  return std::nullopt;
+}
+
+std::optional<double> sample_viscosity_change(const std::vector<LabSample>& s, std::size_t i) {
+  const auto it = s[i].trended.find("viscosity-100");
+  const std::optional<double> fresh = fresh_viscosity(s, i);
+  if (it == s[i].trended.end() || !fresh || !(it->second > 0)) return std::nullopt;
+  return viscosity_change(it->second, *fresh);
+}
+
 TrendResult trend(const FitResult& fit, const std::vector<AlarmLevel>& user) {
   TrendResult out;
   const std::vector<LabSample>& s = fit.samples;
   if (s.empty()) return out;
-  std::vector<AlarmLevel> levels = default_alarm_levels();
-  for (const AlarmLevel& u : user) {
-    auto it = std::find_if(levels.begin(), levels.end(), [&](const AlarmLevel& l) { return l.quantity == u.quantity; });
-    if (it != levels.end()) *it = u;
-    else levels.push_back(u);
-  }
+  const std::vector<AlarmLevel> levels = alarm_levels(fit.fitted.model.limits, user);
   int current = 0;
   for (const LabSample& x : s) current = std::max(current, x.charge);
   std::size_t latest = s.size();  // the latest sample of the latest charge with samples
@@ -122,7 +176,10 @@ TrendResult trend(const FitResult& fit, const std::vector<AlarmLevel>& user) {
     for (const AlarmLevel& l : levels) {
       std::optional<double> v;
       std::string unit;
-      if (l.quantity == "viscosity-100") {  // the change from the charge's first sample with a reading
+      if (l.quantity == "viscosity-100" && sample_viscosity_change(s, i)) {  // the change over the fresh oil's
+        v = 100 * *sample_viscosity_change(s, i);
+        unit = " % over fresh (" + g3(s[i].trended.at("viscosity-100")) + " cSt against " + g3(*fresh_viscosity(s, i)) + " cSt)";
+      } else if (l.quantity == "viscosity-100") {  // no fresh oil's figure: the change from the charge's first sample
         const auto it = s[i].trended.find(l.quantity);
         if (it == s[i].trended.end()) continue;
         const LabSample* first = nullptr;
@@ -130,7 +187,7 @@ TrendResult trend(const FitResult& fit, const std::vector<AlarmLevel>& user) {
           if (x.charge == s[i].charge && x.trended.count(l.quantity) && (!first || x.oil_hours < first->oil_hours)) first = &x;
         if (!first || first == &s[i] || !(first->trended.at(l.quantity) > 0)) continue;
         v = std::fabs(it->second / first->trended.at(l.quantity) - 1) * 100;
-        unit = " % change";
+        unit = " % change from the charge's first sample (the lab file gives no viscosity-100-fresh)";
       } else if (l.quantity == "tbn") {
         v = s[i].tbn, unit = " mg KOH/g";
       } else if (l.quantity == "tan") {
@@ -140,14 +197,16 @@ TrendResult trend(const FitResult& fit, const std::vector<AlarmLevel>& user) {
       } else {
         const auto it = s[i].trended.find(l.quantity);
         if (it != s[i].trended.end()) v = it->second;
-        unit = l.quantity == "water" || l.quantity == "soot" ? " %" : " ppm";
+        unit = l.quantity == "water" || l.quantity == "soot" ? " %" : l.quantity == "antioxidant-remaining" ? " % of fresh" : " ppm";
       }
       if (!v) continue;
-      const auto past = [&](double lim) { return l.rising ? *v >= lim : *v <= lim; };
+      // as the limit reads: water ends the charge above its limit, the others at it (limits.water)
+      const bool strict = l.quantity == "water";
+      const auto past = [&](double lim) { return l.rising ? (strict ? *v > lim : *v >= lim) : *v <= lim; };
       const char* level = past(l.critical) ? "critical" : past(l.caution) ? "caution" : nullptr;
       if (!level) continue;
       Alarm a{i, l.quantity, level, *v, std::string(level) == "critical" ? l.critical : l.caution, ""};
-      a.message = l.quantity + " " + g3(*v) + unit + " in sample " + std::to_string(i + 1) + " (" + s[i].where + ") is at or " +
+      a.message = l.quantity + " " + g3(*v) + unit + " in sample " + std::to_string(i + 1) + " (" + s[i].where + ") is " + (strict ? "" : "at or ") +
                   (l.rising ? "above" : "below") + " its " + level + " level " + g3(a.limit) + " (" + l.basis + "): " +
                   what_to_check(l.quantity);
       out.alarms.push_back(a);

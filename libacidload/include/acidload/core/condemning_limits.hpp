@@ -16,7 +16,7 @@ inline constexpr std::size_t limit_count = 10;
 inline constexpr std::array<Limit, limit_count> all_limits{Limit::tbn_fall, Limit::tan_rise, Limit::crossover,
     Limit::san, Limit::oxidation, Limit::nitration, Limit::viscosity, Limit::antioxidant, Limit::anti_wear,
     Limit::max_hours};
-//! Whether a limit is an oil-condition limit (every limit but the hours cap).
+//! Whether a limit is an oil-condition limit (every limit but the planned maximum, max-hours).
 constexpr bool is_oil_condition(Limit l) { return l != Limit::max_hours; }
 std::string_view name(Limit l);         //!< short key, e.g. "tbn-fall"
 std::string_view description(Limit l);  //!< plain words, e.g. "TBN at or below 50 % of fresh"
@@ -50,6 +50,10 @@ struct LimitReading {
   double margin() const;
   bool rising = true;   //!< the limit is reached from below (TAN, SAN, …) or from above (TBN)
 };
+//! A lab sample's kinematic viscosity change over the fresh oil's, (ν − ν_fresh)/ν_fresh [-], both at
+//! 100 °C [any one unit, e.g. cSt]: the "% change from new oil" of used-oil reports (ASTM D445 readings).
+double viscosity_change(double nu, double nu_fresh);
+
 //! The reading of one limit for a state at `oil_hours` [h] of a charge.
 LimitReading read_limit(Limit l, const LimitSettings& s, const OilProperties& oil, const OilState& state,
                         double oil_hours);

@@ -19,6 +19,9 @@
 //   oxidation-baseline, nitration-baseline   the lab's FTIR reading of the fresh oil
 //   trended readings (lab_trend_columns(): fe, cu, pb, al, si, na, k … [ppm], viscosity-100 [cSt],
 //                 water [%] …): read with their unit, trended against alarm levels, not modelled
+//   antioxidant-remaining [% of fresh] (ASTM D6971/D7590), water [%], viscosity-100 with
+//                 viscosity-100-fresh [cSt] (the fresh oil's, for the change in %): also compared with
+//                 the case's limits by the forecast (limits passed: change the oil now)
 //   any other column: carried through as text, with a note (a near miss of a known name is refused)
 #include <string>
 #include <vector>
@@ -34,6 +37,8 @@ struct TrendColumn {
   std::string unit;   //!< the unit it is kept in, e.g. "ppm"
   std::vector<std::pair<std::string, double>> units;  //!< accepted header units and their factor to `unit`
   std::string what;   //!< plain words, e.g. "iron (liners, gears, crankshaft)"
+  double high = 1e7;  //!< the largest reading accepted, in `unit` (beyond it: impossible, refused)
+  bool above_zero = false;  //!< 0 is refused too (a viscosity)
 };
 //! The trended columns (add a row here to read another).
 const std::vector<TrendColumn>& lab_trend_columns();

@@ -49,7 +49,7 @@ struct InputFile {
 //! Drain interval against H2S for one variant.
 struct H2sSweep {
   std::string variant;
-  std::vector<double> h2s_ppmv, interval_h;  //!< [ppmv dry], [h] (the hours cap where no limit is reached)
+  std::vector<double> h2s_ppmv, interval_h;  //!< [ppmv dry], [h] (the planned maximum where no limit is reached)
   double own_h2s_ppmv = 0, own_interval_h = 0;  //!< the variant as it is
 };
 
@@ -86,7 +86,7 @@ std::vector<InputRow> input_rows(const CaseFile& c, std::size_t variant);
 //! Warnings drawn from the results (free strong acid, crossover, no limit within the record …).
 std::vector<std::string> result_warnings(const CaseFile& c, const std::vector<VariantSummary>& rows);
 //! Drain interval against H2S from 0 to `top_ppmv` in `points` steps for a variant: a fresh charge
-//! under the operation of the record's first segment, held up to the hours cap (events dropped).
+//! under the operation of the record's first segment, held up to the planned maximum (events dropped).
 H2sSweep h2s_sweep(const EngineCase& c, double top_ppmv, int points);
 
 struct ReportOptions {

@@ -14,18 +14,18 @@
 
 namespace acidload {
 
-//! Limits the lab reads that the model does not (common practice, no single source; the engine
-//! maker's and oil supplier's limits govern).
+//! What the forecast takes beside the case. The lab-only limits (water, i-pH) are the case's
+//! (`limits.water`, `limits.initial-ph`, in LimitSettings) like every other limit.
 struct LabLimits {
-  double initial_ph = 4.0;       //!< i-pH (ASTM D7946) at or below this ends the charge [-] (4–4.5 common practice)
+  std::optional<double> initial_ph;  //!< overrides limits.initial-ph when set [-]; empty: the case's
   double sample_interval = 250;  //!< regular sampling interval [h] (common practice, no source)
 };
 
 //! One limit of the current charge.
 struct LimitForecast {
   Limit limit = Limit::tbn_fall;
-  std::string key;               //!< name(limit), or "i-ph" for the lab-only i-pH limit
-  bool reached = false;          //!< reached within the hours cap
+  std::string key;               //!< name(limit), or "i-ph" / "water" for the lab-only limits
+  bool reached = false;          //!< reached within the planned maximum (the horizon)
   bool already = false;          //!< the latest sample (or the record) has passed it: change the oil now
   double remaining = 0;          //!< hours from the end of the record [h]; +∞ if not reached
   double low = 0, high = 0;      //!< 90 % band [h] (linearised from the covariance)
@@ -54,7 +54,7 @@ struct KalmanUpdate {
 };
 
 struct Forecast {
-  std::vector<LimitForecast> limits;  //!< every enabled modelled limit, then i-pH when it was read
+  std::vector<LimitForecast> limits;  //!< every enabled modelled limit, then i-pH and water when the latest sample has them
   bool change_now = false;            //!< some limit is already passed
   bool lab_first = false;             //!< the state was updated by a sample of the current charge
   std::size_t latest_sample = 0;      //!< index of the sample the update used
@@ -75,7 +75,7 @@ std::vector<LimitForecast> forecast(const FitResult& fit);
 //! What predict_charge runs.
 struct PredictSettings {
   bool next_charge = true;        //!< the next charge (after an oil change at the end of the record), else the current one continued
-  std::vector<Segment> conditions;  //!< planned operation, in order, the last continued to the hours cap; empty: the record's last segment
+  std::vector<Segment> conditions;  //!< planned operation, in order, the last continued to the planned maximum; empty: the record's last segment
   int draws = 400;                //!< parameter draws from the fit's covariance
   std::uint64_t seed = 1;
   bool model_form = true;         //!< add the spread of predicting each past charge from the others
@@ -93,7 +93,7 @@ struct HeldOutCharge {
 struct Prediction {
   bool next_charge = true;
   double interval = 0;            //!< drain interval at the fit's estimates [h] (oil hours of the charge)
-  std::optional<Limit> limit;     //!< the limit that ends it there (none: the hours cap)
+  std::optional<Limit> limit;     //!< the limit that ends it there (none: no limit within the planned maximum)
   double p5 = 0, p50 = 0, p95 = 0;  //!< the interval's band [h]; P5 is the pessimistic end (the earlier change)
   double remaining_p5 = 0, remaining_p50 = 0, remaining_p95 = 0;  //!< current charge: hours from the end of the record [h]
   std::array<int, limit_count> ending{};  //!< how many draws end by each limit

@@ -51,13 +51,13 @@ IntervalBand band_of(const std::vector<double>& values);
 
 struct MonteCarloResult {
   int draws = 0;
-  std::vector<double> drain_interval;  //!< per draw [h]; the hours cap where no limit is reached
+  std::vector<double> drain_interval;  //!< per draw [h]; the planned maximum where no limit is reached
   std::vector<double> first_san;       //!< per draw, oil hours of the first free strong acid [h]; +∞ if none
   double interval_p10 = 0, interval_p50 = 0, interval_p90 = 0;  //!< [h]
   double san_p10 = 0, san_p50 = 0, san_p90 = 0;                 //!< [h], +∞ where more than that share has none
   double interval_p5 = 0, interval_p95 = 0, san_p5 = 0, san_p95 = 0;  //!< [h]
   //! Every charge of the record (when asked for), each continued under its own last conditions to the
-  //! hours cap: per charge, per draw [h], and its band.
+  //! planned maximum: per charge, per draw [h], and its band.
   std::vector<std::vector<double>> charge_intervals;
   std::vector<IntervalBand> charge_bands;
   int clipped = 0;  //!< draws with an input drawn outside its parameter's range, clipped into it
@@ -65,14 +65,14 @@ struct MonteCarloResult {
 };
 //! Monte Carlo over the inputs: each draw's values from the counter-based stream, so the result is
 //! identical for any number of threads (0 = every core). The drain interval is that of the first
-//! charge of the record, continued under its last conditions up to the hours cap.
+//! charge of the record, continued under its last conditions up to the planned maximum.
 MonteCarloResult monte_carlo(const EngineCase& c, const std::vector<UncertainInput>& inputs, int draws,
                              std::uint64_t seed, int threads = 0);
 
 struct FitResult;
 //! Monte Carlo as above, and: with `fit`, its parameters drawn jointly (correlated) from its
 //! covariance in fit space, always within their ranges, over its fitted case (the inputs on top);
-//! with `every_charge`, every charge of the record continued to the hours cap. A draw of an input
+//! with `every_charge`, every charge of the record continued to the planned maximum. A draw of an input
 //! outside its parameter's range is clipped into it and counted, never an abort.
 MonteCarloResult monte_carlo(const EngineCase& c, const std::vector<UncertainInput>& inputs, const FitResult* fit,
                              bool every_charge, int draws, std::uint64_t seed, int threads = 0);
