@@ -184,3 +184,46 @@ TEST_CASE("a mistake in the file's form is reported before an earlier bad value,
   }
   fs::remove(csv);
 }
+
+TEST_CASE("a gas resolved again for a repeated H2S figure is the gas resolved afresh") {
+  // rows alternate between two figures (the second and later rows take the reader's table of gases);
+  // a one-row record of each figure resolves it with an empty table
+  const fs::path tmp = fs::temp_directory_path();
+  const auto one = [&](const std::string& name, const std::string& rows) {
+    const fs::path p = tmp / name;
+    std::ofstream(p) << "hours [h],h2s [ppmv],load [%]\n" << rows;
+    return io::load_case_text(site_with_record(p.string()), "site.yaml", ".").variants.front().record;
+  };
+  std::string alternating;
+  for (int i = 0; i < 400; ++i) alternating += i % 2 ? "1,450.5,85\n" : "1,300,85\n";
+  const auto rec = one("acidload-alternating.csv", alternating);
+  const auto a = one("acidload-only-300.csv", "1,300,85\n");
+  const auto b = one("acidload-only-450.csv", "1,450.5,85\n");
+  REQUIRE(rec.size() == 400);
+  for (std::size_t i = 0; i < rec.size(); ++i) {
+    CAPTURE(i);
+    const FuelGas& want = (i % 2 ? b : a).front().fuel;
+    CHECK(same_bits(rec[i].fuel.x, want.x));
+    CHECK(same_bits(rec[i].fuel.other_sulfur, want.other_sulfur));
+    CHECK(same_bits(rec[i].operation, (i % 2 ? b : a).front().operation));
+  }
+}
+
+TEST_CASE("an operation the model refuses is found after many rows of one accepted state") {
+  // the operation check skips states it has checked; a new state deep in the record is checked
+  const int rows = 150000;
+  const fs::path p = fs::temp_directory_path() / "acidload-deep-operation.csv";
+  {
+    std::ofstream f(p);
+    f << "hours [h],h2s [ppmv],load [%],excess-air-ratio\n";
+    for (int i = 0; i < rows; ++i) f << (i == rows - 7 ? "1,300,85,1.0\n" : "1,300,85,1.7\n");
+  }
+  // λ = 1 leaves no excess O2 for the engine's NOx figure: refused, as by a tree of the whole file
+  try {
+    io::load_case_text(site_with_record(p.string()), "site.yaml", ".");
+    FAIL("λ = 1 with NOx was accepted");
+  } catch (const InputError& e) {
+    CHECK(e.expected().find("less NO2 than the excess O2 can form") != std::string::npos);
+  }
+  fs::remove(p);
+}

@@ -5,6 +5,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdint>
 #include <cstring>
 #include <filesystem>
 #include <functional>
@@ -24,6 +25,7 @@ namespace acidload::io {
 
 namespace {
 using detail::EngineInputs;
+using detail::ResolvedGases;
 using detail::OilInputs;
 using detail::describe;
 using detail::Reader;
@@ -168,12 +170,6 @@ const Node& csv_row_at(CsvRecord& rec, std::size_t i) {
   return fill_row(rec, i, cells, columns, line, text);
 }
 
-// Bitwise equality of two plain structs (equal bits, equal outcome of a pure check).
-template <class T>
-bool same_bits(const T& a, const T& b) {
-  static_assert(std::is_trivially_copyable_v<T>, "compared bit by bit");
-  return std::memcmp(&a, &b, sizeof(T)) == 0;
-}
 
 // The caps on work (case_file.hpp), checked before anything runs; each refusal names the key that
 // sets the work: the row where the hours pass the cap, the output interval, the detection step.
@@ -312,13 +308,14 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
   } else {
     double power = eng.power;
     Segment prev = base;
+    ResolvedGases gases;
     const auto take = [&](std::size_t, const Node& row) {
       Segment s = prev;  // each segment carries the last values forward
       s.events.clear();
       s.calendar_hours = -1;
       s.starts = 0;
       try {
-        detail::read_segment(r, row, s, eng, c.charge, fuel, power);
+        detail::read_segment(r, row, s, eng, c.charge, fuel, power, &gases);
       } catch (const InputError& e) {
         if (e.where().line > 0) throw;
         r.relocate(e, row, &row);
@@ -335,18 +332,39 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
     }
   }
   check_work(r, root, c, listed ? &row_at : nullptr);
-  // validate the operation of every segment here, so that a range error names the place; a segment
-  // whose operating state has the same bits as the last one checked has the same outcome
-  Operation checked_op;
-  Segment checked;
-  bool any_checked = false;
+  // validate the operation of every segment here, so that a range error names the place. The check
+  // is a pure function of the segment's operating state (operation with its starts per hour, gas,
+  // oil temperature and consumption), so a state with the same bits as one already checked has the
+  // same outcome and is not checked again (a table of recent states; a miss only costs a check).
+  struct CheckedState {
+    Operation op;
+    FuelGas fuel;
+    double oil_temperature = 0, oil_consumption = 0;
+    bool used = false;
+  };
+  std::vector<CheckedState> checked(c.record.size() > 64 ? 1024 : 0);
+  const auto state_of = [](const Segment& s) {
+    CheckedState k;
+    std::memset(static_cast<void*>(&k), 0, sizeof k);  // the padding too, so that equal states have equal bytes
+    k.op = s.operation;
+    k.op.starts_per_hour = s.hours > 0 ? s.starts / s.hours : 0;  // as segment_rates takes it
+    k.fuel = s.fuel;
+    k.oil_temperature = s.oil_temperature;
+    k.oil_consumption = s.oil_consumption;
+    k.used = true;
+    return k;
+  };
   for (std::size_t i = 0; i < c.record.size(); ++i) {
     const Segment& s = c.record[i];
-    Operation op = s.operation;
-    op.starts_per_hour = s.hours > 0 ? s.starts / s.hours : 0;  // as segment_rates takes it
-    if (any_checked && same_bits(op, checked_op) && same_bits(s.fuel, checked.fuel) &&
-        same_bits(s.oil_temperature, checked.oil_temperature) && same_bits(s.oil_consumption, checked.oil_consumption))
-      continue;
+    CheckedState* slot = nullptr;
+    if (!checked.empty()) {
+      const CheckedState k = state_of(s);
+      const auto* bytes = reinterpret_cast<const unsigned char*>(&k);
+      std::uint64_t h = 1469598103934665603ull;  // FNV-1a over the state's bytes
+      for (std::size_t b = 0; b < sizeof k; ++b) h = (h ^ bytes[b]) * 1099511628211ull;
+      slot = &checked[h % checked.size()];
+      if (slot->used && std::memcmp(static_cast<const void*>(slot), bytes, sizeof k) == 0) continue;
+    }
     try {
       Transfer t;
       segment_rates(s, c.charge, c.model, &t);
@@ -357,11 +375,7 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
     } catch (const NotModelledError& e) {
       r.fail(listed ? row_at(i) : en, "", std::string("an operation the model covers: ") + e.what());
     }
-    checked_op = op;
-    checked.fuel = s.fuel;
-    checked.oil_temperature = s.oil_temperature;
-    checked.oil_consumption = s.oil_consumption;
-    any_checked = true;
+    if (slot) *slot = state_of(s);
   }
   return c;
 }
