@@ -359,11 +359,15 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
     CheckedState* slot = nullptr;
     if (!checked.empty()) {
       const CheckedState k = state_of(s);
-      const auto* bytes = reinterpret_cast<const unsigned char*>(&k);
-      std::uint64_t h = 1469598103934665603ull;  // FNV-1a over the state's bytes
-      for (std::size_t b = 0; b < sizeof k; ++b) h = (h ^ bytes[b]) * 1099511628211ull;
-      slot = &checked[h % checked.size()];
-      if (slot->used && std::memcmp(static_cast<const void*>(slot), bytes, sizeof k) == 0) continue;
+      static_assert(sizeof k % sizeof(std::uint64_t) == 0, "hashed in words");
+      std::uint64_t h = 1469598103934665603ull;  // FNV-1a over the state's 8-byte words
+      for (std::size_t b = 0; b < sizeof k; b += sizeof(std::uint64_t)) {
+        std::uint64_t w;
+        std::memcpy(&w, reinterpret_cast<const unsigned char*>(&k) + b, sizeof w);
+        h = (h ^ w) * 1099511628211ull;
+      }
+      slot = &checked[(h ^ (h >> 29)) % checked.size()];
+      if (slot->used && std::memcmp(static_cast<const void*>(slot), static_cast<const void*>(&k), sizeof k) == 0) continue;
     }
     try {
       Transfer t;

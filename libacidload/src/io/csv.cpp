@@ -101,8 +101,10 @@ class Parser {
   }
 
   void read_record() {
-    std::vector<std::string> cells;
-    std::vector<int> cols;
+    std::vector<std::string>& cells = cells_;  // kept from row to row: no allocation per row
+    std::vector<int>& cols = cols_;
+    cells.clear();
+    cols.clear();
     for (;;) {
       while (pos_ < s_.size() && is_space(s_[pos_])) ++pos_;
       const int col = column(pos_);
@@ -193,6 +195,8 @@ class Parser {
   CsvTable& t_;
   const detail::CsvRowSink* sink_ = nullptr;
   std::size_t data_rows_ = 0;
+  std::vector<std::string> cells_;
+  std::vector<int> cols_;
   std::size_t pos_ = 0;
   std::size_t line_start_ = 0;
   int line_ = 1;
