@@ -9,6 +9,8 @@
 #include <sstream>
 #include <string>
 
+#include <unistd.h>
+
 #include "acidload/acidload.hpp"
 #include "acidload/io/case_file.hpp"
 #include "acidload/io/csv.hpp"
@@ -17,6 +19,11 @@ using namespace acidload;
 
 namespace {
 namespace fs = std::filesystem;
+
+// A scratch file name of this process (engineers share the machine's /tmp).
+fs::path scratch(const std::string& name) {
+  return fs::temp_directory_path() / (std::to_string(::getpid()) + "-" + name);
+}
 
 std::string slurp(const fs::path& p) {
   std::ifstream f(p, std::ios::binary);
@@ -94,7 +101,7 @@ std::string site_with_record(const std::string& csv) {
 
 // A record of `rows` hourly rows (hours, H2S, load) with row `bad` (0-based) replaced.
 fs::path long_record(const std::string& name, int rows, int bad, const std::string& bad_row) {
-  const fs::path p = fs::temp_directory_path() / name;
+  const fs::path p = scratch(name);
   std::ofstream f(p);
   f << "hours [h],h2s [ppmv],load [%]\n";
   for (int i = 0; i < rows; ++i) {
@@ -188,11 +195,12 @@ TEST_CASE("a mistake in the file's form is reported before an earlier bad value,
 TEST_CASE("a gas resolved again for a repeated H2S figure is the gas resolved afresh") {
   // rows alternate between two figures (the second and later rows take the reader's table of gases);
   // a one-row record of each figure resolves it with an empty table
-  const fs::path tmp = fs::temp_directory_path();
   const auto one = [&](const std::string& name, const std::string& rows) {
-    const fs::path p = tmp / name;
+    const fs::path p = scratch(name);
     std::ofstream(p) << "hours [h],h2s [ppmv],load [%]\n" << rows;
-    return io::load_case_text(site_with_record(p.string()), "site.yaml", ".").variants.front().record;
+    auto record = io::load_case_text(site_with_record(p.string()), "site.yaml", ".").variants.front().record;
+    fs::remove(p);
+    return record;
   };
   std::string alternating;
   for (int i = 0; i < 400; ++i) alternating += i % 2 ? "1,450.5,85\n" : "1,300,85\n";
@@ -212,7 +220,7 @@ TEST_CASE("a gas resolved again for a repeated H2S figure is the gas resolved af
 TEST_CASE("an operation the model refuses is found after many rows of one accepted state") {
   // the operation check skips states it has checked; a new state deep in the record is checked
   const int rows = 150000;
-  const fs::path p = fs::temp_directory_path() / "acidload-deep-operation.csv";
+  const fs::path p = scratch("acidload-deep-operation.csv");
   {
     std::ofstream f(p);
     f << "hours [h],h2s [ppmv],load [%],excess-air-ratio\n";
