@@ -239,6 +239,33 @@ std::vector<double> draws_without_stop(const EngineCase& c0, const std::vector<U
 
 int main(int argc, char** argv) {
   if (argc == 3 && std::strcmp(argv[1], "--memory-run") == 0) return memory_run(std::atof(argv[2]));
+  // one side of bench.py's record reading (part 4), run in a child so that bench.py interleaves it
+  // with its own sides: prints the CPU seconds of this thread for the C++ call, and its peak memory
+  if (argc == 3 && std::strcmp(argv[1], "--load-record") == 0) {
+    const double a = thread_cpu();
+    const std::size_t segments = io::load_case(argv[2]).variants.front().record.size();
+    const double t = thread_cpu() - a;
+    rusage u{};
+    getrusage(RUSAGE_SELF, &u);
+    std::printf("%.9f %zu %ld\n", t, segments, u.ru_maxrss);
+    return 0;
+  }
+  // the floor under any record reader: the file's bytes read (page cache) and its lines counted
+  if (argc == 3 && std::strcmp(argv[1], "--read-bytes") == 0) {
+    std::vector<char> buf(1 << 20);
+    long bytes = 0, lines = 0;
+    const double a = thread_cpu();
+    FILE* in = std::fopen(argv[2], "rb");
+    if (!in) return 1;
+    for (std::size_t n; (n = std::fread(buf.data(), 1, buf.size(), in)) > 0;) {
+      bytes += static_cast<long>(n);
+      for (const char* p = buf.data(); (p = static_cast<const char*>(std::memchr(p, '\n', static_cast<std::size_t>(buf.data() + n - p)))); ++p) ++lines;
+    }
+    std::fclose(in);
+    const double t = thread_cpu() - a;
+    std::printf("%.9f %ld %ld\n", t, lines, bytes);
+    return 0;
+  }
   if (argc == 3 && std::strcmp(argv[1], "--record-csv") == 0) {
     FILE* f = std::fopen(argv[2], "w");
     if (!f) return 1;

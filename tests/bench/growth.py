@@ -1,7 +1,7 @@
 """Growth tables (run by scripts/bench; not by the tests): how time and peak memory grow with the
 size of the work, each size one run of the program in a child process (wall time, and the child's
-peak resident memory from wait4). Sizes: record length 1e2–1e7 rows (`acidload check` and
-`acidload run` of the demo site with the record as a CSV file), Monte Carlo draws 1e2–1e6
+peak resident memory from GNU time). Sizes: record length 1e2–1e7 rows (`acidload check` and
+`acidload run` of the demo site with the record as a CSV file, and Python's acidload.load_case of it), Monte Carlo draws 1e2–1e6
 (`acidload uncertainty` of the demo history), lab samples 10–1e4 (`acidload fit` of three parameters),
 fleet size 1–1000 (that many case files in one `acidload run`, a fleet; and that many variants of one case),
 variants read by `acidload check` 1e2–1e4 (reading is linear in their number).
@@ -78,6 +78,9 @@ def records(tmp):
         row("check", n, run_rss([program, "check", str(case_path)]), "row")
         if n <= 1_000_000:
             row("run", n, run_rss([program, "run", str(case_path)]), "row")
+        # Python loading the case (a fresh interpreter importing acidload: about 30 MB of the peak)
+        row("Python", n, run_rss([sys.executable, "-c", "import sys, acidload; acidload.load_case(sys.argv[1])",
+                                  str(case_path)]), "row")
         csv_path.unlink()
     print()
 

@@ -5,7 +5,10 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdint>
+#include <cstring>
 #include <filesystem>
+#include <functional>
 #include <map>
 #include <memory>
 #include <set>
@@ -14,12 +17,15 @@
 #include "acidload/core/version.hpp"
 #include "acidload/io/csv.hpp"
 #include "case_reader.hpp"
+#include "csv_stream.hpp"
+#include "file_read.hpp"
 #include "text.hpp"
 
 namespace acidload::io {
 
 namespace {
 using detail::EngineInputs;
+using detail::ResolvedGases;
 using detail::OilInputs;
 using detail::describe;
 using detail::Reader;
@@ -62,16 +68,119 @@ std::vector<Node> csv_rows_of(Reader& r, const Node& file_node, const char* sect
   return out;
 }
 
-std::vector<Node> csv_segments(Reader& r, const Node& file_node) { return csv_rows_of(r, file_node, "segment", "record"); }
+// A record CSV read row by row into segments (the record of `acidload run`, `check` and Python):
+// one map node is filled per row, reused for the next, and no copy of the file's lines is kept —
+// only a window document holding the current row's line for a caret. Every check is the reader's
+// own (read_segment on that node), so values, messages and positions are those of a tree of the
+// whole file; a mistake in the file's form is found first, wherever it is, as read_csv finds it.
+struct CsvRecord {
+  std::string text;                  //!< the file's bytes
+  std::string file;                  //!< its path, as resolved
+  NamedColumns cols;
+  std::size_t rows = 0;              //!< data rows
+  int source = 0;                    //!< the window document's index in the reader's documents
+  std::shared_ptr<Document> window;  //!< the current row's line; its root is the row node
+};
+
+CsvRecord open_csv_record(Reader& r, const Node& file_node) {
+  namespace fs = std::filesystem;
+  fs::path p = r.text(file_node);
+  if (p.is_relative()) p = fs::path(r.dir_of(file_node)) / p;
+  CsvRecord rec;
+  rec.file = p.string();
+  CsvTable header;
+  try {
+    rec.text = detail::read_capped_file(rec.file, 64u << 20, "CSV", "file");
+    const detail::CsvRowSink count = [](const std::vector<std::string>&, const std::vector<int>&, int, std::string_view) {};
+    rec.rows = detail::stream_csv(rec.text, rec.file, header, count);
+  } catch (const InputError& e) {
+    if (e.where().line > 0) throw;
+    r.fail(file_node, file_node.scalar, "a readable CSV file (" + e.expected() + ")");
+  }
+  rec.window = std::make_shared<Document>();
+  rec.window->file = header.file;
+  rec.window->lines.assign(1, std::string());
+  rec.source = static_cast<int>(r.docs.size());
+  r.docs.push_back(rec.window);
+  rec.cols = named_columns(header, section_keys("segment"), "record column");
+  rec.window->root.entries.reserve(rec.cols.names.size());  // never moves: the reader's `seen` points into it
+  rec.window->root.key_marks.reserve(rec.cols.names.size());
+  return rec;
+}
+
+// Fills the record's row node with data row `i` (as csv_rows_of builds it) and shows its line.
+const Node& fill_row(CsvRecord& rec, std::size_t i, const std::vector<std::string>& cells, const std::vector<int>& columns,
+                     int line, std::string_view line_text) {
+  Document& d = *rec.window;
+  d.first_line = line;
+  d.lines[0].assign(line_text);
+  Node& row = d.root;
+  row.type = Node::Type::map;
+  row.mark = {line, 1};
+  row.path.assign("record[").append(std::to_string(i)).append("]");
+  row.source = rec.source;
+  std::size_t k = 0;
+  for (std::size_t c = 0; c < cells.size(); ++c) {
+    if (cells[c].empty()) continue;
+    if (k == row.entries.size()) {
+      row.entries.emplace_back();
+      row.key_marks.emplace_back();
+    }
+    auto& [name, v] = row.entries[k];
+    name = rec.cols.names[c];
+    v.type = Node::Type::scalar;
+    detail::cell_scalar(cells[c], rec.cols.units[c], v.scalar);
+    v.mark = {line, columns[c]};
+    v.path.assign(row.path).append(".").append(name);
+    v.source = rec.source;
+    row.key_marks[k] = v.mark;
+    ++k;
+  }
+  row.entries.resize(k);
+  row.key_marks.resize(k);
+  return row;
+}
+
+// Streams the record's rows to `take(i, row)`.
+void stream_rows(CsvRecord& rec, const std::function<void(std::size_t, const Node&)>& take) {
+  std::size_t i = 0;
+  CsvTable header;
+  const detail::CsvRowSink sink = [&](const std::vector<std::string>& cells, const std::vector<int>& columns, int line,
+                                      std::string_view text) {
+    const std::size_t at = i++;
+    take(at, fill_row(rec, at, cells, columns, line, text));
+  };
+  detail::stream_csv(rec.text, rec.file, header, sink);
+}
+
+// Row `i` of the record again (for a refusal found after the rows were read).
+const Node& csv_row_at(CsvRecord& rec, std::size_t i) {
+  std::size_t n = 0;
+  CsvTable header;
+  std::vector<std::string> cells;
+  std::vector<int> columns;
+  int line = 0;
+  std::string text;
+  const detail::CsvRowSink sink = [&](const std::vector<std::string>& c, const std::vector<int>& cols, int l,
+                                      std::string_view t) {
+    if (n++ != i) return;
+    cells = c, columns = cols, line = l, text = std::string(t);
+  };
+  detail::stream_csv(rec.text, rec.file, header, sink);
+  return fill_row(rec, i, cells, columns, line, text);
+}
+
 
 // The caps on work (case_file.hpp), checked before anything runs; each refusal names the key that
 // sets the work: the row where the hours pass the cap, the output interval, the detection step.
-void check_work(const Reader& r, const Node& root, const EngineCase& c, const std::vector<Node>& rows) {
+// `row_at` gives record row i (null: the record is the base segment).
+void check_work(const Reader& r, const Node& root, const EngineCase& c,
+                const std::function<const Node&(std::size_t)>* row_at) {
   double hours = 0;
   for (std::size_t i = 0; i < c.record.size(); ++i) {
     hours += c.record[i].hours;
     if (hours > max_simulated_hours) {
-      const Node& at = rows.empty() ? (root.find("run") ? *root.find("run") : root) : rows[i];
+      const Node& at = !row_at ? (root.find("run") ? *root.find("run") : root) : (*row_at)(i);
       const Node* h = at.find("hours");
       r.fail(h ? *h : at, format_value(hours) + " h in all",
              "a record of at most " + format_value(max_simulated_hours) + " running hours (a cap on work; docs/case-format.md)");
@@ -166,38 +275,47 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
   if (const Node* rn = root.find("run")) detail::read_run(r, *rn, horizon, c.options);
   if (c.options.output_interval == 0) c.options.output_interval = std::fmax(1.0, horizon / 400);
 
-  // the record: one segment of the base operation, or the listed segments
+  // the record: one segment of the base operation, or the listed segments (inline, or a CSV file
+  // streamed row by row)
   std::vector<Node> rows;
+  CsvRecord csv;
+  bool from_csv = false;
   if (const Node* rec = root.find("record")) {
     r.require_section(*rec, "record");
     const Node* file = rec->find("file");
     const Node* segs = rec->find("segments");
     if (file && segs) r.fail(*segs, "", "either a record 'file' or inline 'segments', not both");
-    if (file) rows = csv_segments(r, *file);
+    if (file) csv = open_csv_record(r, *file), from_csv = true;
     if (segs) {
       if (segs->type != Node::Type::sequence || segs->items.empty())
         r.fail(*segs, "", "a list of segments, each with its 'hours'");
       rows = segs->items;
     }
-    if (rows.empty()) r.fail(*rec, "", "at least one segment");
-    if (rows.size() > max_record_rows)
-      r.fail(file ? *file : *segs, std::to_string(rows.size()) + " segments",
+    const std::size_t n = from_csv ? csv.rows : rows.size();
+    if (n == 0) r.fail(*rec, "", "at least one segment");
+    if (n > max_record_rows)
+      r.fail(file ? *file : *segs, std::to_string(n) + " segments",
              "a record of at most " + std::to_string(max_record_rows) + " segments (a cap on work; docs/case-format.md)");
   }
-  if (rows.empty()) {
+  const bool listed = from_csv || !rows.empty();
+  const std::function<const Node&(std::size_t)> row_at = [&](std::size_t i) -> const Node& {
+    return from_csv ? csv_row_at(csv, i) : rows[i];
+  };
+  if (!listed) {
     base.hours = horizon;
     base.starts = eng.start_every > 0 ? horizon / eng.start_every : 0;
     c.record = {base};
   } else {
     double power = eng.power;
     Segment prev = base;
-    for (const Node& row : rows) {
+    ResolvedGases gases;
+    const auto take = [&](std::size_t, const Node& row) {
       Segment s = prev;  // each segment carries the last values forward
       s.events.clear();
       s.calendar_hours = -1;
       s.starts = 0;
       try {
-        detail::read_segment(r, row, s, eng, c.charge, fuel, power);
+        detail::read_segment(r, row, s, eng, c.charge, fuel, power, &gases);
       } catch (const InputError& e) {
         if (e.where().line > 0) throw;
         r.relocate(e, row, &row);
@@ -205,19 +323,63 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
       if (!row.find("starts") && eng.start_every > 0) s.starts = s.hours / eng.start_every;
       c.record.push_back(s);
       prev = s;
+    };
+    if (from_csv) {
+      c.record.reserve(csv.rows);
+      stream_rows(csv, take);
+    } else {
+      for (std::size_t i = 0; i < rows.size(); ++i) take(i, rows[i]);
     }
   }
-  check_work(r, root, c, rows);
-  // validate the operation of every segment here, so that a range error names the place
+  check_work(r, root, c, listed ? &row_at : nullptr);
+  // validate the operation of every segment here, so that a range error names the place. The check
+  // is a pure function of the segment's operating state (operation with its starts per hour, gas,
+  // oil temperature and consumption), so a state with the same bits as one already checked has the
+  // same outcome and is not checked again (a table of recent states; a miss only costs a check).
+  struct CheckedState {
+    Operation op;
+    FuelGas fuel;
+    double oil_temperature = 0, oil_consumption = 0;
+    bool used = false;
+  };
+  std::vector<CheckedState> checked(c.record.size() > 64 ? 1024 : 0);
+  const auto state_of = [](const Segment& s) {
+    CheckedState k;
+    std::memset(static_cast<void*>(&k), 0, sizeof k);  // the padding too, so that equal states have equal bytes
+    k.op = s.operation;
+    k.op.starts_per_hour = s.hours > 0 ? s.starts / s.hours : 0;  // as segment_rates takes it
+    k.fuel = s.fuel;
+    k.oil_temperature = s.oil_temperature;
+    k.oil_consumption = s.oil_consumption;
+    k.used = true;
+    return k;
+  };
   for (std::size_t i = 0; i < c.record.size(); ++i) {
+    const Segment& s = c.record[i];
+    CheckedState* slot = nullptr;
+    if (!checked.empty()) {
+      const CheckedState k = state_of(s);
+      static_assert(sizeof k % sizeof(std::uint64_t) == 0, "hashed in words");
+      std::uint64_t h = 1469598103934665603ull;  // FNV-1a over the state's 8-byte words
+      for (std::size_t b = 0; b < sizeof k; b += sizeof(std::uint64_t)) {
+        std::uint64_t w;
+        std::memcpy(&w, reinterpret_cast<const unsigned char*>(&k) + b, sizeof w);
+        h = (h ^ w) * 1099511628211ull;
+      }
+      slot = &checked[(h ^ (h >> 29)) % checked.size()];
+      if (slot->used && std::memcmp(static_cast<const void*>(slot), static_cast<const void*>(&k), sizeof k) == 0) continue;
+    }
     try {
       Transfer t;
-      segment_rates(c.record[i], c.charge, c.model, &t);
+      segment_rates(s, c.charge, c.model, &t);
     } catch (const InputError& e) {
-      r.relocate(e, rows.empty() ? en : rows[i], rows.empty() ? nullptr : &rows[i]);
+      if (!listed) r.relocate(e, en, nullptr);
+      const Node& row = row_at(i);
+      r.relocate(e, row, &row);
     } catch (const NotModelledError& e) {
-      r.fail(rows.empty() ? en : rows[i], "", std::string("an operation the model covers: ") + e.what());
+      r.fail(listed ? row_at(i) : en, "", std::string("an operation the model covers: ") + e.what());
     }
+    if (slot) *slot = state_of(s);
   }
   return c;
 }

@@ -77,9 +77,24 @@ void read_oil(const Reader& r, const Node& o, OilCharge& c, OilInputs& in, Engin
 void read_model(const Reader& r, const Node& m, ModelParameters& p, OilProperties& oil);
 void read_limits(const Reader& r, const Node& l, LimitSettings& s);
 void read_run(const Reader& r, const Node& run, double& horizon, RunOptions& o);
+//! The gases resolved for a record's recent contaminant figures. Rows change only the analysis's
+//! H2S, other sulfur, chlorine and fluorine, so within one variant's record equal figures resolve
+//! to the same gas (resolve is a pure function); a miss only costs a resolve.
+struct ResolvedGases {
+  struct Entry {
+    Concentration h2s, other_sulfur, chlorine, fluorine;
+    FuelGas gas;
+    bool used = false;
+  };
+  std::vector<Entry> table = std::vector<Entry>(256);
+  //! resolve(fuel), from the table when its four figures were resolved before.
+  FuelGas of(const FuelAnalysis& fuel);
+};
+
 //! One record row's changes over the previous segment (YAML map or CSV row made into nodes).
+//! `resolved`: a table of gases for the record being read (each row's gas is resolved without it).
 void read_segment(const Reader& r, const Node& row, Segment& s, const EngineInputs& eng, const OilCharge& ch,
-                  FuelAnalysis& fuel, double& power);
+                  FuelAnalysis& fuel, double& power, ResolvedGases* resolved = nullptr);
 UncertaintySettings read_uncertainty(const Reader& r, const Node& u);
 //! The `scrubbing` section: its stages in gas-flow order (case_economics.cpp); `step` [h] if given.
 std::vector<TrainStage> read_scrubbing(const Reader& r, const Node& s, double& step);

@@ -4,6 +4,8 @@
 #include <cstdio>
 #include <algorithm>
 #include <cmath>
+#include <cstdint>
+#include <cstring>
 #include <filesystem>
 
 #include "acidload/core/halocarbons.hpp"
@@ -457,8 +459,24 @@ void read_run(const Reader& r, const Node& run, double& horizon, RunOptions& o) 
   r.get(run, "run.detection-step", o.detection_step);
 }
 
+FuelGas ResolvedGases::of(const FuelAnalysis& fuel) {
+  const Concentration key[4] = {fuel.h2s, fuel.other_sulfur, fuel.chlorine, fuel.fluorine};
+  static_assert(sizeof(Concentration) == sizeof(double) + 2 * sizeof(int), "no padding: compared byte by byte");
+  const auto* bytes = reinterpret_cast<const unsigned char*>(key);
+  std::uint64_t h = 1469598103934665603ull;  // FNV-1a
+  for (std::size_t b = 0; b < sizeof key; ++b) h = (h ^ bytes[b]) * 1099511628211ull;
+  Entry& e = table[h % table.size()];
+  const Concentration* held[4] = {&e.h2s, &e.other_sulfur, &e.chlorine, &e.fluorine};
+  bool same = e.used;
+  for (int k = 0; k < 4 && same; ++k) same = std::memcmp(held[k], &key[k], sizeof(Concentration)) == 0;
+  if (same) return e.gas;
+  const FuelGas gas = resolve(fuel);
+  e.h2s = key[0], e.other_sulfur = key[1], e.chlorine = key[2], e.fluorine = key[3], e.gas = gas, e.used = true;
+  return gas;
+}
+
 void read_segment(const Reader& r, const Node& row, Segment& s, const EngineInputs& eng, const OilCharge& ch,
-                  FuelAnalysis& fuel, double& power) {
+                  FuelAnalysis& fuel, double& power, ResolvedGases* resolved) {
   r.require_section(row, "segment");
   const Node* h = row.find("hours");
   if (!h) r.fail(row, "(no hours)", "the segment's running hours, e.g. 'hours: 500 h'");
@@ -473,7 +491,7 @@ void read_segment(const Reader& r, const Node& row, Segment& s, const EngineInpu
   conc("other-sulfur", fuel.other_sulfur);
   conc("chlorine", fuel.chlorine);
   conc("fluorine", fuel.fluorine);
-  if (fuel_changed) s.fuel = resolve(fuel);
+  if (fuel_changed) s.fuel = resolved ? resolved->of(fuel) : resolve(fuel);
   one_of(r, row, "power", "load");
   const Node* pw = row.find("power");
   const Node* ld = row.find("load");

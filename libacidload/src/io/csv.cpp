@@ -12,6 +12,7 @@
 #include "acidload/io/csv.hpp"
 #include "acidload/io/suggestions.hpp"
 
+#include "csv_stream.hpp"
 #include "file_read.hpp"
 #include "text.hpp"
 
@@ -34,7 +35,9 @@ std::string trim(std::string_view s) {
 
 class Parser {
  public:
-  Parser(std::string_view text, CsvTable& table) : s_(text), t_(table) {}
+  Parser(std::string_view text, CsvTable& table, const detail::CsvRowSink* sink = nullptr)
+      : s_(text), t_(table), sink_(sink) {}
+  std::size_t data_rows() const { return data_rows_; }
 
   void run() {
     while (pos_ < s_.size()) {
@@ -43,7 +46,7 @@ class Parser {
     }
     if (t_.header.empty())
       throw InputError("header", "", "a header row, then data rows (the file has none)", file_only(t_.file));
-    if (t_.rows.empty())
+    if (data_rows_ == 0)
       throw error(header_line_, 1, "header", t_.header.front(), "at least one data row after the header");
   }
 
@@ -98,8 +101,10 @@ class Parser {
   }
 
   void read_record() {
-    std::vector<std::string> cells;
-    std::vector<int> cols;
+    std::vector<std::string>& cells = cells_;  // kept from row to row: no allocation per row
+    std::vector<int>& cols = cols_;
+    cells.clear();
+    cols.clear();
     for (;;) {
       while (pos_ < s_.size() && is_space(s_[pos_])) ++pos_;
       const int col = column(pos_);
@@ -147,6 +152,7 @@ class Parser {
     }
     const int end_col = column(pos_);
     const int line = line_;
+    const std::string_view line_text = s_.substr(line_start_, pos_ - line_start_);
     next_line();
     if (t_.header.empty()) {
       take_header(cells, cols, line);
@@ -159,6 +165,11 @@ class Parser {
     if (cells.size() < n)
       throw error(line, end_col, t_.header[cells.size()], "",
                   std::to_string(n) + " cells, as the header has (this row has " + std::to_string(cells.size()) + ")");
+    ++data_rows_;
+    if (sink_) {
+      (*sink_)(cells, cols, line, line_text);
+      return;
+    }
     t_.rows.push_back(std::move(cells));
     t_.columns.push_back(std::move(cols));
     t_.lines.push_back(line);
@@ -182,6 +193,10 @@ class Parser {
 
   std::string_view s_;
   CsvTable& t_;
+  const detail::CsvRowSink* sink_ = nullptr;
+  std::size_t data_rows_ = 0;
+  std::vector<std::string> cells_;
+  std::vector<int> cols_;
   std::size_t pos_ = 0;
   std::size_t line_start_ = 0;
   int line_ = 1;
@@ -206,15 +221,14 @@ InputError CsvTable::error(std::size_t row, std::size_t col, std::string expecte
   return InputError(key, value, std::move(expected), InputWhere{file, line, c, detail::display_line(text, line)});
 }
 
-CsvTable parse_csv(const std::string& text, const std::string& file_name, std::size_t max_bytes) {
-  CsvTable t;
-  t.file = file_name;
+namespace {
+// The checks before parsing (size, NUL bytes) and the text without its byte-order mark.
+std::string_view prepared(const std::string& text, const std::string& file_name, std::size_t max_bytes) {
   if (text.size() > max_bytes)
     throw InputError("file", std::to_string(text.size()) + " bytes",
                      "a file of at most " + std::to_string(max_bytes) + " bytes", file_only(file_name));
   std::string_view s(text);
   if (s.size() >= 3 && s.substr(0, 3) == "\xEF\xBB\xBF") s.remove_prefix(3);  // UTF-8 byte-order mark
-  t.text = detail::split_lines(s);
   if (const std::size_t nul = s.find('\0'); nul != std::string_view::npos) {
     const int line = static_cast<int>(std::count(s.begin(), s.begin() + static_cast<long>(nul), '\n')) + 1;
     std::size_t start = nul;
@@ -222,8 +236,56 @@ CsvTable parse_csv(const std::string& text, const std::string& file_name, std::s
     throw InputError("file", "byte 0x00", "text (a NUL byte is here; is this a CSV file?)",
                      InputWhere{file_name, line, static_cast<int>(nul - start) + 1, ""});
   }
+  return s;
+}
+}  // namespace
+
+CsvTable parse_csv(const std::string& text, const std::string& file_name, std::size_t max_bytes) {
+  CsvTable t;
+  t.file = file_name;
+  const std::string_view s = prepared(text, file_name, max_bytes);
+  t.text = detail::split_lines(s);
   Parser(s, t).run();
   return t;
+}
+
+std::size_t detail::stream_csv(const std::string& text, const std::string& file_name, CsvTable& header,
+                               const CsvRowSink& sink, std::size_t max_bytes) {
+  header = CsvTable{};
+  header.file = file_name;
+  std::size_t rows = 0;
+  try {
+    const std::string_view s = prepared(text, file_name, max_bytes);
+    Parser p(s, header, &sink);
+    p.run();
+    rows = p.data_rows();
+    // the lines up to the header's, for carets at the header
+    std::size_t end = 0;
+    for (int l = 0; l < header.header_line && end != std::string_view::npos; ++l) {
+      end = s.find('\n', end);
+      if (end != std::string_view::npos) ++end;
+    }
+    header.text = split_lines(s.substr(0, end == std::string_view::npos ? s.size() : end));
+  } catch (const InputError&) {
+    // A mistake in the file's form comes first, wherever it is (as read_csv finds it before any
+    // value is read), shown with its line: the whole-table parse throws it. Otherwise the sink's.
+    const CsvRowSink none = [](const std::vector<std::string>&, const std::vector<int>&, int, std::string_view) {};
+    try {
+      CsvTable scratch;
+      scratch.file = file_name;
+      Parser(prepared(text, file_name, max_bytes), scratch, &none).run();
+    } catch (const InputError&) {
+      (void)parse_csv(text, file_name, max_bytes);
+    }
+    throw;
+  }
+  return rows;
+}
+
+void detail::cell_scalar(const std::string& cell, const std::string& unit, std::string& out) {
+  const bool bare = !cell.empty() && cell.find_first_not_of("+-.0123456789eE") == std::string::npos;
+  out = cell;
+  if (bare && !unit.empty()) out.append(" ").append(unit);
 }
 
 CsvTable read_csv(const std::string& path, std::size_t max_bytes) {
@@ -269,9 +331,7 @@ Node cell_node(const CsvTable& t, std::size_t row, std::size_t col, const std::s
                const std::string& path_prefix) {
   Node n;
   n.type = Node::Type::scalar;
-  const std::string& cell = t.rows[row][col];
-  const bool bare = !cell.empty() && cell.find_first_not_of("+-.0123456789eE") == std::string::npos;
-  n.scalar = bare && !unit.empty() ? cell + " " + unit : cell;
+  detail::cell_scalar(t.rows[row][col], unit, n.scalar);
   n.mark = {t.lines[row], t.columns[row][col]};
   n.path = path_prefix + "[" + std::to_string(row) + "]." + name;
   return n;

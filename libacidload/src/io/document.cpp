@@ -355,7 +355,7 @@ InputError Document::error(const Node& at, std::string value, std::string expect
 }
 
 InputError Document::error(Mark at, std::string key, std::string value, std::string expected) const {
-  InputWhere w{file, at.line, at.line > 0 ? at.column : 0, display_line(lines, at.line)};
+  InputWhere w{file, at.line, at.line > 0 ? at.column : 0, display_line(lines, at.line - first_line + 1)};
   return InputError(shown_key(key), std::move(value), std::move(expected), std::move(w));
 }
 

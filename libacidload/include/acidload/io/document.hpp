@@ -43,6 +43,7 @@ struct ReadLimits {
 struct Document {
   std::string file;                //!< as given by the user
   std::vector<std::string> lines;  //!< the text, split into lines (no line ends)
+  int first_line = 1;              //!< the file line `lines` starts at (a window of a long file)
   Node root;
   //! An InputError at `at`, naming its key path, the value shown and what was expected, with the
   //! file, line, column and the offending line with a caret.
