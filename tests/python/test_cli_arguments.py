@@ -54,3 +54,20 @@ def test_property_an_option_a_command_does_not_take_is_refused_naming_it(command
         return
     r = run([command, CASE, option, "x"] if command != "demo" else [command, option, "x"])
     assert r.returncode == 2 and option.encode() in r.stderr and not r.stdout
+
+
+def test_the_draws_range_a_help_text_states_is_the_range_the_command_takes():
+    """Each command's help states '--draws A to B'; B + 1 must be refused naming --draws, and the range the
+    refusal states must end at B, so the help says what the command takes (a help text says what is so)."""
+    import re
+    for command in ("uncertainty", "predict"):
+        text = run([command, "--help"]).stdout.decode()
+        m = re.search(r"--draws (\d+) to (\d+)", text)
+        if not m:
+            assert command != "uncertainty", "uncertainty --help no longer states its --draws range"
+            continue
+        stated = int(m.group(2))
+        r = run([command, CASE, "--draws", str(stated + 1)])
+        assert r.returncode in (2, 3) and b"--draws" in r.stderr, (command, r.returncode, r.stderr[:200])
+        taken = re.search(rb"from 1 to ([0-9.e+]+)", r.stderr)  # the range the refusal states
+        assert taken and float(taken.group(1)) == stated, (command, stated, r.stderr[:200])

@@ -77,7 +77,7 @@ extern const Command uncertainty_command{
     "is the pessimistic one) and of the time to the first free strong acid. A draw outside a\n"
     "parameter's range is clipped into it and counted. Every draw has its own counter-based random\n"
     "stream, so the result is the same for any number of threads (default: every core). N is a whole\n"
-    "number: --draws 1 to 10000000, --seed 0 to 9e15, --threads 1 to 256.\n"
+    "number: --draws 1 to 1000000, --seed 0 to 9e15, --threads 1 to 256.\n"
     "  --first-charge  only the first charge (faster)\n",
     run};
 
