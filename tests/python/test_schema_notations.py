@@ -15,13 +15,13 @@ OWN = {
     "engine.blow-by": ["60 L/min", "3.6 m3/h", "0.9 l/min", "200 L/h"],
     "engine.nox": ["500 mg/Nm3 at 5 % O2", "500 mg/Nm3 @ 5% O2", "250 ppm at 5 % O2", "1.2 g/kWh"],
     "oil.consumption": ["0.3 L/h", "0.25 kg/h", "250 g/h", "0.2 g/kWh"],
-    "engine.start-every": ["3 per week", "2 per day", "3 /week", "2 /d", "48 h"],
+    "engine.start-every": ["3 per week", "2 per day", "3 /week", "2 /d", "3/week", "2/day", "48 h"],
     "fuel.chlorine": ["60 mg Cl/Nm3 CH4", "20 mg Cl/Nm3", "20 mg/Nm3"],
     "fuel.h2s": ["300 ppmv", "450 mg/Nm3 dry", "40 ppm wet", "600 mg H2S/Nm3", "70 mg/m3 CH4"],
 }
 REFUSED = {  # well-formed strings the reader refuses for their form (not their range)
     "engine.blow-by": ["60 L"], "engine.nox": ["500 mg/Nm3"], "oil.consumption": ["0.3 L"],
-    "engine.start-every": ["3 per month", "3/week"],
+    "engine.start-every": ["3 per month", "3per week", "3/month"],
     # which species a 'mg X/…' figure may name depends on the key, which the shared contaminant
     # definition of the schema cannot tell: "60 mg F/Nm3" for fuel.chlorine is the reader's to refuse
 }

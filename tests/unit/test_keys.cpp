@@ -352,6 +352,7 @@ TEST_CASE("everyday notations are read as their accepted spelling") {
   CaseText sw = with_key("engine", "start-every", "3 per week");
   CaseText sh = with_key("engine", "start-every", "56 h");
   CHECK(first(sw).starts == doctest::Approx(first(sh).starts));
+  CHECK(first(with_key("engine", "start-every", "3/week")).starts == doctest::Approx(first(sh).starts));  // no space
   CHECK(first(with_key("engine", "start-every", "2 per day")).starts == doctest::Approx(first(with_key("engine", "start-every", "12 h")).starts));
   // not accepted: a suggestion of the accepted spelling
   CHECK_THROWS_WITH_AS(load(with_key("engine", "power", "1400 kw")), doctest::Contains("did you mean 'kW'"), InputError);

@@ -308,7 +308,10 @@ void read_engine(const Reader& r, const Node& e, EngineInputs& in) {
     static const std::vector<std::pair<std::string, double>> periods = {
         {"per week", 168}, {"/week", 168}, {"per day", 24}, {"/day", 24}, {"/d", 24}};
     double period = 0;
-    if (number_and_unit(r, *n, v, unit))
+    Node spaced = *n;  // "3/week" as "3 /week": a rate is often written without the space
+    if (spaced.type == Node::Type::scalar && spaced.scalar.find_first_of(" \t") == std::string::npos)
+      if (const auto slash = spaced.scalar.find('/'); slash != std::string::npos && slash > 0) spaced.scalar.insert(slash, " ");
+    if (number_and_unit(r, spaced, v, unit))
       for (const auto& [u, h] : periods)
         if (u == unit) period = h;
     if (period > 0) {
