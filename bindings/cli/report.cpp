@@ -235,6 +235,8 @@ void print_forecast(std::FILE* out, const FitResult& f, const Forecast& fc) {
     if (x.already) std::fprintf(out, "  %-12s %12s   reached now\n", x.key.c_str(), "0 h");
     else if (x.key == "i-ph" || x.key == "water") std::fprintf(out, "  %-12s %12s   (not passed by the latest sample)\n", x.key.c_str(), "lab only");
     else if (!x.reached) std::fprintf(out, "  %-12s %12s\n", x.key.c_str(), "not reached");
+    else if (x.key == "max-hours")  // the plant's planned maximum: the horizon, no oil limit and no band
+      std::fprintf(out, "  %-12s %10.0f h   the planned maximum (limits.max-hours), not an oil limit\n", x.key.c_str(), x.remaining);
     else std::fprintf(out, "  %-12s %10.0f h   %.0f to %.0f h\n", x.key.c_str(), x.remaining, x.low, x.high);
   }
   if (!fc.change_now) std::fprintf(out, "\nnext sample due in %.0f h\n", fc.next_sample_in);

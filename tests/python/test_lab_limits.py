@@ -151,6 +151,10 @@ def test_the_program_prints_change_the_oil_now_with_each_limit_and_its_reading(t
     assert r.returncode == 0, r.stderr
     assert "CHANGE THE OIL NOW" not in r.stdout
     assert "lab only   (not passed by the latest sample)" in r.stdout
+    # the planned maximum is the horizon, not an oil limit: no band beside it, said so
+    hours = [l for l in r.stdout.splitlines() if l.startswith("  max-hours")]
+    assert len(hours) == 1 and "the planned maximum (limits.max-hours), not an oil limit" in hours[0], hours
+    assert " to " not in hours[0]
     moved = subprocess.run([str(acidload_program()), "forecast", str(case_file(tmp_path, "  initial-ph: 5.5\n")), "--lab",
                             str(lab_file(tmp_path, WITHIN)), "--parameters", ",".join(PARAMS)],
                            capture_output=True, text=True, timeout=300)
