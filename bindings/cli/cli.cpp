@@ -3,6 +3,7 @@
 #include <cctype>
 #include <cerrno>
 #include <cmath>
+#include <cstdio>
 #include <cstdlib>
 
 #include <unistd.h>
@@ -185,6 +186,15 @@ double quantity_option(const std::string& text, acidload::io::Kind k, const char
   throw UsageError(std::string(option) + " '" + text + "': " + why);
 }
 
+namespace {
+// A whole-number bound as the user types it: 1000000, not 1e+06 (bounds up to 9e15 are exact in a double).
+std::string whole_number(double v) {
+  char b[32];
+  std::snprintf(b, sizeof b, "%.0f", v);
+  return b;
+}
+}  // namespace
+
 std::uint64_t count_option(const std::string& text, const char* option, double lo, double hi) {
   double v = 0;
   std::string unit;
@@ -193,8 +203,7 @@ std::uint64_t count_option(const std::string& text, const char* option, double l
     throw UsageError(std::string(option) + " '" + text + "': expected a whole number");
   if (v != std::floor(v)) throw UsageError(std::string(option) + " '" + text + "': expected a whole number, not a fraction");
   if (!(v >= lo && v <= hi))
-    throw acidload::InputError(option, text,
-                               "a whole number from " + acidload::format_value(lo) + " to " + acidload::format_value(hi));
+    throw acidload::InputError(option, text, "a whole number from " + whole_number(lo) + " to " + whole_number(hi));
   return static_cast<std::uint64_t>(v);
 }
 

@@ -485,8 +485,9 @@ std::string CaseKey::range_text(std::string_view written) const {
   for (const auto& a : accepted_units(kind)) known |= a == u;
   if (!known || (u.empty() && kind == Kind::fraction)) u = unit;
   const auto show = [&](double v) {  // six significant digits: a range, not a round-trip value
-    char buf[32];
-    std::snprintf(buf, sizeof buf, "%.6g", from_core_unit(kind, u, v));
+    char buf[32];                     // (a count as the whole number one types: 1000000, not 1e+06)
+    const double shown = from_core_unit(kind, u, v);
+    std::snprintf(buf, sizeof buf, kind == Kind::count && std::fabs(shown) < 1e15 ? "%.0f" : "%.6g", shown);
     return std::string(buf);
   };
   const std::string tail = u.empty() ? "" : " " + u;
