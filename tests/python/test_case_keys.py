@@ -27,7 +27,8 @@ def schema_sections():
     ref_state = [a for a in s["properties"]["reference-state"]["anyOf"] if a.get("type") == "object"][0]
     sections = {"": s["properties"], "reference-state": ref_state["properties"]}
     for name in ("fuel", "engine", "oil", "model", "limits", "run", "record", "segment", "uncertainty", "uncertain-input",
-                 "scrubbing", "stage", "economics", "site", "gas-record", "gas-segment", "site-engine"):
+                 "scrubbing", "stage", "economics", "site", "gas-record", "gas-segment", "site-engine", "lab", "precision",
+                 "lab-entry", "alarm-level"):
         sections[name] = d[name]["properties"]
     return sections
 
@@ -103,3 +104,18 @@ def test_alternatives_are_pairs():
         if k["alternative"]:
             other = reg[f"{k['section']}.{k['alternative']}" if k["section"] else k["alternative"]]
             assert other["alternative"] == k["key"], k["path"]
+
+
+def test_the_schema_s_alarm_quantities_are_the_reader_s():
+    # the reader lists the quantities it takes alarm levels for when it refuses another (case_lab.cpp)
+    acidload = need_acidload()
+    text = ("format-version: 1\nfuel:\n  composition: {CH4: 55 %, CO2: 45 %}\nengine:\n  power: 1 MW\n"
+            "  electrical-efficiency: 40 %\noil:\n  volume: 600 L\nlab:\n  alarm-levels:\n    zz: {caution: 1, critical: 2}\n")
+    try:
+        acidload.load_case_text(text)
+    except acidload.InputError as e:
+        listed = str(e).split("one of: ", 1)[1].split("\n")[0].split(" (closest")[0].split(", ")
+    else:
+        raise AssertionError("an unknown alarm quantity was accepted")
+    s = json.loads((ROOT / "docs" / "case-format.schema.json").read_text(encoding="utf-8"))
+    assert s["$defs"]["lab"]["properties"]["alarm-levels"]["propertyNames"]["enum"] == listed
