@@ -760,6 +760,8 @@ PYBIND11_MODULE(_core, m) {
           d["default"] = k.default_text;
           d["doc"] = k.doc;
           d["calibratable"] = k.calibratable;
+          d["prior_sd"] = k.prior_sd, d["prior_space"] = k.prior_space, d["prior_basis"] = k.prior_basis;
+          d["fit_range"] = k.fit_range, d["fit_unit"] = k.fit_unit;
           d["field"] = k.field;
           d["alternative"] = k.alternative;
           d["words"] = k.words;
@@ -769,7 +771,7 @@ PYBIND11_MODULE(_core, m) {
       },
       "The registry of case keys (acidload/io/keys.hpp), one dict per key: path, section, key, type, kind "
       "(the schema's $defs name), kind_name, range (in the documented unit), unit, default, doc, calibratable, "
-      "field, alternative, words.");
+      "prior_sd, prior_space, prior_basis (the fit's weak prior), fit_range, fit_unit, field, alternative, words.");
 
   // ---- runs
   py::class_<CaseRun>(m, "CaseRun", "Every variant of a case, run.")

@@ -9,6 +9,7 @@
 
 #include "acidload/core/error.hpp"
 #include "acidload/studies/monte_carlo.hpp"
+#include "acidload/studies/parameters.hpp"
 #include "acidload/core/constants.hpp"
 #include "text.hpp"
 
@@ -54,8 +55,13 @@ struct Builder {
   }
 };
 
+// A calibratable key: fit and uncertainty vary it; its fit space, range and weak prior are the
+// parameter's (studies/parameters.cpp; parameter() refuses a key without one, so the two lists agree).
 CaseKey& cal(CaseKey& k) {
   k.calibratable = true;
+  const ParameterInfo& p = parameter(k.path);
+  k.prior_sd = p.prior_sd, k.prior_space = fit_space_text(p), k.prior_basis = p.prior_basis;
+  k.fit_range = range_text(p), k.fit_unit = p.unit;
   return k;
 }
 CaseKey& alt(CaseKey& k, std::string other) {
