@@ -220,7 +220,8 @@ def fit_residuals(case: Union[Case, Variant], lab: Any, parameters: Sequence[str
 
 class ForecastResult(list):
     """The limits of :func:`forecast` (a list of dicts: limit, reached, already, remaining_h, low_h,
-    high_h, why) with the rest as attributes: change_now, lab_first, update, kalman (the joint update's
+    high_h, why, prior_from: the parameters not fitted whose weak prior widens the band, prior_driven:
+    True when they make up most of it) with the rest as attributes: change_now, lab_first, update, kalman (the joint update's
     state vector, P, H, K, readings and precisions, docs/model.md §13.1), next_sample_in_h, warnings."""
 
     def __init__(self, d: Dict[str, Any]) -> None:

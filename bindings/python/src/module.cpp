@@ -1105,6 +1105,7 @@ PYBIND11_MODULE(_core, m) {
     d["limit"] = x.key;
     d["reached"] = x.reached, d["already"] = x.already;
     d["remaining_h"] = x.remaining, d["low_h"] = x.low, d["high_h"] = x.high;
+    d["prior_driven"] = x.prior_driven, d["prior_from"] = x.prior_from;
     d["why"] = x.why;
     return d;
   };

@@ -394,6 +394,36 @@ Forecast forecast_current(const FitResult& fit, const LabLimits& lab) {
     const auto ta = remaining(with_phi(fit, up), nullptr, nullptr), tb = remaining(with_phi(fit, down), nullptr, nullptr);
     for (std::size_t k = 0; k < limit_count; ++k) grad[j][k] = (ta[k] - tb[k]) / (2 * h);
   }
+  // parameters not fitted that drive a limit (prior_band_drivers): each moved to φ0 ± 1.645σ of its
+  // weak prior, the hours left there (a limit not reached counts at the horizon) give that side's
+  // reach; sides combine with the fit's half-width in quadrature (docs/model.md §13.1)
+  const double horizon = t0[static_cast<std::size_t>(Limit::max_hours)];
+  std::array<double, limit_count> prior_down{}, prior_up{};
+  std::array<std::vector<std::string>, limit_count> prior_from;
+  for (const std::string& key : prior_band_parameters()) {
+    bool fitted = false;
+    for (const FittedParameter& fp : fit.parameters) fitted |= fp.key == key;
+    const std::vector<Limit> drives = prior_band_drivers(key);
+    if (fitted || drives.empty()) continue;
+    const ParameterInfo& info = parameter(key);
+    const double phi0 = to_fit_space(info, inside_range(info, get_parameter(c, key)));
+    const auto at = [&](double phi_k) {
+      EngineCase x = c;
+      set_parameter(x, key, from_fit_space(info, phi_k));
+      return remaining(x, nullptr, nullptr);
+    };
+    const double z = 1.6448536269514722 * info.prior_sd;  // 90 %: z(0.95) σ
+    const auto ta = at(phi0 + z), tb = at(phi0 - z);
+    for (const Limit l : drives) {
+      const auto k = static_cast<std::size_t>(l);
+      if (!std::isfinite(t0[k])) continue;
+      const double a = std::isfinite(ta[k]) ? ta[k] : horizon, b = std::isfinite(tb[k]) ? tb[k] : horizon;
+      const double down = std::max(0.0, t0[k] - std::min(a, b)), up = std::max(0.0, std::max(a, b) - t0[k]);
+      if (down + up <= 0) continue;
+      prior_down[k] += down * down, prior_up[k] += up * up;
+      prior_from[k].push_back(key);
+    }
+  }
   for (std::size_t k = 0; k < limit_count; ++k) {
     if (!c.model.limits.enabled[k]) continue;
     LimitForecast f;
@@ -411,8 +441,10 @@ Forecast forecast_current(const FitResult& fit, const LabLimits& lab) {
         for (std::size_t j = 0; j < p; ++j)
           if (std::isfinite(grad[i][k]) && std::isfinite(grad[j][k])) var += grad[i][k] * fit.covariance[i][j] * grad[j][k];
       const double half = 1.6448536269514722 * std::sqrt(std::max(0.0, var));  // 90 %: z(0.95)
-      f.low = std::max(0.0, t0[k] - half);
-      f.high = t0[k] + half;
+      f.prior_from = prior_from[k];
+      f.prior_driven = prior_down[k] + prior_up[k] > 2 * half * half;  // the priors' share of the band is the larger
+      f.low = std::max(0.0, t0[k] - std::sqrt(half * half + prior_down[k]));
+      f.high = t0[k] + std::sqrt(half * half + prior_up[k]);
     } else {
       f.low = f.high = inf;
     }
@@ -435,6 +467,24 @@ Forecast forecast_current(const FitResult& fit, const LabLimits& lab) {
 }
 
 std::vector<LimitForecast> forecast(const FitResult& fit) { return forecast_current(fit).limits; }
+
+std::vector<Limit> prior_band_drivers(const std::string& key) {
+  // the limits each of them drives beyond what the readings fix: the antioxidant reserve by its induction
+  // time; oxidation, once the reserve is spent, by the depleted factor and the induction time; viscosity
+  // by its rises per oxidation and nitration and by the oxidation after depletion; anti-wear by its loss
+  if (key == "model.induction-time") return {Limit::antioxidant, Limit::oxidation, Limit::viscosity};
+  if (key == "model.depleted-oxidation-factor") return {Limit::oxidation, Limit::viscosity};
+  if (key == "model.viscosity-per-oxidation" || key == "model.viscosity-per-nitration") return {Limit::viscosity};
+  if (key == "model.additive-depletion") return {Limit::anti_wear};
+  return {};
+}
+
+const std::vector<std::string>& prior_band_parameters() {
+  static const std::vector<std::string> k = {"model.induction-time", "model.depleted-oxidation-factor",
+                                             "model.viscosity-per-oxidation", "model.viscosity-per-nitration",
+                                             "model.additive-depletion"};
+  return k;
+}
 
 // ---- predict --------------------------------------------------------------------------------
 
