@@ -307,9 +307,11 @@ double charge_interval(const ChargeSummary& ch, const EngineCase& c) {
 void already_by_sample(const FitResult& fit, const LabSample& s, const LabLimits& lab, std::vector<LimitForecast>& out) {
   const LimitSettings& L = fit.fitted.model.limits;
   const OilProperties& oil = fit.fitted.charge.oil;
+  // the sample's own reading is the plainer evidence: it replaces "the model … passes it" where both hold
   const auto mark = [&](Limit l, const std::string& why) {
     for (LimitForecast& f : out)
-      if (f.key == name(l) && !f.already) f.already = true, f.reached = true, f.remaining = f.low = f.high = 0, f.why = why;
+      if (f.key == name(l) && (!f.already || f.why.rfind("the model", 0) == 0))
+        f.already = true, f.reached = true, f.remaining = f.low = f.high = 0, f.why = why;
   };
   const auto on = [&](Limit l) { return L.enabled[static_cast<std::size_t>(l)]; };
   std::optional<double> tbn_l;  // the sample's TBN by the limit's method
