@@ -266,6 +266,26 @@ void print_trend(std::FILE* out, const FitResult& f, const TrendResult& t) {
   (void)f;
 }
 
+void print_prediction_percentiles(std::FILE* out, const FitResult& f, const Prediction& p, std::uint64_t seed) {
+  const double cap = f.fitted.model.limits.max_hours;
+  const auto h = [&](double v) { return v >= cap ? "none within " + whole_hours(cap) : whole_hours(v); };
+  std::fprintf(out, "Monte Carlo of the next charge: %zu draws, seed %llu; %zu fitted parameters drawn jointly from the fit's covariance\n"
+                    "(every draw inside the ranges), times the model-form error (ln spread %.3f)\n",
+               p.intervals.size(), static_cast<unsigned long long>(seed), f.parameters.size(), p.model_form_spread);
+  std::fprintf(out, "  %-28s %10s %10s %10s %10s %10s\n", "", "P5", "P10", "P50", "P90", "P95");
+  const std::vector<double>& v = p.intervals.empty() ? std::vector<double>{p.interval} : p.intervals;
+  std::fprintf(out, "  %-28s %10s %10s %10s %10s %10s\n", "drain interval, next charge", h(percentile(v, 5)).c_str(),
+               h(percentile(v, 10)).c_str(), h(percentile(v, 50)).c_str(), h(percentile(v, 90)).c_str(), h(percentile(v, 95)).c_str());
+  std::fprintf(out, "  at the fit's estimates: %s, ended by %s\n", h(p.interval).c_str(),
+               p.limit ? std::string(description(*p.limit)).c_str() : "no oil-condition limit (the planned maximum)");
+  std::fprintf(out, "  draws ending by each limit:");
+  for (std::size_t k = 0; k < limit_count; ++k)
+    if (p.ending[k]) std::fprintf(out, " %s %d", std::string(name(all_limits[k])).c_str(), p.ending[k]);
+  std::fprintf(out, "\n(low percentiles are the pessimistic end: the earlier oil change; 'none within': no limit within the\n"
+                    "planned maximum, limits.max-hours)\n");
+  for (const std::string& w : p.warnings) std::fprintf(out, "\nWARNING: %s\n", w.c_str());
+}
+
 void print_prediction(std::FILE* out, const FitResult& f, const Prediction& p) {
   const double cap = f.fitted.model.limits.max_hours;
   const auto h = [&](double v) { return v >= cap ? "no limit within " + whole_hours(cap) : whole_hours(v); };

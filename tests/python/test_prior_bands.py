@@ -49,3 +49,20 @@ def test_the_program_labels_a_prior_driven_band():
     assert "PRIOR-DRIVEN" in line and "model.induction-time" in line, line
     low, high = [float(v) for v in line.split("h   ")[1].split(" h")[0].split(" to ")]
     assert high > low, line
+
+
+def test_uncertainty_of_the_next_charge_is_predict_s_draws_with_p10_and_p90():
+    # `uncertainty --next-charge` percentiles the draws `predict` makes: the same seed and draws give
+    # the same P5/P50/P95 (the band predict prints), and P10/P90 lie inside them
+    import os
+    import re
+    program = os.environ.get("ACIDLOAD_PROGRAM") or str(ROOT / "build" / "bindings" / "cli" / "acidload")
+    args = [str(CASE), "--lab", str(LAB), "--draws", "200", "--seed", "5"]
+    u = subprocess.run([program, "uncertainty", *args, "--next-charge"], capture_output=True, text=True, timeout=300)
+    p = subprocess.run([program, "predict", *args], capture_output=True, text=True, timeout=300)
+    assert u.returncode == 0 and p.returncode == 0, u.stderr + p.stderr
+    row = [l for l in u.stdout.splitlines() if "drain interval, next charge" in l][0]
+    p5, p10, p50, p90, p95 = [int(x) for x in re.findall(r"(\d+) h", row)]
+    band = re.search(r"P5 (\d+) h.*P50 (\d+) h.*P95 (\d+) h", p.stdout)
+    assert (p5, p50, p95) == tuple(int(x) for x in band.groups()), (row, band.group(0))
+    assert p5 <= p10 <= p50 <= p90 <= p95
