@@ -143,8 +143,8 @@ std::array<double, state_size> reading_row(const std::string& r) {
 }
 
 // The state at the sample as the model has it (case c), then moved by the held gain matrix K:
-// v⁺ = v + K·(y − H·v) (docs/model.md §13.1); the oil's own components kept ≥ 0, the weak base (a parameter of the
-// oil, not of the state) not carried.
+// v⁺ = v + K·(y − H·v) (docs/model.md §13.1); the oil's own components kept ≥ 0 (the reactive base at or above
+// its floor), the weak base (a parameter of the oil, not of the state) not carried.
 OilState updated_state(const EngineCase& c, const std::vector<Segment>& before, const std::vector<Reading>& readings,
                        const Eigen::MatrixXd& K, BaseNumberMethod method, std::vector<StateUpdate>* log,
                        std::vector<double>* posterior) {
@@ -159,7 +159,8 @@ OilState updated_state(const EngineCase& c, const std::vector<Segment>& before, 
   if (posterior) posterior->assign(w.data(), w.data() + state_size);
   const double beta = c.charge.oil.salt_titration_share;
   const OilState prior = x;
-  x.base = std::max(0.0, w[0]);
+  // the reactive base is held at or above its floor, as the oil balance holds it (below it strong acid stays free)
+  x.base = std::max({0.0, c.charge.oil.base_floor, w[0]});
   x.additive_acidity = std::max(0.0, w[2]);
   x.weak_acid = std::max(0.0, w[3]);
   x.strong_acid = std::max(0.0, w[4]);
