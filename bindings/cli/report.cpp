@@ -230,15 +230,25 @@ void print_forecast(std::FILE* out, const FitResult& f, const Forecast& fc) {
       if (x.already) std::fprintf(out, "  - %s: %s\n", x.key.c_str(), x.why.c_str());
   }
   std::fprintf(out, "\nhours left from the end of the record (%.0f oil hours) to each limit:\n", fc.end_oil_hours);
-  std::fprintf(out, "  %-12s %12s   %s\n", "limit", "remaining", "90 % band (parameters only)");
+  std::fprintf(out, "  %-12s %12s   %s\n", "limit", "remaining", "90 % band (the fit's parameters and the priors of those not fitted)");
   for (const LimitForecast& x : fc.limits) {
     if (x.already) std::fprintf(out, "  %-12s %12s   reached now\n", x.key.c_str(), "0 h");
     else if (x.key == "i-ph" || x.key == "water") std::fprintf(out, "  %-12s %12s   (not passed by the latest sample)\n", x.key.c_str(), "lab only");
     else if (!x.reached) std::fprintf(out, "  %-12s %12s\n", x.key.c_str(), "not reached");
     else if (x.key == "max-hours")  // the plant's planned maximum: the horizon, no oil limit and no band
       std::fprintf(out, "  %-12s %10.0f h   the planned maximum (limits.max-hours), not an oil limit\n", x.key.c_str(), x.remaining);
-    else std::fprintf(out, "  %-12s %10.0f h   %.0f to %.0f h\n", x.key.c_str(), x.remaining, x.low, x.high);
+    else if (x.prior_driven) {  // the band says what the priors allow, not what the lab measured
+      std::string from;
+      for (const std::string& k : x.prior_from) from += (from.empty() ? "" : ", ") + k;
+      std::fprintf(out, "  %-12s %10.0f h   %.0f to %.0f h   PRIOR-DRIVEN: from the weak prior of %s (not fitted)\n", x.key.c_str(),
+                   x.remaining, x.low, x.high, from.c_str());
+    } else std::fprintf(out, "  %-12s %10.0f h   %.0f to %.0f h\n", x.key.c_str(), x.remaining, x.low, x.high);
   }
+  bool prior = false;
+  for (const LimitForecast& x : fc.limits) prior |= x.prior_driven && !x.already && x.reached;
+  if (prior)
+    std::fprintf(out, "  (a PRIOR-DRIVEN band rests on the model's default and its weak prior (docs/lab-results.md), not on\n"
+                      "   the lab: nothing reported measures it; antioxidant and viscosity readings are trended, not fitted)\n");
   if (!fc.change_now) std::fprintf(out, "\nnext sample due in %.0f h\n", fc.next_sample_in);
   for (const std::string& w : fc.warnings) std::fprintf(out, "\nWARNING: %s\n", w.c_str());
 }
@@ -254,6 +264,26 @@ void print_trend(std::FILE* out, const FitResult& f, const TrendResult& t) {
   for (const Alarm& a : t.alarms) std::fprintf(out, "  %-8s %s\n", a.level == "model" ? "MODEL" : a.level == "critical" ? "CRITICAL" : "caution",
                                                a.message.c_str());
   (void)f;
+}
+
+void print_prediction_percentiles(std::FILE* out, const FitResult& f, const Prediction& p, std::uint64_t seed) {
+  const double cap = f.fitted.model.limits.max_hours;
+  const auto h = [&](double v) { return v >= cap ? "none within " + whole_hours(cap) : whole_hours(v); };
+  std::fprintf(out, "Monte Carlo of the next charge: %zu draws, seed %llu; %zu fitted parameters drawn jointly from the fit's covariance\n"
+                    "(every draw inside the ranges), times the model-form error (ln spread %.3f)\n",
+               p.intervals.size(), static_cast<unsigned long long>(seed), f.parameters.size(), p.model_form_spread);
+  std::fprintf(out, "  %-28s %10s %10s %10s %10s %10s\n", "", "P5", "P10", "P50", "P90", "P95");
+  const std::vector<double>& v = p.intervals.empty() ? std::vector<double>{p.interval} : p.intervals;
+  std::fprintf(out, "  %-28s %10s %10s %10s %10s %10s\n", "drain interval, next charge", h(percentile(v, 5)).c_str(),
+               h(percentile(v, 10)).c_str(), h(percentile(v, 50)).c_str(), h(percentile(v, 90)).c_str(), h(percentile(v, 95)).c_str());
+  std::fprintf(out, "  at the fit's estimates: %s, ended by %s\n", h(p.interval).c_str(),
+               p.limit ? std::string(description(*p.limit)).c_str() : "no oil-condition limit (the planned maximum)");
+  std::fprintf(out, "  draws ending by each limit:");
+  for (std::size_t k = 0; k < limit_count; ++k)
+    if (p.ending[k]) std::fprintf(out, " %s %d", std::string(name(all_limits[k])).c_str(), p.ending[k]);
+  std::fprintf(out, "\n(low percentiles are the pessimistic end: the earlier oil change; 'none within': no limit within the\n"
+                    "planned maximum, limits.max-hours)\n");
+  for (const std::string& w : p.warnings) std::fprintf(out, "\nWARNING: %s\n", w.c_str());
 }
 
 void print_prediction(std::FILE* out, const FitResult& f, const Prediction& p) {

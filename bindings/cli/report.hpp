@@ -31,6 +31,8 @@ void print_forecast(std::FILE* out, const acidload::FitResult& f, const acidload
 void print_trend(std::FILE* out, const acidload::FitResult& f, const acidload::TrendResult& t);
 //! The predicted drain interval with its band.
 void print_prediction(std::FILE* out, const acidload::FitResult& f, const acidload::Prediction& p);
+//! `uncertainty --next-charge`: P5, P10, P50, P90, P95 of the predicted interval's draws.
+void print_prediction_percentiles(std::FILE* out, const acidload::FitResult& f, const acidload::Prediction& p, std::uint64_t seed);
 //! Monte Carlo percentiles.
 void print_monte_carlo(std::FILE* out, const acidload::EngineCase& c, const std::vector<acidload::UncertainInput>& in,
                        const acidload::MonteCarloResult& r, std::uint64_t seed);

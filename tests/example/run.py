@@ -240,7 +240,7 @@ exit_rule = [
     (["uncertainty", H, "--draws", "1.5"], 2), (["uncertainty", H, "--seed", "2.5"], 2), (["uncertainty", H, "--draws", "many"], 2),
     (["uncertainty", H, "--draws", "1e400"], 2), (["uncertainty", H, "--out", "x"], 2), (["uncertainty", H, "--draws", "0"], 3),
     (["uncertainty", H, "--draws", "100000000"], 3), (["uncertainty", H, "--threads", "-5"], 3),
-    (["uncertainty", D], 3),
+    (["uncertainty", D], 3), (["uncertainty", H, "--next-charge"], 2),
     # demo
     (["demo", D], 2), (["demo", "--overlay", D], 2),
 ]

@@ -27,7 +27,8 @@ def schema_sections():
     ref_state = [a for a in s["properties"]["reference-state"]["anyOf"] if a.get("type") == "object"][0]
     sections = {"": s["properties"], "reference-state": ref_state["properties"]}
     for name in ("fuel", "engine", "oil", "model", "limits", "run", "record", "segment", "uncertainty", "uncertain-input",
-                 "scrubbing", "stage", "economics", "site", "gas-record", "gas-segment", "site-engine"):
+                 "scrubbing", "stage", "economics", "site", "gas-record", "gas-segment", "site-engine", "lab", "precision",
+                 "lab-entry", "alarm-level"):
         sections[name] = d[name]["properties"]
     return sections
 
@@ -103,3 +104,45 @@ def test_alternatives_are_pairs():
         if k["alternative"]:
             other = reg[f"{k['section']}.{k['alternative']}" if k["section"] else k["alternative"]]
             assert other["alternative"] == k["key"], k["path"]
+
+
+def test_the_schema_s_alarm_quantities_are_the_reader_s():
+    # the reader lists the quantities it takes alarm levels for when it refuses another (case_lab.cpp)
+    acidload = need_acidload()
+    text = ("format-version: 1\nfuel:\n  composition: {CH4: 55 %, CO2: 45 %}\nengine:\n  power: 1 MW\n"
+            "  electrical-efficiency: 40 %\noil:\n  volume: 600 L\nlab:\n  alarm-levels:\n    zz: {caution: 1, critical: 2}\n")
+    try:
+        acidload.load_case_text(text)
+    except acidload.InputError as e:
+        listed = str(e).split("one of: ", 1)[1].split("\n")[0].split(" (closest")[0].split(", ")
+    else:
+        raise AssertionError("an unknown alarm quantity was accepted")
+    s = json.loads((ROOT / "docs" / "case-format.schema.json").read_text(encoding="utf-8"))
+    assert s["$defs"]["lab"]["properties"]["alarm-levels"]["propertyNames"]["enum"] == listed
+
+
+def test_the_schema_gives_each_calibratable_key_its_prior():
+    # each calibratable key's weak prior (σ in fit space and its basis) lives with the key in the
+    # registry; the schema's description of the key must say the same
+    sections = schema_sections()
+    for k in registry():
+        if not k["calibratable"]:
+            assert k["prior_sd"] == 0 and not k["prior_basis"], k["path"]
+            continue
+        sd = "ln 10" if abs(k["prior_sd"] - 2.302585092994046) < 1e-12 else f"{k['prior_sd']:g}"
+        assert k["prior_sd"] > 0 and k["prior_basis"], k["path"]
+        want = f"calibratable; fit prior σ {sd} in {k['prior_space']} around the case's value: {k['prior_basis']}"
+        assert sections[k["section"]][k["key"]].get("description") == want, k["path"]
+
+
+def test_the_fit_uses_the_registry_s_prior():
+    # the prior row a fit minimises, (φ − φ0)/σ0 (fit_residuals, docs/lab-results.md), uses the
+    # registry's σ: a step of 1.5 σ in fit space from the case's value gives a prior row of exactly 1.5
+    acidload = need_acidload()
+    case = acidload.load_case(ROOT / "cases" / "demo-site-history.yaml")
+    lab = ROOT / "cases" / "demo-site-lab.csv"
+    reg = {k["path"]: k for k in registry()}
+    for key in ("model.liner-uptake", "model.induction-time", "oil.volume", "model.so3-share"):
+        phi0 = acidload._core.to_fit_space(key, acidload._core.get_parameter(case.variant()._engine_case, key))
+        r = acidload.fit_residuals(case, lab, [key], [phi0 + 1.5 * reg[key]["prior_sd"]])
+        assert abs(r[-1] - 1.5) < 1e-9, (key, r[-1])

@@ -160,3 +160,22 @@ def test_the_program_prints_change_the_oil_now_with_each_limit_and_its_reading(t
                            capture_output=True, text=True, timeout=300)
     assert moved.returncode == 0, moved.stderr
     assert "- i-ph: i-pH 5.2" in moved.stdout and "at or below the limit 5.5 (limits.initial-ph)" in moved.stdout
+
+
+def test_the_issue_s_last_sample_is_read_against_each_limit_in_its_own_words(tmp_path):
+    # issue 15's plant: last sample TBN 2.40 (D4739; limit 50 % of fresh), TAN 3.6 (fresh 1.5 + 2 = 3.5
+    # and above TBN), SAN 0.4 (limit: any SAN > 0), i-pH 3.8 (limit 4.5): every one of them reached now,
+    # each "why" naming the measured reading (not only that the model passes it)
+    acidload = need_acidload()
+    lines = (ROOT / "cases" / "demo-site-lab.csv").read_text().splitlines()
+    lines = [l for l in lines if not l.startswith("4,450,")] + ["4,450,Southgate Analytical,2.40,D4739,3.6,0.4,3.8,5.1,5.2"]
+    lab = tmp_path / "lab.csv"
+    lab.write_text("\n".join(lines) + "\n")
+    fit = acidload.fit(acidload.load_case(str(ROOT / "cases" / "demo-site-history.yaml")), lab)
+    f = by_limit(acidload.forecast(fit))
+    assert all(f[k]["already"] for k in ("tbn-fall", "tan-rise", "crossover", "san", "i-ph"))
+    assert "TBN 2.4 " in f["tbn-fall"]["why"]
+    assert "TAN 3.6 " in f["tan-rise"]["why"] and "3.5" in f["tan-rise"]["why"]
+    assert "TAN 3.6 " in f["crossover"]["why"] and "at or above TBN" in f["crossover"]["why"], f["crossover"]["why"]
+    assert "SAN 0.4 " in f["san"]["why"] and "free strong acid" in f["san"]["why"], f["san"]["why"]
+    assert "i-pH 3.8" in f["i-ph"]["why"]

@@ -27,3 +27,25 @@ def test_most_plants_within_ten_percent_and_the_band_holds_the_truth():
     assert f["all"]["within_10pct"] >= 0.4
     assert f["following the model"]["within_10pct"] >= 0.6
     assert f["all"]["median_band_width"] < 0.6  # a band that holds the truth by being endless is no band
+
+
+def test_predict_runs_when_the_base_floor_or_the_additive_s_loss_is_fitted(tmp_path):
+    # with model.base-floor or model.additive-depletion fitted, a draw's floor could sit above the
+    # lab-first state's reactive base and the run refused it ("'oil.base' … expected a reactive base at
+    # or above the floor"), aborting predict on ordinary plants (issue 15: never an abort); the update
+    # now holds the base at its floor, as the oil balance does (docs/model.md §13.1)
+    acidload = need_acidload()
+    import plant as synthetic
+    for seed in range(1, 11):
+        p = synthetic.make_plant(seed, False)
+        rows, truth = synthetic.history(p)
+        lab = tmp_path / "lab.csv"
+        lab.write_text(synthetic.lab_csv(rows))
+        case = acidload.load_case_text(synthetic.case_yaml(p), file_name=f"plant-{seed}.yaml")
+        plan = acidload.load_case_text(synthetic.plan_yaml(p), file_name=f"plan-{seed}.yaml")
+        chosen = acidload.fit(case, lab).keys
+        for extra in ("model.base-floor", "model.additive-depletion"):
+            f = acidload.fit(case, lab, chosen + [extra])
+            pred = acidload.predict(f, conditions=plan, draws=60, seed=seed)
+            assert 0 < pred["p5_h"] <= pred["p50_h"] <= pred["p95_h"], (seed, extra, pred)
+            assert pred["p5_h"] <= 3 * truth and pred["p95_h"] >= truth / 3, (seed, extra, truth, pred)  # sane, not a check of accuracy

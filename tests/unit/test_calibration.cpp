@@ -475,9 +475,9 @@ TEST_CASE("an FTIR baseline is fitted per lab only where none is stated and no f
 }
 
 TEST_CASE("a fit whose optimum lies on a parameter's range limit: one-sided differences there, converged inside the range") {
-  // The depleted-oxidation factor m (docs/model.md §16) is fitted on a log scale (above 0), but the
-  // model accepts it only from 1 (the antioxidant spent cannot slow oxidation down), so a step below
-  // 1 is refused. Readings made with half the oxidation rate and m = 1, fitted with the case's rate
+  // The depleted-oxidation factor m (docs/model.md §16) is accepted only from 1 (the antioxidant spent
+  // cannot slow oxidation down); it is fitted in logit space of its range (1 to 100), so no step can
+  // go below 1 (it used to be fitted on a log scale, where a step below 1 was refused). Readings made with half the oxidation rate and m = 1, fitted with the case's rate
   // and only m free, want m below 1: the optimum sits on the limit. The fit must stop on it, inside
   // the range, with a finite slope taken one-sided (a central difference would ask the model for
   // m < 1 and get a refusal; a zero column instead would leave the standard error infinite).
@@ -494,9 +494,10 @@ TEST_CASE("a fit whose optimum lies on a parameter's range limit: one-sided diff
     if (r.reading == "tan") x.tan = r.predicted;
     if (r.reading == "oxidation") x.oxidation = r.predicted;
   }
-  {  // the limit is the model's: a run below it is refused
+  {  // the limit is the model's: a value below it is refused (by the parameter's range now, before a run)
     EngineCase below = base;
-    set_parameter(below, "model.depleted-oxidation-factor", 0.999);
+    CHECK_THROWS_AS(set_parameter(below, "model.depleted-oxidation-factor", 0.999), InputError);
+    below.model.oxidation.depleted_factor = 0.999;
     CHECK_THROWS_AS(predict(below, s, p), InputError);
   }
   FitSettings fs;
@@ -509,8 +510,16 @@ TEST_CASE("a fit whose optimum lies on a parameter's range limit: one-sided diff
   CHECK(f.converged);
   CHECK(!m.held);
   CHECK(m.estimate >= 1.0);
-  // on the limit to within the fit's difference step (1e-5 in ln m): the down-step there is refused
+  // on the limit to within 1e-5: the logit runs out towards it
   CHECK(m.estimate < 1.0 + 1e-5);
-  CHECK(std::isfinite(m.standard_error));
-  CHECK(m.standard_error > 0);
+  // without a prior the readings leave no curvature there (fit space runs flat to the bound); with the
+  // weak prior (the default) the error is finite and positive
+  fs.priors = true;
+  const FitResult g = calibrate(base, s, fs);
+  INFO("with the prior: estimate " << g.parameters[0].estimate << ", standard error " << g.parameters[0].standard_error);
+  CHECK(g.converged);
+  CHECK(g.parameters[0].estimate >= 1.0);
+  CHECK(g.parameters[0].estimate < 1.2);
+  CHECK(std::isfinite(g.parameters[0].standard_error));
+  CHECK(g.parameters[0].standard_error > 0);
 }

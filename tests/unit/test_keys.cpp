@@ -118,6 +118,20 @@ TEST_CASE("every calibratable key is a parameter fit and uncertainty know") {
       CHECK_MESSAGE(io::case_key(p.key).calibratable, p.key);
 }
 
+TEST_CASE("every value a fit can step to lies in the key's range") {
+  // the fit works in log/logit space (studies/parameters.cpp): whatever φ, the value must be one the
+  // reader (and the core behind it) accepts, or a step onto a bound is refused mid-fit
+  for (const auto& p : parameter_table()) {
+    const io::CaseKey& k = io::case_key(p.key);
+    if (k.type != io::KeyType::quantity || p.key == "oil.consumption") continue;  // h2s: a contaminant; consumption: kg/h
+    for (double phi : {-40.0, -8.0, -1.0, 0.0, 1.0, 8.0, 40.0}) {
+      const double x = from_fit_space(p, phi);
+      const std::string what = p.key + " at phi " + std::to_string(phi) + ": " + std::to_string(x) + " outside " + k.range_text();
+      CHECK_MESSAGE(k.in_range(x), what);
+    }
+  }
+}
+
 TEST_CASE("registry ranges agree with the core: both ends load, just outside is refused at the key") {
   int checked = 0;
   for (const auto& k : io::case_keys()) {

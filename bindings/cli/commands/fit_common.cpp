@@ -19,8 +19,9 @@ void require_fit_options(const char* command, const FitOptions& o) {
 }
 
 namespace {
-acidload::Precision precision_from(const std::string& text) {
-  acidload::Precision p;
+// The figures --precision states (the others fall to the case's lab section and the defaults).
+acidload::PrecisionSetting precision_from(const std::string& text) {
+  acidload::PrecisionSetting p;
   for (const std::string& item : split_list(text)) {
     const auto eq = item.find('=');
     if (eq == std::string::npos) throw UsageError("--precision '" + item + "': expected READING=SD, e.g. tan=0.1");
@@ -45,12 +46,16 @@ FitRun fit_case(const FitOptions& o) {
   acidload::FitSettings settings;
   settings.parameters = split_list(o.parameters);
   if (!o.parameters.empty() && settings.parameters.empty()) throw UsageError("--parameters '" + o.parameters + "': no key in it");
-  if (!o.precision.empty()) settings.precision = precision_from(o.precision);
+  const acidload::PrecisionSetting call = o.precision.empty() ? acidload::PrecisionSetting{} : precision_from(o.precision);
   for (const std::string& k : settings.parameters) acidload::parameter(k);  // unknown keys: bad input with the list
   r.file = acidload::io::load_case(o.case_file, o.overlays);
   r.variant = &pick_variant(r.file, o.variant);
+  // precedence: a row's *-sd > --precision > the case's lab entry > lab.precision > the defaults
+  acidload::resolve_precision(settings, r.file.lab, call);
+  std::vector<acidload::LabSample> samples = acidload::io::read_lab_samples(o.lab, &r.lab_notes);
+  acidload::apply_lab_baselines(samples, r.file.lab);
   const ProgressLine progress("fitting " + std::to_string(settings.parameters.size()) + " parameter(s)");
-  r.fit = acidload::calibrate(*r.variant, acidload::io::read_lab_samples(o.lab, &r.lab_notes), settings);
+  r.fit = acidload::calibrate(*r.variant, samples, settings);
   return r;
 }
 

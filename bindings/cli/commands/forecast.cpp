@@ -18,7 +18,7 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
   for (const std::string& n : r.lab_notes) std::fprintf(out, "note: %s\n", n.c_str());
   const auto fc = (ProgressLine("forecast: running the current charge on"), acidload::forecast_current(r.fit));
   print_forecast(out, r.fit, fc);
-  print_trend(out, r.fit, acidload::trend(r.fit));
+  print_trend(out, r.fit, acidload::trend(r.fit, r.file.lab.alarm_levels));  // the case's lab.alarm-levels over the defaults
   print_caution(out);
   return exit_ok;
 }

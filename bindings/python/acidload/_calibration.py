@@ -104,8 +104,9 @@ def _samples(lab: Any) -> list:
 class Fit:
     """The outcome of :func:`fit`."""
 
-    def __init__(self, result: "_core.FitResult") -> None:
+    def __init__(self, result: "_core.FitResult", lab: Optional["_core.LabSettings"] = None) -> None:
         self._r = result
+        self._lab = lab if lab is not None else _core.LabSettings()  # the case's lab section (alarm levels for trend)
 
     @property
     def keys(self) -> List[str]:
@@ -190,10 +191,23 @@ def fit(case: Union[Case, Variant], lab: Any, parameters: Optional[Sequence[str]
     from :func:`read_lab_samples`). Without ``parameters`` a set matched to what the lab reports
     (``Fit.notes`` says why). ``precision``: one standard deviation per reading (keys tbn_d2896,
     tbn_d4739, tan, san [mg KOH/g], oxidation, nitration [A/cm]); ``lab_precision``: the same per lab name.
+    The case's ``lab`` section (:attr:`Case.lab`) is used for what the call does not state: precedence, highest
+    first, a row's ``*-sd`` column, ``lab_precision`` for its lab, ``precision``, the case's per-lab
+    precision, the case's ``lab.precision``, the built-in defaults; the case's per-lab FTIR baselines go to
+    that lab's rows that state none.
     ``priors=False`` drops the weak priors (plain least squares, as another optimiser would do it)."""
+    settings = _lab_settings(case)
     return Fit(_core.calibrate(_engine_case(case, variant), _samples(lab), list(parameters or []),
                                dict(precision or {}), {k: dict(v) for k, v in (lab_precision or {}).items()},
-                               bool(priors)))
+                               bool(priors), settings), settings)
+
+
+def _lab_settings(case: Union[Case, Variant]) -> "_core.LabSettings":
+    if isinstance(case, Variant):
+        return case.case._file.lab
+    if isinstance(case, Case):
+        return case._file.lab
+    return _core.LabSettings()
 
 
 def fit_residuals(case: Union[Case, Variant], lab: Any, parameters: Sequence[str], phi: Sequence[float], *,
@@ -206,7 +220,8 @@ def fit_residuals(case: Union[Case, Variant], lab: Any, parameters: Sequence[str
 
 class ForecastResult(list):
     """The limits of :func:`forecast` (a list of dicts: limit, reached, already, remaining_h, low_h,
-    high_h, why) with the rest as attributes: change_now, lab_first, update, kalman (the joint update's
+    high_h, why, prior_from: the parameters not fitted whose weak prior widens the band, prior_driven:
+    True when they make up most of it) with the rest as attributes: change_now, lab_first, update, kalman (the joint update's
     state vector, P, H, K, readings and precisions, docs/model.md §13.1), next_sample_in_h, warnings."""
 
     def __init__(self, d: Dict[str, Any]) -> None:
@@ -274,13 +289,13 @@ def trend(result: Fit, levels: Optional[Dict[str, Tuple[float, float]]] = None) 
     else from the charge's first sample), antioxidant-remaining [% of fresh] and i-ph against caution and
     critical levels. For water, viscosity-100, antioxidant-remaining and i-ph the critical level is the
     case's limit and the caution level lies before it; a level given for them beyond the limit raises
-    InputError. ``levels`` replaces defaults: {"fe": (30, 50), "tbn": (2.5, 2.0)} (a level pair falling,
+    InputError. The case's ``lab.alarm-levels`` replace the defaults, and ``levels`` replaces both: {"fe": (30, 50), "tbn": (2.5, 2.0)} (a level pair falling,
     as for TBN, alarms at or below). Defaults: :func:`default_alarm_levels` (for the default limits),
     common practice, no source; the engine maker's and oil supplier's limits govern."""
     lv = []
     for q, (caution, critical) in (levels or {}).items():
         lv.append((q, float(caution), float(critical), float(critical) >= float(caution)))
-    return dict(_core.trend(result._r, lv))
+    return dict(_core.trend(result._r, lv, result._lab))
 
 
 def default_alarm_levels() -> List[Tuple[str, float, float, bool, str]]:

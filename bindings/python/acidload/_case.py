@@ -87,6 +87,14 @@ class Case:
         return list(self._file.overlays)
 
     @property
+    def lab(self) -> Dict[str, Any]:
+        """The ``lab`` section as a dict (only what the case states): ``precision`` {reading: sd},
+        ``labs`` {lab name: {precision, oxidation_baseline, nitration_baseline}} and ``alarm_levels``
+        {quantity: (caution, critical)}; readings tbn_d2896, tbn_d4739, tan, san [mg KOH/g], oxidation,
+        nitration [A/cm]. :func:`acidload.fit` uses it where the call states nothing (docs/lab-results.md)."""
+        return self._file.lab.to_dict()
+
+    @property
     def variants(self) -> List[Variant]:
         """Every variant; ``[0]`` is the base case."""
         return [Variant(v, self) for v in self._file.variants]

@@ -23,6 +23,7 @@
 #include "acidload/io/results.hpp"
 #include "acidload/studies/calibration.hpp"
 #include "acidload/studies/forecast.hpp"
+#include "acidload/studies/lab_settings.hpp"
 #include "acidload/studies/monte_carlo.hpp"
 #include "acidload/studies/trend.hpp"
 #include "acidload/studies/inverse.hpp"
@@ -611,12 +612,41 @@ PYBIND11_MODULE(_core, m) {
       .def_property_readonly("segments", [](const EngineCase& c) { return c.record.size(); }, "segments in the record")
       .def_property_readonly("max_hours", [](const EngineCase& c) { return c.model.limits.max_hours; },
                              "the plant's planned maximum hours on a charge: the horizon [h]");
+  py::class_<LabSettings>(m, "LabSettings", "A case's 'lab' section (docs/lab-results.md).")
+      .def(py::init<>())
+      .def("to_dict", [](const LabSettings& l) {
+        const auto prec = [](const PrecisionSetting& p) {
+          py::dict d;
+          const std::pair<const char*, const std::optional<double>*> f[] = {
+              {"tbn_d2896", &p.tbn_d2896}, {"tbn_d4739", &p.tbn_d4739}, {"tan", &p.tan},
+              {"san", &p.san}, {"oxidation", &p.oxidation}, {"nitration", &p.nitration}};
+          for (const auto& [k, v] : f)
+            if (*v) d[k] = **v;
+          return d;
+        };
+        py::dict out, labs, levels;
+        out["precision"] = prec(l.precision);
+        for (const auto& [name, o] : l.labs) {
+          py::dict e;
+          e["precision"] = prec(o.precision);
+          e["oxidation_baseline"] = o.oxidation_baseline ? py::cast(*o.oxidation_baseline) : py::none();
+          e["nitration_baseline"] = o.nitration_baseline ? py::cast(*o.nitration_baseline) : py::none();
+          labs[py::str(name)] = e;
+        }
+        out["labs"] = labs;
+        for (const AlarmLevel& a : l.alarm_levels) levels[py::str(a.quantity)] = py::make_tuple(a.caution, a.critical);
+        out["alarm_levels"] = levels;
+        return out;
+      }, "{'precision': {reading: sd}, 'labs': {name: {'precision', 'oxidation_baseline', 'nitration_baseline'}}, "
+         "'alarm_levels': {quantity: (caution, critical)}}; readings tbn_d2896, tbn_d4739, tan, san [mg KOH/g], "
+         "oxidation, nitration [A/cm]; only what the case states.");
   py::class_<io::CaseFile>(m, "CaseFile", "A loaded case: the base and its variants.")
       .def_readonly("file", &io::CaseFile::file, "path as given")
       .def_readonly("title", &io::CaseFile::title, "the 'case' key")
       .def_readonly("variants", &io::CaseFile::variants, "[0] is the base case")
       .def_readonly("overlays", &io::CaseFile::overlays, "overlay files applied, in order")
-      .def_readonly("format_version", &io::CaseFile::format_version, "as written in the file");
+      .def_readonly("format_version", &io::CaseFile::format_version, "as written in the file")
+      .def_readonly("lab", &io::CaseFile::lab, "the 'lab' section: precision, per-lab settings, alarm levels");
   // reading a case is pure C++ (about as long as running it): the GIL released, so fleets load on threads
   m.def("load_case", &io::load_case, py::arg("path"), py::arg("overlays") = std::vector<std::string>{},
         py::call_guard<py::gil_scoped_release>(),
@@ -730,6 +760,8 @@ PYBIND11_MODULE(_core, m) {
           d["default"] = k.default_text;
           d["doc"] = k.doc;
           d["calibratable"] = k.calibratable;
+          d["prior_sd"] = k.prior_sd, d["prior_space"] = k.prior_space, d["prior_basis"] = k.prior_basis;
+          d["fit_range"] = k.fit_range, d["fit_unit"] = k.fit_unit;
           d["field"] = k.field;
           d["alternative"] = k.alternative;
           d["words"] = k.words;
@@ -739,7 +771,7 @@ PYBIND11_MODULE(_core, m) {
       },
       "The registry of case keys (acidload/io/keys.hpp), one dict per key: path, section, key, type, kind "
       "(the schema's $defs name), kind_name, range (in the documented unit), unit, default, doc, calibratable, "
-      "field, alternative, words.");
+      "prior_sd, prior_space, prior_basis (the fit's weak prior), fit_range, fit_unit, field, alternative, words.");
 
   // ---- runs
   py::class_<CaseRun>(m, "CaseRun", "Every variant of a case, run.")
@@ -1026,6 +1058,7 @@ PYBIND11_MODULE(_core, m) {
         return v;
       }, "per parameter: held at its prior (the samples do not respond to it)")
       .def_readonly("fitted", &FitResult::fitted, "the case with the estimates put in")
+      .def_readonly("samples", &FitResult::samples, "the samples fitted (the case's per-lab FTIR baselines put in)")
       .def("overlay_text", [](const FitResult& f, const std::string& c, const std::string& l) { return io::overlay_text(f, c, l); },
            py::arg("case_file"), py::arg("lab_file"), "The estimates as overlay text for 'acidload run --overlay'.")
       .def("write_overlay",
@@ -1034,13 +1067,15 @@ PYBIND11_MODULE(_core, m) {
            py::arg("path"), py::arg("case_file"), py::arg("lab_file"), py::arg("inputs"),
            "Writes the overlay as the program's fit --write-overlay does (io::write_overlay: the files read "
            "and files acidload did not write are refused).");
-  m.def("calibrate", [](const EngineCase& c, const std::vector<LabSample>& s, const std::vector<std::string>& keys,
+  m.def("calibrate", [](const EngineCase& c, std::vector<LabSample> s, const std::vector<std::string>& keys,
                         const std::map<std::string, double>& precision,
-                        const std::map<std::string, std::map<std::string, double>>& lab_precision, bool priors) {
+                        const std::map<std::string, std::map<std::string, double>>& lab_precision, bool priors,
+                        const LabSettings& lab) {
     FitSettings fs;
     fs.parameters = keys;
     fs.priors = priors;
-    const auto apply = [](Precision& p, const std::map<std::string, double>& m) {
+    const auto stated = [](const std::map<std::string, double>& m) {
+      PrecisionSetting p;
       for (const auto& [k, v] : m) {
         if (!(v > 0 && v < 1e3)) throw InputError("precision " + k, format_value(v), "a standard deviation above 0");
         if (k == "tbn_d2896") p.tbn_d2896 = v;
@@ -1051,24 +1086,26 @@ PYBIND11_MODULE(_core, m) {
         else if (k == "nitration") p.nitration = v;
         else throw InputError("precision", k, "one of tbn_d2896, tbn_d4739, tan, san, oxidation, nitration");
       }
+      return p;
     };
-    apply(fs.precision, precision);
-    for (const auto& [lab, m] : lab_precision) {
-      Precision p = fs.precision;
-      apply(p, m);
-      fs.lab_precision[lab] = p;
-    }
+    std::map<std::string, PrecisionSetting> by_lab;
+    for (const auto& [name, m] : lab_precision) by_lab[name] = stated(m);
+    // precedence: a row's *-sd > lab_precision= > precision= > the case's lab entry > lab.precision > the defaults
+    resolve_precision(fs, lab, stated(precision), by_lab);
+    apply_lab_baselines(s, lab);
     py::gil_scoped_release release;
     return calibrate(c, s, fs);
   }, py::arg("case"), py::arg("samples"), py::arg("parameters"), py::arg("precision") = std::map<std::string, double>{},
         py::arg("lab_precision") = std::map<std::string, std::map<std::string, double>>{}, py::arg("priors") = true,
+        py::arg("lab") = LabSettings{},
         "Weighted least squares (Levenberg-Marquardt, weak priors) of the named parameters (none: chosen for what "
-        "the lab reports) to the samples; precision [mg KOH/g, A/cm] by reading, and by lab.");
+        "the lab reports) to the samples; precision [mg KOH/g, A/cm] by reading, and by lab, over the case's lab settings.");
   const auto limit_dict = [](const LimitForecast& x) {
     py::dict d;
     d["limit"] = x.key;
     d["reached"] = x.reached, d["already"] = x.already;
     d["remaining_h"] = x.remaining, d["low_h"] = x.low, d["high_h"] = x.high;
+    d["prior_driven"] = x.prior_driven, d["prior_from"] = x.prior_from;
     d["why"] = x.why;
     return d;
   };
@@ -1147,7 +1184,8 @@ PYBIND11_MODULE(_core, m) {
         py::arg("seed") = 1, py::arg("model_form") = true, py::arg("lab_first") = true, py::arg("initial_ph") = py::none(),
         "The drain interval of the next charge (or the current one continued) with its P5/P50/P95 band [h]; plan: cases "
         "whose records are the planned operation (empty: the record's last segment).");
-  m.def("trend", [](const FitResult& f, const std::vector<std::tuple<std::string, double, double, bool>>& levels) {
+  m.def("trend", [](const FitResult& f, const std::vector<std::tuple<std::string, double, double, bool>>& levels,
+                    const LabSettings& lab) {
     std::vector<AlarmLevel> lv;
     for (const auto& [q, caution, critical, rising] : levels) {
       if (!(std::isfinite(caution) && std::isfinite(critical)) || (rising ? critical < caution : critical > caution))
@@ -1158,7 +1196,7 @@ PYBIND11_MODULE(_core, m) {
     TrendResult t;
     {
       py::gil_scoped_release release;
-      t = trend(f, lv);
+      t = trend(f, merged_levels(lab, lv));  // the call's levels over the case's lab.alarm-levels
     }
     py::dict d;
     py::list alarms;
@@ -1173,7 +1211,7 @@ PYBIND11_MODULE(_core, m) {
     d["tbn_slope"] = opt(t.tbn_slope), d["tbn_slope_model"] = opt(t.tbn_slope_model), d["tbn_slope_error"] = opt(t.tbn_slope_error);
     d["implied_h2s_ppmv"] = opt(t.implied_h2s);
     return d;
-  }, py::arg("fit"), py::arg("levels") = std::vector<std::tuple<std::string, double, double, bool>>{},
+  }, py::arg("fit"), py::arg("levels") = std::vector<std::tuple<std::string, double, double, bool>>{}, py::arg("lab") = LabSettings{},
         "Trend and alarms: the latest sample against the model's band, the TBN slope [mg KOH/g per h] against the "
         "model's and the H2S it implies [ppmv], readings against caution/critical levels ((quantity, caution, "
         "critical, rising) replace the defaults).");

@@ -42,8 +42,8 @@ void validate(const OxidationLaw& l) {
   check::in_range("model.ring-zone-offset", l.ring_zone_offset, 0.0, 150.0, "K");
   check::in_range("model.organic-acid-yield", l.organic_acid_yield, 0.0, 5.0, "mg KOH/g per A/cm");
   check::in_range("model.nitration-yield", l.nitration_yield, 0.0, 1e6, "A/cm per mol/kg");
-  check::in_range("model.induction-hours", l.induction_hours, 1.0, 1e6, "h");
-  check::in_range("model.depleted-factor", l.depleted_factor, 1.0, 100.0, "(rate with the antioxidant spent over the protected rate)");
+  check::in_range("model.induction-time", l.induction_hours, 1.0, 1e6, "h");
+  check::in_range("model.depleted-oxidation-factor", l.depleted_factor, 1.0, 100.0, "(rate with the antioxidant spent over the protected rate)");
 }
 
 double oxidation_temperature_factor(const OxidationLaw& l, double T) {

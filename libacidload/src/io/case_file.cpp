@@ -427,7 +427,7 @@ void scrub_and_price(Reader& r, const Node& tree, EngineCase& c, CaseFile& out, 
 std::map<std::string, std::string> key_sources(const Reader& r, const Node& root) {
   std::map<std::string, std::string> out;
   for (const auto& [section, node] : root.entries) {
-    if (section == "variants" || section == "uncertainty" || section == "format-version" || section == "case") continue;
+    if (section == "variants" || section == "uncertainty" || section == "lab" || section == "format-version" || section == "case") continue;
     if (node.type != Node::Type::map) {
       out[section] = r.doc(node).file;
       continue;
@@ -506,6 +506,8 @@ CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::
   }
   if (const Node* t = root.find("case")) out.title = r.text(*t);
   if (const Node* u = root.find("uncertainty")) out.uncertainty = detail::read_uncertainty(r, *u);
+  const Node* lab = root.find("lab");
+  if (lab) out.lab = detail::read_lab(r, *lab);
   std::string base_name = "base";
   if (const Node* b = root.find("base-name")) {
     base_name = r.text(*b);
@@ -548,6 +550,8 @@ CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::
                              " segments in all (a cap on memory; docs/case-format.md)");
     }
   }
+  if (lab)  // a level past the limit of any variant is refused at its line
+    for (const EngineCase& v : out.variants) detail::check_lab_levels(r, *lab, out.lab, v.model.limits);
   return out;
 }
 

@@ -96,6 +96,10 @@ struct ResolvedGases {
 void read_segment(const Reader& r, const Node& row, Segment& s, const EngineInputs& eng, const OilCharge& ch,
                   FuelAnalysis& fuel, double& power, ResolvedGases* resolved = nullptr);
 UncertaintySettings read_uncertainty(const Reader& r, const Node& u);
+//! The `lab` section (case_lab.cpp).
+LabSettings read_lab(const Reader& r, const Node& lab);
+//! Refuses, at its line, an alarm level of the `lab` section past one of `limits` (alarm_levels()).
+void check_lab_levels(const Reader& r, const Node& lab, const LabSettings& s, const LimitSettings& limits);
 //! The `scrubbing` section: its stages in gas-flow order (case_economics.cpp); `step` [h] if given.
 std::vector<TrainStage> read_scrubbing(const Reader& r, const Node& s, double& step);
 //! The `economics` section into a cost case's prices and settings (case_economics.cpp).

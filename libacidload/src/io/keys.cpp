@@ -9,6 +9,7 @@
 
 #include "acidload/core/error.hpp"
 #include "acidload/studies/monte_carlo.hpp"
+#include "acidload/studies/parameters.hpp"
 #include "acidload/core/constants.hpp"
 #include "text.hpp"
 
@@ -54,8 +55,13 @@ struct Builder {
   }
 };
 
+// A calibratable key: fit and uncertainty vary it; its fit space, range and weak prior are the
+// parameter's (studies/parameters.cpp; parameter() refuses a key without one, so the two lists agree).
 CaseKey& cal(CaseKey& k) {
   k.calibratable = true;
+  const ParameterInfo& p = parameter(k.path);
+  k.prior_sd = p.prior_sd, k.prior_space = fit_space_text(p), k.prior_basis = p.prior_basis;
+  k.fit_range = range_text(p), k.fit_unit = p.unit;
   return k;
 }
 CaseKey& alt(CaseKey& k, std::string other) {
@@ -94,6 +100,8 @@ std::vector<CaseKey> build_table() {
   layer(b.other("record", T::section, "–", "an operating record"));
   b.other("variants", T::list, "–", "named variants to compare, each merged over the base");
   b.other("uncertainty", T::section, "–", "inputs for Monte Carlo");
+  b.other("lab", T::section, "–",
+          "the lab's precision, per-lab settings and alarm levels for `fit`, `forecast` and `predict` (docs/lab-results.md)");
   layer(b.other("scrubbing", T::section, "–", "gas cleaning before the engine: a train of stages"));
   layer(b.other("economics", T::section, "–", "prices: what oil, scrubbing and downtime cost"));
   b.other("site", T::section, "–",
@@ -293,6 +301,47 @@ std::vector<CaseKey> build_table() {
           "limits switched off: `tbn-fall`, `tan-rise`, `crossover`, `san`, `oxidation`, `nitration`, `viscosity`, "
           "`antioxidant`, `anti-wear`, `max-hours`",
           "LimitSettings::enabled");
+
+  // ---- lab (docs/lab-results.md "Lab settings in the case"); precedence: a row's *-sd > the call's
+  // (--precision, Python precision=) > the lab's entry here > `precision` here > the built-in defaults
+  b.section = "lab";
+  b.other("precision", T::section, "the built-in defaults", "the default precision of every lab's readings (below)",
+          "LabSettings::precision");
+  b.other("labs", T::map, "–",
+          "per laboratory, by its name as the lab file's `lab` column writes it: its `precision` and FTIR baselines (below)",
+          "LabSettings::labs");
+  b.other("alarm-levels", T::map, "common practice",
+          "per quantity (a lab column: `fe`, `si`, `water`, `viscosity-100`, `antioxidant-remaining`, `i-ph`, `tan`, `tbn` …): "
+          "its `caution` and `critical` level for the trend (below)",
+          "LabSettings::alarm_levels");
+
+  // one standard deviation per reading; defaults: Precision{} (studies/calibration.hpp, docs/references.md [LabPrecision])
+  b.section = "precision";
+  open_low(b.q("tbn-d2896", K::acid_number, 0, 10, "mg KOH/g", "0.15 mg KOH/g", "TBN by ASTM D2896, one standard deviation",
+               "Precision::tbn_d2896"));
+  open_low(b.q("tbn-d4739", K::acid_number, 0, 10, "mg KOH/g", "0.2 mg KOH/g", "TBN by ASTM D4739, one standard deviation",
+               "Precision::tbn_d4739"));
+  open_low(b.q("tan", K::acid_number, 0, 10, "mg KOH/g", "0.15 mg KOH/g", "TAN (D664), one standard deviation", "Precision::tan"));
+  open_low(b.q("san", K::acid_number, 0, 10, "mg KOH/g", "0.1 mg KOH/g", "SAN (D664), one standard deviation", "Precision::san"));
+  open_low(b.q("oxidation", K::oxidation, 0, 100, "A/cm", "1 A/cm", "FTIR oxidation, one standard deviation", "Precision::oxidation"));
+  open_low(b.q("nitration", K::oxidation, 0, 100, "A/cm", "1 A/cm", "FTIR nitration, one standard deviation", "Precision::nitration"));
+
+  b.section = "lab-entry";
+  b.other("precision", T::section, "`lab.precision`", "this lab's precision, reading by reading (keys as `lab.precision`)",
+          "LabOverride::precision");
+  b.q("oxidation-baseline", K::oxidation, 0, 1000, "A/cm", "fitted (docs/lab-results.md)",
+      "this lab's FTIR oxidation reading of the fresh oil, for its rows without an `oxidation-baseline` cell",
+      "LabOverride::oxidation_baseline");
+  b.q("nitration-baseline", K::oxidation, 0, 1000, "A/cm", "fitted (docs/lab-results.md)",
+      "this lab's FTIR nitration reading of the fresh oil, for its rows without a `nitration-baseline` cell",
+      "LabOverride::nitration_baseline");
+
+  b.section = "alarm-level";
+  b.other("caution", T::special, "required",
+          "the caution level in the quantity's unit (ppm for elements, % for water, soot, the viscosity change and the "
+          "antioxidant remaining, mg KOH/g for TAN and TBN, bare for i-pH)", "AlarmLevel::caution");
+  b.other("critical", T::special, "required", "the critical level, in the same unit; for TBN, antioxidant and i-pH at or below "
+          "the caution level (they alarm falling), else at or above it", "AlarmLevel::critical");
 
   // ---- run
   b.section = "run";

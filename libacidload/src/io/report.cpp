@@ -343,11 +343,13 @@ ReportData gather_report(const CaseFile& c, const std::vector<VariantSummary>& r
     LabPart lab;
     lab.file = o.lab_file;
     lab.samples = read_lab_samples(o.lab_file);
+    apply_lab_baselines(lab.samples, c.lab);  // the case's lab section, as fit reads it
     lab.parameters = o.parameters;
     file("lab", o.lab_file);
     try {
       FitSettings fs;
       fs.parameters = o.parameters;
+      resolve_precision(fs, c.lab);
       lab.fit = calibrate(c.variants.front(), lab.samples, fs);
       for (const std::string& f : lab.fit->flags) d.warnings.push_back("lab fit: " + f);
       if (!lab.fit->converged) d.warnings.push_back("lab fit: did not converge; use the fitted curve with care.");

@@ -136,6 +136,7 @@ SiteFile load(Reader& r, const std::shared_ptr<Document>& main) {
   if (const Node* n = root0.find("variants"))
     r.fail(*n, describe(*n), "no 'variants' in a site file (one site a file: compare sites as separate files)");
   if (const Node* n = root0.find("uncertainty")) r.fail(*n, describe(*n), "no 'uncertainty' in a site file (not read for sites)");
+  if (const Node* n = root0.find("lab")) r.fail(*n, describe(*n), "no 'lab' in a site file (fit, forecast and predict read a case file)");
   if (const Node* n = root0.find("base-name"))
     r.fail(*n, describe(*n), "no 'base-name' in a site file (the engines are named in site.engines)");
   r.require_section(*sn, "site");

@@ -143,8 +143,8 @@ std::array<double, state_size> reading_row(const std::string& r) {
 }
 
 // The state at the sample as the model has it (case c), then moved by the held gain matrix K:
-// v⁺ = v + K·(y − H·v) (docs/model.md §13.1); the oil's own components kept ≥ 0, the weak base (a parameter of the
-// oil, not of the state) not carried.
+// v⁺ = v + K·(y − H·v) (docs/model.md §13.1); the oil's own components kept ≥ 0 (the reactive base at or above
+// its floor), the weak base (a parameter of the oil, not of the state) not carried.
 OilState updated_state(const EngineCase& c, const std::vector<Segment>& before, const std::vector<Reading>& readings,
                        const Eigen::MatrixXd& K, BaseNumberMethod method, std::vector<StateUpdate>* log,
                        std::vector<double>* posterior) {
@@ -159,7 +159,8 @@ OilState updated_state(const EngineCase& c, const std::vector<Segment>& before, 
   if (posterior) posterior->assign(w.data(), w.data() + state_size);
   const double beta = c.charge.oil.salt_titration_share;
   const OilState prior = x;
-  x.base = std::max(0.0, w[0]);
+  // the reactive base is held at or above its floor, as the oil balance holds it (below it strong acid stays free)
+  x.base = std::max({0.0, c.charge.oil.base_floor, w[0]});
   x.additive_acidity = std::max(0.0, w[2]);
   x.weak_acid = std::max(0.0, w[3]);
   x.strong_acid = std::max(0.0, w[4]);
@@ -307,9 +308,11 @@ double charge_interval(const ChargeSummary& ch, const EngineCase& c) {
 void already_by_sample(const FitResult& fit, const LabSample& s, const LabLimits& lab, std::vector<LimitForecast>& out) {
   const LimitSettings& L = fit.fitted.model.limits;
   const OilProperties& oil = fit.fitted.charge.oil;
+  // the sample's own reading is the plainer evidence: it replaces "the model … passes it" where both hold
   const auto mark = [&](Limit l, const std::string& why) {
     for (LimitForecast& f : out)
-      if (f.key == name(l) && !f.already) f.already = true, f.reached = true, f.remaining = f.low = f.high = 0, f.why = why;
+      if (f.key == name(l) && (!f.already || f.why.rfind("the model", 0) == 0))
+        f.already = true, f.reached = true, f.remaining = f.low = f.high = 0, f.why = why;
   };
   const auto on = [&](Limit l) { return L.enabled[static_cast<std::size_t>(l)]; };
   std::optional<double> tbn_l;  // the sample's TBN by the limit's method
@@ -394,6 +397,36 @@ Forecast forecast_current(const FitResult& fit, const LabLimits& lab) {
     const auto ta = remaining(with_phi(fit, up), nullptr, nullptr), tb = remaining(with_phi(fit, down), nullptr, nullptr);
     for (std::size_t k = 0; k < limit_count; ++k) grad[j][k] = (ta[k] - tb[k]) / (2 * h);
   }
+  // parameters not fitted that drive a limit (prior_band_drivers): each moved to φ0 ± 1.645σ of its
+  // weak prior, the hours left there (a limit not reached counts at the horizon) give that side's
+  // reach; sides combine with the fit's half-width in quadrature (docs/model.md §13.1)
+  const double horizon = t0[static_cast<std::size_t>(Limit::max_hours)];
+  std::array<double, limit_count> prior_down{}, prior_up{};
+  std::array<std::vector<std::string>, limit_count> prior_from;
+  for (const std::string& key : prior_band_parameters()) {
+    bool fitted = false;
+    for (const FittedParameter& fp : fit.parameters) fitted |= fp.key == key;
+    const std::vector<Limit> drives = prior_band_drivers(key);
+    if (fitted || drives.empty()) continue;
+    const ParameterInfo& info = parameter(key);
+    const double phi0 = to_fit_space(info, inside_range(info, get_parameter(c, key)));
+    const auto at = [&](double phi_k) {
+      EngineCase x = c;
+      set_parameter(x, key, from_fit_space(info, phi_k));
+      return remaining(x, nullptr, nullptr);
+    };
+    const double z = 1.6448536269514722 * info.prior_sd;  // 90 %: z(0.95) σ
+    const auto ta = at(phi0 + z), tb = at(phi0 - z);
+    for (const Limit l : drives) {
+      const auto k = static_cast<std::size_t>(l);
+      if (!std::isfinite(t0[k])) continue;
+      const double a = std::isfinite(ta[k]) ? ta[k] : horizon, b = std::isfinite(tb[k]) ? tb[k] : horizon;
+      const double down = std::max(0.0, t0[k] - std::min(a, b)), up = std::max(0.0, std::max(a, b) - t0[k]);
+      if (down + up <= 0) continue;
+      prior_down[k] += down * down, prior_up[k] += up * up;
+      prior_from[k].push_back(key);
+    }
+  }
   for (std::size_t k = 0; k < limit_count; ++k) {
     if (!c.model.limits.enabled[k]) continue;
     LimitForecast f;
@@ -411,8 +444,10 @@ Forecast forecast_current(const FitResult& fit, const LabLimits& lab) {
         for (std::size_t j = 0; j < p; ++j)
           if (std::isfinite(grad[i][k]) && std::isfinite(grad[j][k])) var += grad[i][k] * fit.covariance[i][j] * grad[j][k];
       const double half = 1.6448536269514722 * std::sqrt(std::max(0.0, var));  // 90 %: z(0.95)
-      f.low = std::max(0.0, t0[k] - half);
-      f.high = t0[k] + half;
+      f.prior_from = prior_from[k];
+      f.prior_driven = prior_down[k] + prior_up[k] > 2 * half * half;  // the priors' share of the band is the larger
+      f.low = std::max(0.0, t0[k] - std::sqrt(half * half + prior_down[k]));
+      f.high = t0[k] + std::sqrt(half * half + prior_up[k]);
     } else {
       f.low = f.high = inf;
     }
@@ -435,6 +470,24 @@ Forecast forecast_current(const FitResult& fit, const LabLimits& lab) {
 }
 
 std::vector<LimitForecast> forecast(const FitResult& fit) { return forecast_current(fit).limits; }
+
+std::vector<Limit> prior_band_drivers(const std::string& key) {
+  // the limits each of them drives beyond what the readings fix: the antioxidant reserve by its induction
+  // time; oxidation, once the reserve is spent, by the depleted factor and the induction time; viscosity
+  // by its rises per oxidation and nitration and by the oxidation after depletion; anti-wear by its loss
+  if (key == "model.induction-time") return {Limit::antioxidant, Limit::oxidation, Limit::viscosity};
+  if (key == "model.depleted-oxidation-factor") return {Limit::oxidation, Limit::viscosity};
+  if (key == "model.viscosity-per-oxidation" || key == "model.viscosity-per-nitration") return {Limit::viscosity};
+  if (key == "model.additive-depletion") return {Limit::anti_wear};
+  return {};
+}
+
+const std::vector<std::string>& prior_band_parameters() {
+  static const std::vector<std::string> k = {"model.induction-time", "model.depleted-oxidation-factor",
+                                             "model.viscosity-per-oxidation", "model.viscosity-per-nitration",
+                                             "model.additive-depletion"};
+  return k;
+}
 
 // ---- predict --------------------------------------------------------------------------------
 

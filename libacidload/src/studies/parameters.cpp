@@ -9,36 +9,44 @@
 namespace acidload {
 
 const std::vector<ParameterInfo>& parameter_table() {
-  // Ranges are those the core's validation accepts (core/transfer.cpp, core/oil.cpp).
+  // Ranges are those the core's validation accepts (core/transfer.cpp, core/oil.cpp). The priors are
+  // ours (chosen), weak on purpose: σ = 2 in logit space is about a factor of 7 near the low end of a
+  // range (e^2 = 7.4), σ = ln 10 in log space a factor of 10 either way; both centred on the case's
+  // value (the model default unless the case sets one). The basis names what the width rests on.
   constexpr double ln10 = 2.302585092994046, logit_sd = 2.0;
+  const std::string logit = "chosen: weak, logit σ 2 (about a factor of 7 either way while the value is small against the top of its range)";
+  const std::string share = "chosen: weak, logit σ 2 (a share from about 1/7 to 7 times the default's odds)";
+  const std::string log10 = "chosen: weak, a factor of 10 either way (log σ ln 10)";
+  const std::string stated = "; the case states it, the prior only keeps a direction the samples do not see defined";
   static const std::vector<ParameterInfo> t = {
-      {"model.so3-share", "-", Bound::share, 0, 1, logit_sd},
-      {"model.liner-uptake", "-", Bound::interval, 0, 0.1, logit_sd},
-      {"model.liner-wall-rise", "K", Bound::interval, 0, 200, logit_sd},
-      {"model.capture-so2", "-", Bound::share, 0, 1, logit_sd},
-      {"model.capture-no2", "-", Bound::share, 0, 1, logit_sd},
-      {"model.burnt-share-of-blow-by", "-", Bound::share, 0, 1, logit_sd},
-      {"model.wet-so2-factor", "-", Bound::interval, 1, 100, logit_sd},
-      {"model.oxidation-rate", "A/cm per h", Bound::interval, 0, 10, logit_sd},
-      {"model.ring-zone-offset", "K", Bound::interval, 0, 150, logit_sd},
-      {"model.organic-acid-yield", "mg KOH/g per A/cm", Bound::interval, 0, 5, logit_sd},
-      {"model.nitration-yield", "A/cm per mol/kg", Bound::interval, 0, 1e6, logit_sd},
-      {"model.induction-time", "h", Bound::positive, 0, 0, ln10},
-      {"model.depleted-oxidation-factor", "-", Bound::positive, 0, 0, ln10},
-      {"model.viscosity-per-oxidation", "per A/cm", Bound::positive, 0, 0, ln10},
-      {"model.viscosity-per-nitration", "per A/cm", Bound::positive, 0, 0, ln10},
-      {"model.weak-base-d2896", "mg KOH/g", Bound::interval, 0, 10, logit_sd},
-      {"model.weak-base-d4739", "mg KOH/g", Bound::interval, 0, 10, logit_sd},
-      {"model.base-floor", "mg KOH/g", Bound::interval, 0, 40, logit_sd},
-      {"model.additive-depletion", "1/h", Bound::interval, 0, 1, logit_sd},
-      {"model.salt-titration-share", "-", Bound::share, 0, 1, logit_sd},
-      {"model.organic-neutralised-share", "-", Bound::share, 0, 1, logit_sd},
-      {"engine.blow-by", "-", Bound::share, 0, 1, logit_sd},
-      {"engine.jacket-water-out", "K", Bound::interval, 273.15, 423.15, logit_sd},
-      {"fuel.h2s", "ppmv dry", Bound::positive, 0, 0, ln10},
-      {"oil.fresh-tbn", "mg KOH/g", Bound::interval, 0.5, 80, logit_sd},
-      {"oil.volume", "m3", Bound::positive, 0, 0, ln10},
-      {"oil.consumption", "kg/h", Bound::positive, 0, 0, ln10},
+      {"model.so3-share", "-", Bound::share, 0, 1, logit_sd, share},
+      {"model.liner-uptake", "-", Bound::interval, 0, 0.1, logit_sd, logit + "; the acid load the lab's TBN fall measures"},
+      {"model.liner-wall-rise", "K", Bound::interval, 0, 200, logit_sd, logit},
+      {"model.capture-so2", "-", Bound::share, 0, 1, logit_sd, share},
+      {"model.capture-no2", "-", Bound::share, 0, 1, logit_sd, share},
+      {"model.burnt-share-of-blow-by", "-", Bound::share, 0, 1, logit_sd, share},
+      {"model.wet-so2-factor", "-", Bound::interval, 1, 100, logit_sd, logit},
+      {"model.oxidation-rate", "A/cm per h", Bound::interval, 0, 10, logit_sd, logit + "; the lab's FTIR oxidation measures it"},
+      {"model.ring-zone-offset", "K", Bound::interval, 0, 150, logit_sd, logit},
+      {"model.organic-acid-yield", "mg KOH/g per A/cm", Bound::interval, 0, 5, logit_sd, logit + "; TAN against oxidation measures it"},
+      {"model.nitration-yield", "A/cm per mol/kg", Bound::interval, 0, 1e6, logit_sd, logit + "; the lab's FTIR nitration measures it"},
+      {"model.induction-time", "h", Bound::interval, 1, 1e6, logit_sd,
+       logit + "; antioxidant readings would measure it; not fitted, it is the forecast band's prior spread"},
+      {"model.depleted-oxidation-factor", "-", Bound::interval, 1, 100, logit_sd, logit + "; not fitted, a forecast band's prior spread"},
+      {"model.viscosity-per-oxidation", "per A/cm", Bound::interval, 0, 1, logit_sd, logit + "; not fitted, a forecast band's prior spread"},
+      {"model.viscosity-per-nitration", "per A/cm", Bound::interval, 0, 1, logit_sd, logit + "; not fitted, a forecast band's prior spread"},
+      {"model.weak-base-d2896", "mg KOH/g", Bound::interval, 0, 10, logit_sd, logit + "; a fresh oil titrated by both methods pins it"},
+      {"model.weak-base-d4739", "mg KOH/g", Bound::interval, 0, 10, logit_sd, logit + "; a fresh oil titrated by both methods pins it"},
+      {"model.base-floor", "mg KOH/g", Bound::interval, 0, 40, logit_sd, logit},
+      {"model.additive-depletion", "1/h", Bound::interval, 0, 1, logit_sd, logit + "; not fitted, a forecast band's prior spread"},
+      {"model.salt-titration-share", "-", Bound::share, 0, 1, logit_sd, share},
+      {"model.organic-neutralised-share", "-", Bound::share, 0, 1, logit_sd, share},
+      {"engine.blow-by", "-", Bound::interval, 0, 0.1, logit_sd, logit + stated},
+      {"engine.jacket-water-out", "K", Bound::interval, 273.15, 423.15, logit_sd, logit + stated},
+      {"fuel.h2s", "ppmv dry", Bound::positive, 0, 0, ln10, log10 + stated},
+      {"oil.fresh-tbn", "mg KOH/g", Bound::interval, 0.5, 80, logit_sd, logit + stated},
+      {"oil.volume", "m3", Bound::interval, 1e-3, 100, logit_sd, logit + stated},
+      {"oil.consumption", "kg/h", Bound::positive, 0, 0, ln10, log10 + stated},
   };
   return t;
 }
@@ -165,6 +173,15 @@ double inside_range(const ParameterInfo& p, double x) {
     case Bound::free: return x;
   }
   return x;
+}
+std::string fit_space_text(const ParameterInfo& p) {
+  switch (p.bound) {
+    case Bound::positive: return "log";
+    case Bound::share: return "logit";
+    case Bound::interval: return "logit of the range";
+    case Bound::free: return "linear";
+  }
+  return "";
 }
 std::string range_text(const ParameterInfo& p) {
   switch (p.bound) {

@@ -10,6 +10,7 @@
 
 #include "acidload/studies/calibration.hpp"
 #include "acidload/studies/economics.hpp"
+#include "acidload/studies/lab_settings.hpp"
 #include "acidload/studies/monte_carlo.hpp"
 #include "acidload/studies/whatif.hpp"
 #include "acidload/io/keys.hpp"
@@ -44,6 +45,7 @@ struct CaseFile {
   std::vector<std::string> overlays;   //!< overlay files applied, in order
   int format_version = case_format_version;  //!< as written in the file
   UncertaintySettings uncertainty;           //!< the `uncertainty` section, if any
+  LabSettings lab;                           //!< the `lab` section: precision, per-lab settings, alarm levels
   //! One per variant, in order, when the case has an `economics` section (else empty): the variant's
   //! raw-gas engine case, its scrubbing train and the prices. (`variants` hold the gas behind the train.)
   std::vector<CostCase> costs;

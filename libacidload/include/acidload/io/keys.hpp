@@ -36,6 +36,11 @@ struct CaseKey {
   std::string default_text;  //!< as docs show it; "required" or "–" where there is none
   std::string doc;           //!< one line: what it is
   bool calibratable = false; //!< fit and uncertainty may vary it (studies/parameters.hpp)
+  //! Calibratable keys: the fit's weak prior, one standard deviation in fit space (prior_space: "log",
+  //! "logit", "logit of the range") around the case's value, and its basis; the fit's range in the
+  //! parameter's core unit (fit_range). From the parameter's row (studies/parameters.cpp).
+  double prior_sd = 0;
+  std::string prior_space, prior_basis, fit_range, fit_unit;
   std::string field;         //!< the field it sets, e.g. "Operation::blowby_share"
   std::string alternative;   //!< the other key of an either-or pair: a variant or overlay setting this one drops that one
   std::vector<std::string> words;  //!< for words

@@ -28,9 +28,23 @@ struct LimitForecast {
   bool reached = false;          //!< reached within the planned maximum (the horizon)
   bool already = false;          //!< the latest sample (or the record) has passed it: change the oil now
   double remaining = 0;          //!< hours from the end of the record [h]; +∞ if not reached
-  double low = 0, high = 0;      //!< 90 % band [h] (linearised from the covariance)
+  double low = 0, high = 0;      //!< 90 % band [h] (linearised from the covariance and the priors below)
   std::string why;               //!< for an `already` limit: the reading against the limit, in words
+  //! The parameters not fitted that move this limit (prior_band_parameters()), each carrying its
+  //! prior's spread into the band; prior_driven when they make up most of its variance (the band
+  //! then says what the priors allow, not what the lab measured).
+  std::vector<std::string> prior_from;
+  bool prior_driven = false;
 };
+
+//! The model's oil-ageing parameters no modelled reading of a lab report pins (the antioxidant's
+//! induction time, the oxidation after it, the viscosity rises, the anti-wear additive's loss): not
+//! fitted, each carries its weak prior (ParameterInfo::prior_sd, ±1.645 σ in fit space) into the
+//! forecast's band of the limits it drives (prior_band_drivers), so that no limit gets a zero-width band.
+const std::vector<std::string>& prior_band_parameters();
+//! The limits a parameter of prior_band_parameters() drives (antioxidant, oxidation and viscosity by
+//! the induction time; oxidation and viscosity by the depleted factor; viscosity by its rises; anti-wear).
+std::vector<Limit> prior_band_drivers(const std::string& key);
 
 //! The lab-first update at the latest sample, per reading.
 struct StateUpdate {

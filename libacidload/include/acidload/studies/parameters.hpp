@@ -23,9 +23,11 @@ struct ParameterInfo {
   Bound bound;
   double low = 0, high = 0;  //!< the range the model accepts (Bound::interval), core unit
   //! Weak prior of a fit: one standard deviation in fit space around the case's value
-  //! (ln 10 for a log-fitted parameter: a factor of 10 either way; 2 in logit). Ours, documented
-  //! in docs/lab-results.md; it keeps flat or confounded directions defined, not the estimate.
+  //! (ln 10 for a log-fitted parameter: a factor of 10 either way; 2 in logit). Ours; the key
+  //! registry (io/keys.hpp) carries it with the key, and docs/case-format.md and the lab-results
+  //! table are written from there. It keeps flat or confounded directions defined, not the estimate.
   double prior_sd = 2.302585092994046;
+  std::string prior_basis;  //!< where σ comes from, in plain words ("chosen: …")
 };
 
 //! Every parameter that can be fitted or varied.
@@ -47,5 +49,7 @@ double dx_dphi(const ParameterInfo& p, double phi);
 double inside_range(const ParameterInfo& p, double x);
 //! The range in words, e.g. "from 1 to 100" or "above 0".
 std::string range_text(const ParameterInfo& p);
+//! The fit space in words: "log", "logit" or "logit of the range" (or "linear").
+std::string fit_space_text(const ParameterInfo& p);
 
 }  // namespace acidload
