@@ -497,7 +497,12 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
     } else {
       for (std::size_t i = 0; i < rows.size(); ++i) take(i, rows[i]);
     }
-    if (streamed) c.streamed = std::make_shared<CsvRecordStream>(r, csv, before, base, hours, first);
+    if (streamed) {
+      c.streamed = std::make_shared<CsvRecordStream>(r, csv, before, base, hours, first);
+      // a trajectory point at every segment end would grow with the record past the cap on points:
+      // beyond it, points at the output interval, at events and at the end only
+      if (static_cast<double>(csv.rows) > max_trajectory_points) c.options.keep_segment_ends = false;
+    }
   }
   check_work(r, root, c, hours, over, over_hours, listed ? &row_at : nullptr);
   if (bad_operation) {
