@@ -502,6 +502,11 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
       // a trajectory point at every segment end would grow with the record past the cap on points:
       // beyond it, points at the output interval, at events and at the end only
       if (static_cast<double>(csv.rows) > max_trajectory_points) c.options.keep_segment_ends = false;
+      // and room for them made once (within the cap on points, checked below): a growing vector
+      // would hold its old and new copies at once
+      const double points = (c.options.keep_segment_ends ? static_cast<double>(csv.rows) : 0) +
+                            hours / c.options.output_interval + 16;
+      c.options.reserve_points = static_cast<std::size_t>(std::fmin(points, 2 * max_trajectory_points + 16));
     }
   }
   check_work(r, root, c, hours, over, over_hours, listed ? &row_at : nullptr);
