@@ -210,6 +210,9 @@ class CsvRecordStream final : public RecordStream {
       : reader_(r), file_(rec.file), facts_(rec.facts), cols_(rec.cols), source_(rec.source), rows_(rec.rows),
         context_(context), base_(base), hours_(hours), first_(first) {
     reader_.seen.clear();
+    std::error_code ec;  // opened by its absolute path: a later change of working folder does not matter
+    const std::filesystem::path abs = std::filesystem::absolute(file_, ec);
+    open_path_ = ec ? file_ : abs.string();
   }
   std::size_t segments() const override { return rows_; }
   double hours() const override { return hours_; }
@@ -223,7 +226,7 @@ class CsvRecordStream final : public RecordStream {
     };
     detail::CsvFileFacts now;
     try {
-      now = detail::scan_csv_file(file_, max_record_file_bytes);
+      now = detail::scan_csv_file(open_path_, max_record_file_bytes);
     } catch (const InputError& e) {
       throw changed("it can no longer be read: " + e.expected());
     }
@@ -255,7 +258,7 @@ class CsvRecordStream final : public RecordStream {
       p->prev = p->cur;
       ++p->i;
     };
-    st->rows = std::make_unique<detail::CsvFileReader>(file_, facts_, st->header, sink);
+    st->rows = std::make_unique<detail::CsvFileReader>(open_path_, facts_, st->header, sink);
     // the stream holds all it reads with (the reading outlives nothing it points into)
     return [st, changed]() -> const Segment* {
       try {
@@ -269,7 +272,7 @@ class CsvRecordStream final : public RecordStream {
 
  private:
   Reader reader_;
-  std::string file_;
+  std::string file_, open_path_;  // as named in messages; as opened
   detail::CsvFileFacts facts_;
   NamedColumns cols_;
   int source_ = 0;
