@@ -666,6 +666,7 @@ CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::
              "at most " + std::to_string(max_variants) + " variants (a cap on work; docs/case-format.md)");
     std::set<std::string> names{base_name};
     std::size_t segments = out.variants.front().record.size();
+    std::size_t streamed_rows = out.variants.front().streamed ? record_segments(out.variants.front()) : 0;
     out.variants.reserve(vs->items.size() + 1);
     for (const Node& v : vs->items) {
       r.require_section(v, "variant");
@@ -689,6 +690,11 @@ CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::
       if (segments > max_segments_in_all)
         r.fail(*n, name, "variants whose records hold at most " + std::to_string(max_segments_in_all) +
                              " segments in all (a cap on memory; docs/case-format.md)");
+      // each variant reads its streamed record when loading and again for each run
+      if (out.variants.back().streamed) streamed_rows += record_segments(out.variants.back());
+      if (streamed_rows > max_streamed_record_rows)
+        r.fail(*n, name, "variants whose streamed records have at most " + std::to_string(max_streamed_record_rows) +
+                             " rows in all (a cap on work; docs/case-format.md)");
     }
   }
   return out;

@@ -29,6 +29,7 @@ inline constexpr std::size_t max_record_rows = 1000000;     //!< segments of one
 //! Segments of one record streamed from its CSV file (RecordReading::stream): none are held, so
 //! only time bounds it (each row is read once when loading and once per run: about a minute each
 //! at the rates in DEVELOPERS.md), besides the running-hours cap below.
+//! The same bounds the rows of streamed records over all variants of a case (each reads its own).
 inline constexpr std::size_t max_streamed_record_rows = 100000000;
 //! Bytes of a record CSV file (2 GiB − 1: every line number fits a 32-bit count).
 inline constexpr std::size_t max_record_file_bytes = (std::size_t{1} << 31) - 1;
