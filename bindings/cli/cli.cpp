@@ -223,7 +223,7 @@ double h2s_ppmv_dry_option(const std::string& text, const acidload::EngineCase& 
   } catch (const InputError& e) {
     throw UsageError(std::string(option) + " '" + text + "' for h2s: " + e.expected());
   }
-  const Segment& s = c.record.front();
+  const Segment& s = first_segment(c);
   const GasContext ctx = context(s.fuel, s.operation.fuel_flow);
   const double m = molar_mass(Gas::H2S);
   return from_wet_mole_fraction(to_wet_mole_fraction(given, m, ctx), ConcentrationUnit::ppmv, Basis::dry, m, ctx);

@@ -68,7 +68,7 @@ void print_check(std::FILE* out, const io::CaseFile& c) {
   if (!c.title.empty()) std::fprintf(out, "case: %s\n", c.title.c_str());
   for (const std::string& o : c.overlays) std::fprintf(out, "overlay: %s\n", o.c_str());
   for (const EngineCase& v : c.variants) {
-    const Segment& s = v.record.front();
+    const Segment& s = first_segment(v);
     const FuelGas& g = s.fuel;
     const GasContext ctx = context(g);
     std::fprintf(out, "\n[%s]\n", v.name.c_str());
@@ -102,9 +102,7 @@ void print_check(std::FILE* out, const io::CaseFile& c) {
                       emissions(after_oxidation_catalyst(t.exhaust, v.catalyst_so3_conversion), s.operation.nox.o2_reference,
                                 s.operation.nox.o2_air));
     print_warnings(out, v.name, input_warnings(s.fuel, s.operation, v.fuel_gas_limits));
-    double hours = 0;
-    for (const Segment& x : v.record) hours += x.hours;
-    std::fprintf(out, "  record: %zu segment(s), %.1f h\n", v.record.size(), hours);
+    std::fprintf(out, "  record: %zu segment(s), %.1f h\n", record_segments(v), record_hours(v));
   }
 }
 

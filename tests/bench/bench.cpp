@@ -243,7 +243,8 @@ int main(int argc, char** argv) {
   // with its own sides: prints the CPU seconds of this thread for the C++ call, and its peak memory
   if (argc == 3 && std::strcmp(argv[1], "--load-record") == 0) {
     const double a = thread_cpu();
-    const std::size_t segments = io::load_case(argv[2]).variants.front().record.size();
+    // as `acidload check` and Python read it: every row checked, the record kept as its description
+    const std::size_t segments = record_segments(io::load_case(argv[2], {}, io::RecordReading::stream).variants.front());
     const double t = thread_cpu() - a;
     rusage u{};
     getrusage(RUSAGE_SELF, &u);

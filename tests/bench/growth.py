@@ -5,7 +5,7 @@ peak resident memory from GNU time). Sizes: record length 1e2–1e7 rows (`acidl
 (`acidload uncertainty` of the demo history), lab samples 10–1e4 (`acidload fit` of three parameters),
 fleet size 1–1000 (that many case files in one `acidload run`, a fleet; and that many variants of one case),
 variants read by `acidload check` 1e2–1e4 (reading is linear in their number).
-Usage: growth.py ACIDLOAD_PROGRAM [--quick]"""
+Usage: growth.py ACIDLOAD_PROGRAM [--quick] [--records] (--records: the record table only)"""
 import os
 import shutil
 import pathlib
@@ -76,11 +76,13 @@ def records(tmp):
         case_path = pathlib.Path(tmp) / f"rec-{n}.yaml"
         case_path.write_text(case_with_record(case, csv_path) + "run:\n  output-interval: 24 h\n")
         row("check", n, run_rss([program, "check", str(case_path)]), "row")
-        if n <= 1_000_000:
-            row("run", n, run_rss([program, "run", str(case_path)]), "row")
-        # Python loading the case (a fresh interpreter importing acidload: about 30 MB of the peak)
+        row("run", n, run_rss([program, "run", str(case_path)]), "row")
+        # Python loading the case, and loading and running it (a fresh interpreter importing acidload:
+        # about 30 MB of the peak)
         row("Python", n, run_rss([sys.executable, "-c", "import sys, acidload; acidload.load_case(sys.argv[1])",
                                   str(case_path)]), "row")
+        row("Python run", n, run_rss([sys.executable, "-c", "import sys, acidload; acidload.load_case(sys.argv[1]).run()",
+                                      str(case_path)]), "row")
         csv_path.unlink()
     print()
 
@@ -152,6 +154,7 @@ if __name__ == "__main__":
           f"(the machine may be shared: times are upper bounds)\n")
     with tempfile.TemporaryDirectory() as tmp:
         records(tmp)
-        draws()
-        lab_samples(tmp)
-        fleet(tmp)
+        if "--records" not in sys.argv:
+            draws()
+            lab_samples(tmp)
+            fleet(tmp)

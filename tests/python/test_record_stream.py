@@ -71,3 +71,20 @@ def test_every_row_becomes_a_segment(tmp_path):
     p = subprocess.run([str(acidload_program()), "check", str(case)], capture_output=True, text=True, timeout=120)
     assert p.returncode == 0, p.stderr
     assert acidload.load_case(str(case)).variants[0]._engine_case.segments == ROWS
+
+
+def test_a_streamed_record_runs_after_the_working_folder_changed(tmp_path, monkeypatch):
+    """The record is read again by each run: by the path it was found at when the case was loaded,
+    whatever the working folder is at the run (a case named by a relative path)."""
+    acidload = need_acidload()
+    case, _, _, _ = write_record(tmp_path, 0, 2, "85")
+    monkeypatch.chdir(tmp_path)
+    (tmp_path / "case.yaml").write_text(site_with_record("record.csv"))  # the record relative to the case
+    loaded = acidload.load_case("case.yaml")
+    before = loaded.run().summary["variants"][0]
+    elsewhere = tmp_path / "elsewhere"
+    elsewhere.mkdir()
+    monkeypatch.chdir(elsewhere)
+    after = loaded.run().summary["variants"][0]
+    assert after == before
+    assert loaded.variants[0]._engine_case.segments == ROWS  # read in for the studies, from the same file

@@ -251,3 +251,158 @@ TEST_CASE("an operation the model refuses is found after many rows of one accept
   }
   fs::remove(p);
 }
+
+// ---- a record streamed from its file (RecordReading::stream: `acidload check`, `run`, Python) ----
+
+namespace {
+// The segments a streamed record hands out, read through once.
+std::vector<Segment> read_through(const EngineCase& c) {
+  REQUIRE(c.streamed);
+  std::vector<Segment> out;
+  const SegmentSource next = c.streamed->open();
+  while (const Segment* s = next()) out.push_back(*s);
+  return out;
+}
+
+void load_streamed_expecting(const fs::path& csv, int line, int column, const std::string& key, const std::string& value) {
+  try {
+    io::load_case_text(site_with_record(csv.string()), "site.yaml", ".", {}, io::RecordReading::stream);
+    FAIL("accepted");
+  } catch (const InputError& e) {
+    CHECK(e.where().file == csv.string());
+    CHECK(e.where().line == line);
+    CHECK(e.where().column == column);
+    CHECK(e.key() == key);
+    CHECK(e.value() == value);
+  }
+}
+}  // namespace
+
+TEST_CASE("a streamed record hands out the very segments of the held record and of the same rows inline") {
+  // the inline YAML rows are the independent path (the YAML parser, no CSV reader)
+  const fs::path cases = fs::path(ACIDLOAD_SOURCE_DIR) / "cases";
+  const std::string text = slurp(cases / "drifting-gas.yaml");
+  std::string inlined;
+  std::istringstream in(text);
+  std::string line;
+  while (std::getline(in, line)) {
+    const auto at = line.find("file: ");
+    if (at != std::string::npos && line.find(".csv") != std::string::npos) {
+      inlined += inline_segments(cases / line.substr(at + 6, line.find(".csv") + 4 - at - 6), static_cast<int>(at));
+      continue;
+    }
+    inlined += line + "\n";
+  }
+  const std::string path = (cases / "drifting-gas.yaml").string();
+  const io::CaseFile streamed = io::load_case(path, {}, io::RecordReading::stream);
+  const io::CaseFile held = io::load_case(path);
+  const io::CaseFile inline_ = io::load_case_text(inlined, "inline.yaml", cases.string());
+  REQUIRE(streamed.variants.size() == held.variants.size());
+  for (std::size_t v = 0; v < streamed.variants.size(); ++v) {
+    CAPTURE(v);
+    const EngineCase& s = streamed.variants[v];
+    CHECK(s.record.empty());  // nothing held
+    const std::vector<Segment> a = read_through(s);
+    check_same_record(a, inline_.variants[v].record);
+    check_same_record(a, held.variants[v].record);
+    check_same_record(read_through(s), a);  // a second reading is the same
+    CHECK(record_segments(s) == held.variants[v].record.size());
+    CHECK(same_bits(record_hours(s), record_hours(held.variants[v])));
+    check_same_record({first_segment(s)}, {held.variants[v].record.front()});
+    // the run over the stream is the run over the held segments, point for point
+    const VariantSummary rs = summarize(s), rh = summarize(held.variants[v]);
+    REQUIRE(rs.run.trajectory.size() == rh.run.trajectory.size());
+    for (std::size_t i = 0; i < rs.run.trajectory.size(); ++i) {
+      CHECK(same_bits(rs.run.trajectory[i].engine_hours, rh.run.trajectory[i].engine_hours));
+      CHECK(same_bits(rs.run.trajectory[i].tbn_d2896, rh.run.trajectory[i].tbn_d2896));
+      CHECK(same_bits(rs.run.trajectory[i].san, rh.run.trajectory[i].san));
+    }
+    CHECK(same_bits(rs.charge.drain_interval, rh.charge.drain_interval));
+    // a study that indexes segments gets them read in
+    check_same_record(held_record(s, io::max_record_rows).record, held.variants[v].record);
+  }
+}
+
+TEST_CASE("a bad cell deep in a streamed record longer than the held cap is found at its line and column") {
+  const int rows = static_cast<int>(io::max_record_rows) + 200000, bad = static_cast<int>(io::max_record_rows) + 123456;
+  const fs::path csv = long_record("acidload-streamed-deep.csv", rows, bad, "1,300, 8o5");
+  load_streamed_expecting(csv, bad + 2, 8, "record[" + std::to_string(bad) + "].load", "8o5");
+  // the same file without the bad row: accepted when streamed; refused when its segments would be held
+  {
+    std::string text = slurp(csv);
+    text.replace(text.find("1,300, 8o5"), 10, "1,300, 805");  // a load of 805 %: over the range, same length
+    std::ofstream(csv, std::ios::binary) << text;
+  }
+  load_streamed_expecting(csv, bad + 2, 8, "record[" + std::to_string(bad) + "].load", "805 %");
+  {
+    std::string text = slurp(csv);
+    text.replace(text.find("1,300, 805"), 10, "1,300,  85");
+    std::ofstream(csv, std::ios::binary) << text;
+  }
+  const io::CaseFile c = io::load_case_text(site_with_record(csv.string()), "site.yaml", ".", {}, io::RecordReading::stream);
+  CHECK(record_segments(c.variants.front()) == static_cast<std::size_t>(rows));
+  CHECK(record_hours(c.variants.front()) == rows);  // every row 1 h: exact in binary
+  try {
+    io::load_case_text(site_with_record(csv.string()), "site.yaml", ".");
+    FAIL("a record over the held cap was held");
+  } catch (const InputError& e) {
+    CHECK(e.value() == std::to_string(rows) + " segments");
+    CHECK(e.expected().find("at most 1000000 segments when its segments are held") != std::string::npos);
+  }
+  try {
+    (void)held_record(c.variants.front(), io::max_record_rows);
+    FAIL("read in past the cap");
+  } catch (const InputError& e) {
+    CHECK(e.key() == "record");
+  }
+  fs::remove(csv);
+}
+
+TEST_CASE("a form mistake late in a streamed record comes before an earlier bad value, with its caret line") {
+  const int rows = 300000;
+  fs::path csv = long_record("acidload-streamed-form.csv", rows, rows - 5, "1,\"300,85");  // a quote left open
+  std::string text = slurp(csv);
+  text.replace(text.find("\n1,") + 1, 1, "x");  // and a bad value in the first row
+  std::ofstream(csv, std::ios::binary) << text;
+  try {
+    io::load_case_text(site_with_record(csv.string()), "site.yaml", ".", {}, io::RecordReading::stream);
+    FAIL("accepted");
+  } catch (const InputError& e) {
+    CHECK(e.where().line == rows - 5 + 2);
+    CHECK(e.where().column == 3);  // the opening quote
+    CHECK(e.where().line_text == "1,\"300,85");
+    CHECK(e.expected().find("closing quote") != std::string::npos);
+  }
+  fs::remove(csv);
+}
+
+TEST_CASE("a streamed record whose file changed since loading is refused, before anything runs") {
+  const fs::path csv = long_record("acidload-streamed-changed.csv", 5000, -1, "");
+  const io::CaseFile c = io::load_case_text(site_with_record(csv.string()), "site.yaml", ".", {}, io::RecordReading::stream);
+  const EngineCase& v = c.variants.front();
+  const io::CaseFile held = io::load_case_text(site_with_record(csv.string()), "site.yaml", ".");
+  CHECK(same_bits(summarize(v).run.engine_hours, summarize(held.variants.front()).run.engine_hours));  // unchanged: runs
+  const auto refused = [&](const std::string& how) {
+    try {
+      (void)summarize(v);
+      FAIL("a changed record was run");
+    } catch (const InputError& e) {
+      CHECK(e.key() == "record.file");
+      CHECK(e.where().file == csv.string());
+      CHECK(e.expected().find(how) != std::string::npos);
+    }
+  };
+  // one figure changed, the same size and the same modification time: only the digest tells
+  const auto when = fs::last_write_time(csv);
+  std::string text = slurp(csv);
+  const std::size_t at = text.rfind(",300,");
+  text[at + 1] = '4';
+  std::ofstream(csv, std::ios::binary) << text;
+  fs::last_write_time(csv, when);
+  refused("it has changed since");
+  // appended to
+  std::ofstream(csv, std::ios::app) << "1,300,85\n";
+  refused("it has changed since");
+  fs::remove(csv);
+  refused("can no longer be read");
+}

@@ -24,7 +24,7 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
     if (!o.overlays.empty()) throw UsageError("a site file takes no --overlay");
     return check_site_file(out, o.case_file);
   }
-  const acidload::io::CaseFile c = acidload::io::load_case(o.case_file, o.overlays);
+  const acidload::io::CaseFile c = acidload::io::load_case(o.case_file, o.overlays, acidload::io::RecordReading::stream);
   print_check(out, c);
   print_oil_cautions(out, c);
   std::fprintf(out, "\n%s: no mistakes found\n", o.case_file.c_str());

@@ -76,7 +76,7 @@ int run_fleet(std::FILE* out, const std::vector<std::string>& files, const RunOp
   // every case read first: a mistake is reported before anything runs
   std::vector<acidload::io::CaseFile> cases;
   cases.reserve(files.size());
-  for (const std::string& f : files) cases.push_back(acidload::io::load_case(f, o.overlays));
+  for (const std::string& f : files) cases.push_back(acidload::io::load_case(f, o.overlays, acidload::io::RecordReading::stream));
   std::vector<const acidload::EngineCase*> variants;
   for (const auto& c : cases)
     for (const auto& v : c.variants) variants.push_back(&v);
@@ -132,7 +132,8 @@ int run(const std::vector<std::string>& args, std::FILE* out) {
     return run_site_file(out, files.front(), o.out, false, threads);
   }
   if (files.size() == 1 && o.cases.size() == 1 && files.front() == o.cases.front())
-    return run_case(out, acidload::io::load_case(files.front(), o.overlays), o.out, o.summary_csv);
+    return run_case(out, acidload::io::load_case(files.front(), o.overlays, acidload::io::RecordReading::stream), o.out,
+                    o.summary_csv);
   if (!o.summary_csv.empty())
     throw UsageError("--summary-csv takes one CASE; a fleet's table is fleet-summary.csv in its --out folder");
   return run_fleet(out, files, o, threads);

@@ -56,11 +56,22 @@ class Case:
     run it with :func:`acidload.run` (or :meth:`run`).
     """
 
-    __slots__ = ("_file", "_recipe")
+    __slots__ = ("_file", "_recipe", "_held")
 
     def __init__(self, case_file: "_core.CaseFile", recipe: Optional[Tuple] = None) -> None:
         self._file = case_file
         self._recipe = recipe  # how to read the case again (pickling, Dask workers): see _rebuild
+        self._held = None  # the case with its records read into segments, made when first needed
+
+    def _held_file(self) -> "_core.CaseFile":
+        # A CSV record is loaded as its checked description and streamed by run(); the studies a
+        # Variant goes to (fit, Monte Carlo, sweeps ...) index segments, so its variants are read
+        # in once, on first use (at most 1 000 000 segments per record; longer ones stream only).
+        if not self._file.streamed:
+            return self._file
+        if self._held is None:
+            self._held = self._file.held()
+        return self._held
 
     def __reduce__(self):
         # a Case pickles as its recipe (the file's path or the YAML text), never as C++ state
@@ -96,13 +107,14 @@ class Case:
 
     @property
     def variants(self) -> List[Variant]:
-        """Every variant; ``[0]`` is the base case."""
-        return [Variant(v, self) for v in self._file.variants]
+        """Every variant; ``[0]`` is the base case. (A record read from a CSV file is read into
+        segments here, once: at most 1 000 000 per record; :func:`acidload.run` streams any length.)"""
+        return [Variant(v, self) for v in self._held_file().variants]
 
     @property
     def names(self) -> List[str]:
         """The variants' names, base first."""
-        return [v.name for v in self._file.variants]
+        return list(self._file.names)
 
     def variant(self, name: Optional[str] = None) -> Variant:
         """The variant called ``name`` (the base case when None). Raises KeyError naming the variants."""
@@ -121,7 +133,7 @@ class Case:
         return run(self)
 
     def __repr__(self) -> str:
-        return f"<acidload.Case {self.title or self.file!r}: {len(self._file.variants)} variant(s)>"
+        return f"<acidload.Case {self.title or self.file!r}: {len(self._file.names)} variant(s)>"
 
 
 # ---- loading ------------------------------------------------------------------------------------
@@ -133,7 +145,7 @@ def load_case(path: PathLike, overlays: Sequence[PathLike] = ()) -> Case:
     ``.value`` and ``.expected`` — the same message the ``acidload`` program prints.
     """
     recipe = ("file", os.fspath(path), tuple(os.fspath(o) for o in overlays))
-    return Case(_core.load_case(recipe[1], list(recipe[2])), recipe)
+    return Case(_core.load_case(recipe[1], list(recipe[2]), stream=True), recipe)
 
 
 def load_case_text(text: str, *, file_name: str = "<text>", base_dir: PathLike = ".",
@@ -141,7 +153,7 @@ def load_case_text(text: str, *, file_name: str = "<text>", base_dir: PathLike =
     """Reads a case from YAML text. ``file_name`` names it in error messages; relative file names in it
     (a record CSV) resolve against ``base_dir``. Errors as for :func:`load_case`."""
     recipe = ("text", text, file_name, os.fspath(base_dir), tuple(os.fspath(o) for o in overlays))
-    return Case(_core.load_case_text(text, file_name, recipe[3], list(recipe[4])), recipe)
+    return Case(_core.load_case_text(text, file_name, recipe[3], list(recipe[4]), stream=True), recipe)
 
 
 def _from_dict_error(e: InputError, keywords: Optional[Dict[str, str]] = None) -> InputError:
@@ -189,7 +201,7 @@ def _load_with_text_overlay(base: str, overlays: Tuple[str, ...], text: str) -> 
         overlay = os.path.join(tmp, DICT_SOURCE)
         with open(overlay, "w", encoding="utf-8") as f:
             f.write(text)
-        return Case(_core.load_case(base, list(overlays) + [overlay]), ("file+text", base, overlays, text))
+        return Case(_core.load_case(base, list(overlays) + [overlay], stream=True), ("file+text", base, overlays, text))
 
 
 def _recipe_of(c: Case) -> Tuple:

@@ -171,6 +171,7 @@ oil: _OilModule
 class EngineCase:
     name: str
     segments: int
+    streamed: bool  # the record is read from its file for each run instead of held
     max_hours: float  # [h]
     def lever_value(self, lever: str) -> float: ...
     def with_lever(self, lever: str, value: float) -> "EngineCase": ...
@@ -185,9 +186,12 @@ class CaseFile:
     lab: LabSettings
     overlays: List[str]
     format_version: int
+    names: List[str]  # the variants' names, base first
+    streamed: bool  # a variant's record is read from its file for each run instead of held
+    def held(self) -> "CaseFile": ...  # every streamed record read into segments (at most 1 000 000 each)
 
-def load_case(path: str, overlays: Sequence[str] = ...) -> CaseFile: ...
-def load_case_text(text: str, file_name: str, base_dir: str, overlays: Sequence[str] = ...) -> CaseFile: ...
+def load_case(path: str, overlays: Sequence[str] = ..., stream: bool = ...) -> CaseFile: ...
+def load_case_text(text: str, file_name: str, base_dir: str, overlays: Sequence[str] = ..., stream: bool = ...) -> CaseFile: ...
 class SiteFile:
     file: str
     title: str

@@ -409,7 +409,7 @@ PYBIND11_MODULE(_core, m) {
       .def_property_readonly("molar_flow", [](const FigureTable& t) { return t.gas.molar_flow; }, "[mol/h]");
   m.def("figure_in_every_unit",
         [](const EngineCase& c, const std::string& figure, const std::string& species) {
-          return figure_in_every_unit(c.record.front(), figure_from(figure), species);
+          return figure_in_every_unit(first_segment(c), figure_from(figure), species);
         },
         py::arg("case"), py::arg("figure"), py::arg("species"),
         "acidload::figure_in_every_unit: a contaminant figure as the program's convert reads it ('300 ppmv', "
@@ -609,7 +609,9 @@ PYBIND11_MODULE(_core, m) {
                              "jacket-water-out K, oil-volume m³).")
       .def("with_lever", [](const EngineCase& c, const std::string& l, double v) { return with_lever(c, lever_from(l), v); },
            py::arg("lever"), py::arg("value"), "The variant with one lever set (core unit).")
-      .def_property_readonly("segments", [](const EngineCase& c) { return c.record.size(); }, "segments in the record")
+      .def_property_readonly("segments", [](const EngineCase& c) { return record_segments(c); }, "segments in the record")
+      .def_property_readonly("streamed", [](const EngineCase& c) { return c.streamed != nullptr; },
+                             "whether the record is read from its file for each run instead of held")
       .def_property_readonly("max_hours", [](const EngineCase& c) { return c.model.limits.max_hours; },
                              "the plant's planned maximum hours on a charge: the horizon [h]");
   py::class_<LabSettings>(m, "LabSettings", "A case's 'lab' section (docs/lab-results.md).")
@@ -646,13 +648,36 @@ PYBIND11_MODULE(_core, m) {
       .def_readonly("variants", &io::CaseFile::variants, "[0] is the base case")
       .def_readonly("overlays", &io::CaseFile::overlays, "overlay files applied, in order")
       .def_readonly("format_version", &io::CaseFile::format_version, "as written in the file")
-      .def_readonly("lab", &io::CaseFile::lab, "the 'lab' section: precision, per-lab settings, alarm levels");
+      .def_readonly("lab", &io::CaseFile::lab, "the 'lab' section: precision, per-lab settings, alarm levels")
+      .def_property_readonly("names", [](const io::CaseFile& c) {
+        std::vector<std::string> n;
+        for (const EngineCase& v : c.variants) n.push_back(v.name);
+        return n;
+      }, "the variants' names, base first")
+      .def_property_readonly("streamed", [](const io::CaseFile& c) {
+        for (const EngineCase& v : c.variants)
+          if (v.streamed) return true;
+        return false;
+      }, "whether a variant's record is read from its file for each run instead of held")
+      .def("held", &io::held_records, py::call_guard<py::gil_scoped_release>(),
+           "The case with every streamed record read into segments (at most 1 000 000 per record).");
   // reading a case is pure C++ (about as long as running it): the GIL released, so fleets load on threads
-  m.def("load_case", &io::load_case, py::arg("path"), py::arg("overlays") = std::vector<std::string>{},
+  const auto how = [](bool stream) { return stream ? io::RecordReading::stream : io::RecordReading::hold; };
+  m.def("load_case",
+        [how](const std::string& path, const std::vector<std::string>& overlays, bool stream) {
+          return io::load_case(path, overlays, how(stream));
+        },
+        py::arg("path"), py::arg("overlays") = std::vector<std::string>{}, py::arg("stream") = false,
         py::call_guard<py::gil_scoped_release>(),
-        "Reads a case file (and overlays merged over it). Raises InputError with file, line and column.");
-  m.def("load_case_text", &io::load_case_text, py::arg("text"), py::arg("file_name"), py::arg("base_dir"),
-        py::arg("overlays") = std::vector<std::string>{}, py::call_guard<py::gil_scoped_release>(),
+        "Reads a case file (and overlays merged over it). Raises InputError with file, line and column. "
+        "stream: a CSV record kept as its checked description and read again for each run.");
+  m.def("load_case_text",
+        [how](std::string_view text, const std::string& file_name, const std::string& base_dir,
+              const std::vector<std::string>& overlays, bool stream) {
+          return io::load_case_text(text, file_name, base_dir, overlays, how(stream));
+        },
+        py::arg("text"), py::arg("file_name"), py::arg("base_dir"), py::arg("overlays") = std::vector<std::string>{},
+        py::arg("stream") = false, py::call_guard<py::gil_scoped_release>(),
         "Reads a case from YAML text; relative file names (a record CSV) resolve against base_dir.");
   // a site (docs/model.md §18.4): one gas supply and one train shared by several engines
   py::class_<io::SiteFile>(m, "SiteFile", "A loaded site file: the shared gas and train, the engines.")

@@ -10,7 +10,9 @@
 #include <filesystem>
 #include <functional>
 #include <map>
+#include <exception>
 #include <memory>
+#include <optional>
 #include <set>
 
 #include "acidload/core/error.hpp"
@@ -70,17 +72,27 @@ std::vector<Node> csv_rows_of(Reader& r, const Node& file_node, const char* sect
 
 // A record CSV read row by row into segments (the record of `acidload run`, `check` and Python):
 // one map node is filled per row, reused for the next, and no copy of the file's lines is kept —
-// only a window document holding the current row's line for a caret. Every check is the reader's
-// own (read_segment on that node), so values, messages and positions are those of a tree of the
-// whole file; a mistake in the file's form is found first, wherever it is, as read_csv finds it.
+// only a window document holding the current row's line for a caret — and the file is read in
+// pieces of about 1 MB. Every check is the reader's own (read_segment on that node), so values,
+// messages and positions are those of a tree of the whole file; a mistake in the file's form is
+// found first, wherever it is, as read_csv finds it (a pass over the file before any value is read).
 struct CsvRecord {
-  std::string text;                  //!< the file's bytes
   std::string file;                  //!< its path, as resolved
+  detail::CsvFileFacts facts;        //!< size, time and digest when it was read
   NamedColumns cols;
   std::size_t rows = 0;              //!< data rows
   int source = 0;                    //!< the window document's index in the reader's documents
   std::shared_ptr<Document> window;  //!< the current row's line; its root is the row node
 };
+
+std::shared_ptr<Document> new_window(const std::string& file, std::size_t columns) {
+  auto w = std::make_shared<Document>();
+  w->file = file;
+  w->lines.assign(1, std::string());
+  w->root.entries.reserve(columns);  // never moves: the reader's `seen` points into it
+  w->root.key_marks.reserve(columns);
+  return w;
+}
 
 CsvRecord open_csv_record(Reader& r, const Node& file_node) {
   namespace fs = std::filesystem;
@@ -90,35 +102,30 @@ CsvRecord open_csv_record(Reader& r, const Node& file_node) {
   rec.file = p.string();
   CsvTable header;
   try {
-    rec.text = detail::read_capped_file(rec.file, 64u << 20, "CSV", "file");
+    rec.facts = detail::scan_csv_file(rec.file, max_record_file_bytes);
     const detail::CsvRowSink count = [](const std::vector<std::string>&, const std::vector<int>&, int, std::string_view) {};
-    rec.rows = detail::stream_csv(rec.text, rec.file, header, count);
+    rec.rows = detail::stream_csv_file(rec.file, rec.facts, header, count);
   } catch (const InputError& e) {
     if (e.where().line > 0) throw;
     r.fail(file_node, file_node.scalar, "a readable CSV file (" + e.expected() + ")");
   }
-  rec.window = std::make_shared<Document>();
-  rec.window->file = header.file;
-  rec.window->lines.assign(1, std::string());
+  rec.cols = named_columns(header, section_keys("segment"), "record column");
+  rec.window = new_window(header.file, rec.cols.names.size());
   rec.source = static_cast<int>(r.docs.size());
   r.docs.push_back(rec.window);
-  rec.cols = named_columns(header, section_keys("segment"), "record column");
-  rec.window->root.entries.reserve(rec.cols.names.size());  // never moves: the reader's `seen` points into it
-  rec.window->root.key_marks.reserve(rec.cols.names.size());
   return rec;
 }
 
 // Fills the record's row node with data row `i` (as csv_rows_of builds it) and shows its line.
-const Node& fill_row(CsvRecord& rec, std::size_t i, const std::vector<std::string>& cells, const std::vector<int>& columns,
-                     int line, std::string_view line_text) {
-  Document& d = *rec.window;
+const Node& fill_row(Document& d, const NamedColumns& cols, int source, std::size_t i, const std::vector<std::string>& cells,
+                     const std::vector<int>& columns, int line, std::string_view line_text) {
   d.first_line = line;
   d.lines[0].assign(line_text);
   Node& row = d.root;
   row.type = Node::Type::map;
   row.mark = {line, 1};
   row.path.assign("record[").append(std::to_string(i)).append("]");
-  row.source = rec.source;
+  row.source = source;
   std::size_t k = 0;
   for (std::size_t c = 0; c < cells.size(); ++c) {
     if (cells[c].empty()) continue;
@@ -127,12 +134,12 @@ const Node& fill_row(CsvRecord& rec, std::size_t i, const std::vector<std::strin
       row.key_marks.emplace_back();
     }
     auto& [name, v] = row.entries[k];
-    name = rec.cols.names[c];
+    name = cols.names[c];
     v.type = Node::Type::scalar;
-    detail::cell_scalar(cells[c], rec.cols.units[c], v.scalar);
+    detail::cell_scalar(cells[c], cols.units[c], v.scalar);
     v.mark = {line, columns[c]};
     v.path.assign(row.path).append(".").append(name);
-    v.source = rec.source;
+    v.source = source;
     row.key_marks[k] = v.mark;
     ++k;
   }
@@ -148,43 +155,145 @@ void stream_rows(CsvRecord& rec, const std::function<void(std::size_t, const Nod
   const detail::CsvRowSink sink = [&](const std::vector<std::string>& cells, const std::vector<int>& columns, int line,
                                       std::string_view text) {
     const std::size_t at = i++;
-    take(at, fill_row(rec, at, cells, columns, line, text));
+    take(at, fill_row(*rec.window, rec.cols, rec.source, at, cells, columns, line, text));
   };
-  detail::stream_csv(rec.text, rec.file, header, sink);
+  detail::stream_csv_file(rec.file, rec.facts, header, sink);
 }
 
 // Row `i` of the record again (for a refusal found after the rows were read).
 const Node& csv_row_at(CsvRecord& rec, std::size_t i) {
   std::size_t n = 0;
   CsvTable header;
-  std::vector<std::string> cells;
-  std::vector<int> columns;
-  int line = 0;
-  std::string text;
+  const Node* found = nullptr;
   const detail::CsvRowSink sink = [&](const std::vector<std::string>& c, const std::vector<int>& cols, int l,
                                       std::string_view t) {
-    if (n++ != i) return;
-    cells = c, columns = cols, line = l, text = std::string(t);
+    if (n++ == i) found = &fill_row(*rec.window, rec.cols, rec.source, i, c, cols, l, t);
   };
-  detail::stream_csv(rec.text, rec.file, header, sink);
-  return fill_row(rec, i, cells, columns, line, text);
+  detail::CsvFileReader reader(rec.file, rec.facts, header, sink);
+  while (!found && reader.next()) {
+  }
+  return *found;
 }
 
+// What one record row needs to become a segment: the variant's engine, oil and gas before the
+// record, and the reader (for its checks and messages).
+struct RowContext {
+  EngineInputs eng;
+  OilCharge charge;
+  FuelAnalysis fuel;  //!< the gas analysis; each row's figures change it for the rows after
+  double power = 0;   //!< [W], likewise
+};
+
+// Record row `row` as a segment: the previous one with the row's changes.
+Segment next_segment(const Reader& r, const Node& row, const Segment& prev, RowContext& x, ResolvedGases& gases) {
+  Segment s = prev;  // each segment carries the last values forward
+  s.events.clear();
+  s.calendar_hours = -1;
+  s.starts = 0;
+  try {
+    detail::read_segment(r, row, s, x.eng, x.charge, x.fuel, x.power, &gases);
+  } catch (const InputError& e) {
+    if (e.where().line > 0) throw;
+    r.relocate(e, row, &row);
+  }
+  if (!row.find("starts") && x.eng.start_every > 0) s.starts = s.hours / x.eng.start_every;
+  return s;
+}
+
+// A CSV record read again for each run (EngineCase::streamed): rows made into segments exactly as
+// when the case was loaded (the same reader code on the same context), after checking that the
+// file is still the one that was read (size, modification time and digest of every byte).
+class CsvRecordStream final : public RecordStream {
+ public:
+  CsvRecordStream(const Reader& r, const CsvRecord& rec, const RowContext& context, const Segment& base, double hours,
+                  const Segment& first)
+      : reader_(r), file_(rec.file), facts_(rec.facts), cols_(rec.cols), source_(rec.source), rows_(rec.rows),
+        context_(context), base_(base), hours_(hours), first_(first) {
+    reader_.seen.clear();
+    std::error_code ec;  // opened by its absolute path: a later change of working folder does not matter
+    const std::filesystem::path abs = std::filesystem::absolute(file_, ec);
+    open_path_ = ec ? file_ : abs.string();
+  }
+  std::size_t segments() const override { return rows_; }
+  double hours() const override { return hours_; }
+  const Segment& first() const override { return first_; }
+
+  SegmentSource open() const override {
+    const auto changed = [file = file_](const std::string& how) {
+      return InputError("record.file", file,
+                        "the record file as it was when the case was loaded (" + how + "); load the case again",
+                        detail::file_only(file));
+    };
+    detail::CsvFileFacts now;
+    try {
+      now = detail::scan_csv_file(open_path_, max_record_file_bytes);
+    } catch (const InputError& e) {
+      throw changed("it can no longer be read: " + e.expected());
+    }
+    if (!(now == facts_)) throw changed("it has changed since");
+    struct State {
+      Reader r;
+      std::shared_ptr<Document> window;
+      RowContext x;
+      ResolvedGases gases;
+      Segment prev, cur;
+      CsvTable header;
+      std::unique_ptr<detail::CsvFileReader> rows;
+      NamedColumns cols;
+      int source = 0;
+      std::size_t i = 0;
+    };
+    auto st = std::make_shared<State>();
+    st->r = reader_;
+    st->window = new_window(file_, cols_.names.size());
+    st->r.docs.at(static_cast<std::size_t>(source_)) = st->window;
+    st->x = context_;
+    st->prev = base_;
+    st->cols = cols_;
+    st->source = source_;
+    const detail::CsvRowSink sink = [p = st.get()](const std::vector<std::string>& c, const std::vector<int>& cols, int l,
+                                                   std::string_view t) {
+      const Node& row = fill_row(*p->window, p->cols, p->source, p->i, c, cols, l, t);
+      p->cur = next_segment(p->r, row, p->prev, p->x, p->gases);
+      p->prev = p->cur;
+      ++p->i;
+    };
+    st->rows = std::make_unique<detail::CsvFileReader>(open_path_, facts_, st->header, sink);
+    // the stream holds all it reads with (the reading outlives nothing it points into)
+    return [st, changed]() -> const Segment* {
+      try {
+        if (!st->rows->next()) return nullptr;
+      } catch (const InputError& e) {
+        throw changed("it changed while it was read: " + std::string(e.what()));
+      }
+      return &st->cur;
+    };
+  }
+
+ private:
+  Reader reader_;
+  std::string file_, open_path_;  // as named in messages; as opened
+  detail::CsvFileFacts facts_;
+  NamedColumns cols_;
+  int source_ = 0;
+  std::size_t rows_ = 0;
+  RowContext context_;
+  Segment base_;
+  double hours_ = 0;
+  Segment first_;
+};
 
 // The caps on work (case_file.hpp), checked before anything runs; each refusal names the key that
 // sets the work: the row where the hours pass the cap, the output interval, the detection step.
-// `row_at` gives record row i (null: the record is the base segment).
-void check_work(const Reader& r, const Node& root, const EngineCase& c,
-                const std::function<const Node&(std::size_t)>* row_at) {
-  double hours = 0;
-  for (std::size_t i = 0; i < c.record.size(); ++i) {
-    hours += c.record[i].hours;
-    if (hours > max_simulated_hours) {
-      const Node& at = !row_at ? (root.find("run") ? *root.find("run") : root) : (*row_at)(i);
-      const Node* h = at.find("hours");
-      r.fail(h ? *h : at, format_value(hours) + " h in all",
-             "a record of at most " + format_value(max_simulated_hours) + " running hours (a cap on work; docs/case-format.md)");
-    }
+// `hours`: the record's in all; `over`: the row where they passed the cap (none: the record is within
+// it); `row_at` gives record row i (null: the record is the base segment).
+void check_work(const Reader& r, const Node& root, const EngineCase& c, double hours, std::optional<std::size_t> over,
+                double over_hours, const std::function<const Node&(std::size_t)>* row_at) {
+  if (over) {
+    const Node& at = !row_at ? (root.find("run") ? *root.find("run") : root) : (*row_at)(*over);
+    const Node* h = at.find("hours");
+    r.fail(h ? *h : at, format_value(over_hours) + " h in all",
+           "a record of at most " + format_value(max_simulated_hours) + " running hours (a cap on work; docs/case-format.md)");
   }
   const auto where = [&](const char* path, const char* fallback) -> const Node& {
     const auto it = r.seen.find(path);
@@ -276,10 +385,13 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
   if (c.options.output_interval == 0) c.options.output_interval = std::fmax(1.0, horizon / 400);
 
   // the record: one segment of the base operation, or the listed segments (inline, or a CSV file
-  // streamed row by row)
+  // streamed row by row). With `r.stream_records` a CSV record is checked in one pass and kept as
+  // its description (EngineCase::streamed), not as segments, unless a scrubbing train or prices
+  // need the segments themselves.
   std::vector<Node> rows;
   CsvRecord csv;
   bool from_csv = false;
+  const bool may_stream = r.stream_records && !root.find("scrubbing") && !root.find("economics");
   if (const Node* rec = root.find("record")) {
     r.require_section(*rec, "record");
     const Node* file = rec->find("file");
@@ -292,57 +404,33 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
       rows = segs->items;
     }
     const std::size_t n = from_csv ? csv.rows : rows.size();
+    const std::size_t cap = from_csv && may_stream ? max_streamed_record_rows : max_record_rows;
     if (n == 0) r.fail(*rec, "", "at least one segment");
-    if (n > max_record_rows)
+    if (n > cap)
       r.fail(file ? *file : *segs, std::to_string(n) + " segments",
-             "a record of at most " + std::to_string(max_record_rows) + " segments (a cap on work; docs/case-format.md)");
+             "a record of at most " + std::to_string(cap) + " segments" +
+                 (cap == max_record_rows && from_csv ? " when its segments are held (a scrubbing train, prices, or a study that needs them all)" : "") +
+                 " (a cap on work; docs/case-format.md)");
   }
   const bool listed = from_csv || !rows.empty();
+  const bool streamed = from_csv && may_stream;
   const std::function<const Node&(std::size_t)> row_at = [&](std::size_t i) -> const Node& {
     return from_csv ? csv_row_at(csv, i) : rows[i];
   };
-  if (!listed) {
-    base.hours = horizon;
-    base.starts = eng.start_every > 0 ? horizon / eng.start_every : 0;
-    c.record = {base};
-  } else {
-    double power = eng.power;
-    Segment prev = base;
-    ResolvedGases gases;
-    const auto take = [&](std::size_t, const Node& row) {
-      Segment s = prev;  // each segment carries the last values forward
-      s.events.clear();
-      s.calendar_hours = -1;
-      s.starts = 0;
-      try {
-        detail::read_segment(r, row, s, eng, c.charge, fuel, power, &gases);
-      } catch (const InputError& e) {
-        if (e.where().line > 0) throw;
-        r.relocate(e, row, &row);
-      }
-      if (!row.find("starts") && eng.start_every > 0) s.starts = s.hours / eng.start_every;
-      c.record.push_back(s);
-      prev = s;
-    };
-    if (from_csv) {
-      c.record.reserve(csv.rows);
-      stream_rows(csv, take);
-    } else {
-      for (std::size_t i = 0; i < rows.size(); ++i) take(i, rows[i]);
-    }
-  }
-  check_work(r, root, c, listed ? &row_at : nullptr);
-  // validate the operation of every segment here, so that a range error names the place. The check
+  // Every segment's operation is validated here, so that a range error names the place. The check
   // is a pure function of the segment's operating state (operation with its starts per hour, gas,
   // oil temperature and consumption), so a state with the same bits as one already checked has the
   // same outcome and is not checked again (a table of recent states; a miss only costs a check).
+  // The first failure is kept and reported after the caps on work, as a check of the whole record
+  // after reading it would.
   struct CheckedState {
     Operation op;
     FuelGas fuel;
     double oil_temperature = 0, oil_consumption = 0;
     bool used = false;
   };
-  std::vector<CheckedState> checked(c.record.size() > 64 ? 1024 : 0);
+  const std::size_t n_segments = !listed ? 1 : from_csv ? csv.rows : rows.size();
+  std::vector<CheckedState> checked(n_segments > 64 ? 1024 : 0);
   const auto state_of = [](const Segment& s) {
     CheckedState k;
     std::memset(static_cast<void*>(&k), 0, sizeof k);  // the padding too, so that equal states have equal bytes
@@ -354,8 +442,10 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
     k.used = true;
     return k;
   };
-  for (std::size_t i = 0; i < c.record.size(); ++i) {
-    const Segment& s = c.record[i];
+  std::optional<std::size_t> bad_operation;  // the first segment whose operation is refused
+  std::exception_ptr bad_operation_error;
+  const auto check_operation = [&](std::size_t i, const Segment& s) {
+    if (bad_operation) return;
     CheckedState* slot = nullptr;
     if (!checked.empty()) {
       const CheckedState k = state_of(s);
@@ -367,19 +457,72 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
         h = (h ^ w) * 1099511628211ull;
       }
       slot = &checked[(h ^ (h >> 29)) % checked.size()];
-      if (slot->used && std::memcmp(static_cast<const void*>(slot), static_cast<const void*>(&k), sizeof k) == 0) continue;
+      if (slot->used && std::memcmp(static_cast<const void*>(slot), static_cast<const void*>(&k), sizeof k) == 0) return;
     }
     try {
       Transfer t;
       segment_rates(s, c.charge, c.model, &t);
-    } catch (const InputError& e) {
-      if (!listed) r.relocate(e, en, nullptr);
-      const Node& row = row_at(i);
-      r.relocate(e, row, &row);
-    } catch (const NotModelledError& e) {
-      r.fail(listed ? row_at(i) : en, "", std::string("an operation the model covers: ") + e.what());
+    } catch (const InputError&) {
+      bad_operation = i, bad_operation_error = std::current_exception();
+      return;
+    } catch (const NotModelledError&) {
+      bad_operation = i, bad_operation_error = std::current_exception();
+      return;
     }
     if (slot) *slot = state_of(s);
+  };
+  double hours = 0, over_hours = 0;
+  std::optional<std::size_t> over;  // the row where the hours pass the cap
+  if (!listed) {
+    base.hours = horizon;
+    base.starts = eng.start_every > 0 ? horizon / eng.start_every : 0;
+    c.record = {base};
+    hours = base.hours;
+    if (hours > max_simulated_hours) over = 0, over_hours = hours;
+    check_operation(0, base);
+  } else {
+    RowContext x{eng, c.charge, fuel, eng.power};
+    const RowContext before = x;
+    Segment prev = base, first;
+    ResolvedGases gases;
+    const auto take = [&](std::size_t i, const Node& row) {
+      Segment s = next_segment(r, row, prev, x, gases);
+      hours += s.hours;
+      if (hours > max_simulated_hours && !over) over = i, over_hours = hours;
+      check_operation(i, s);
+      if (i == 0) first = s;
+      if (!streamed) c.record.push_back(s);
+      prev = std::move(s);
+    };
+    if (from_csv) {
+      if (!streamed) c.record.reserve(csv.rows);
+      stream_rows(csv, take);
+    } else {
+      for (std::size_t i = 0; i < rows.size(); ++i) take(i, rows[i]);
+    }
+    if (streamed) {
+      c.streamed = std::make_shared<CsvRecordStream>(r, csv, before, base, hours, first);
+      // a trajectory point at every segment end would grow with the record past the cap on points:
+      // beyond it, points at the output interval, at events and at the end only
+      if (static_cast<double>(csv.rows) > max_trajectory_points) c.options.keep_segment_ends = false;
+      // and room for them made once (within the cap on points, checked below): a growing vector
+      // would hold its old and new copies at once
+      const double points = (c.options.keep_segment_ends ? static_cast<double>(csv.rows) : 0) +
+                            hours / c.options.output_interval + 16;
+      c.options.reserve_points = static_cast<std::size_t>(std::fmin(points, 2 * max_trajectory_points + 16));
+    }
+  }
+  check_work(r, root, c, hours, over, over_hours, listed ? &row_at : nullptr);
+  if (bad_operation) {
+    try {
+      std::rethrow_exception(bad_operation_error);
+    } catch (const InputError& e) {
+      if (!listed) r.relocate(e, en, nullptr);
+      const Node& row = row_at(*bad_operation);
+      r.relocate(e, row, &row);
+    } catch (const NotModelledError& e) {
+      r.fail(listed ? row_at(*bad_operation) : en, "", std::string("an operation the model covers: ") + e.what());
+    }
   }
   return c;
 }
@@ -525,6 +668,7 @@ CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::
              "at most " + std::to_string(max_variants) + " variants (a cap on work; docs/case-format.md)");
     std::set<std::string> names{base_name};
     std::size_t segments = out.variants.front().record.size();
+    std::size_t streamed_rows = out.variants.front().streamed ? record_segments(out.variants.front()) : 0;
     out.variants.reserve(vs->items.size() + 1);
     for (const Node& v : vs->items) {
       r.require_section(v, "variant");
@@ -548,6 +692,11 @@ CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::
       if (segments > max_segments_in_all)
         r.fail(*n, name, "variants whose records hold at most " + std::to_string(max_segments_in_all) +
                              " segments in all (a cap on memory; docs/case-format.md)");
+      // each variant reads its streamed record when loading and again for each run
+      if (out.variants.back().streamed) streamed_rows += record_segments(out.variants.back());
+      if (streamed_rows > max_streamed_record_rows)
+        r.fail(*n, name, "variants whose streamed records have at most " + std::to_string(max_streamed_record_rows) +
+                             " rows in all (a cap on work; docs/case-format.md)");
     }
   }
   if (lab)  // a level past the limit of any variant is refused at its line
@@ -558,21 +707,29 @@ CaseFile load(Reader& r, std::shared_ptr<Document> main, const std::vector<std::
 }  // namespace
 
 CaseFile load_case_text(std::string_view text, const std::string& file_name, const std::string& base_dir,
-                        const std::vector<std::string>& overlays) {
+                        const std::vector<std::string>& overlays, RecordReading records) {
   Reader r;
   r.base_dir = base_dir;
+  r.stream_records = records == RecordReading::stream;
   auto d = parse_into(r, text, file_name);
   return load(r, d, overlays);
 }
 
-CaseFile load_case(const std::string& path, const std::vector<std::string>& overlays) {
+CaseFile load_case(const std::string& path, const std::vector<std::string>& overlays, RecordReading records) {
   Reader r;
+  r.stream_records = records == RecordReading::stream;
   r.base_dir = std::filesystem::path(path).parent_path().string();
   if (r.base_dir.empty()) r.base_dir = ".";
   auto d = std::make_shared<Document>(read_document(path));
   detail::set_source(d->root, 0);
   r.docs.push_back(d);
   return load(r, d, overlays);
+}
+
+CaseFile held_records(const CaseFile& c) {
+  CaseFile out = c;
+  for (EngineCase& v : out.variants) v = held_record(v, max_record_rows);
+  return out;
 }
 
 }  // namespace acidload::io

@@ -23,6 +23,7 @@ namespace acidload::io::detail {
 struct Reader {
   std::vector<std::shared_ptr<Document>> docs;
   std::string base_dir;  //!< directory of the main case (relative file names in it resolve here)
+  bool stream_records = false;  //!< a CSV record kept as its description (RecordReading::stream)
   //! Where each registry key of the variant being built was read: key path → node (for errors the
   //! core raises later, which name the same key paths).
   mutable std::map<std::string, const Node*, std::less<>> seen;

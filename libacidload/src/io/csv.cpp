@@ -16,7 +16,12 @@
 #include "file_read.hpp"
 #include "text.hpp"
 
+#include <fcntl.h>
+#include <sys/stat.h>
+#include <unistd.h>
+
 #include <algorithm>
+#include <cstring>
 #include <string_view>
 #include <unordered_map>
 
@@ -40,10 +45,29 @@ class Parser {
   std::size_t data_rows() const { return data_rows_; }
 
   void run() {
+    while (step()) {
+    }
+    finish();
+  }
+  //! Reads on to the next data row (handed to the sink): false when the text is used up.
+  bool step() {
     while (pos_ < s_.size()) {
       if (skip_blank_or_comment()) continue;
-      read_record();
+      if (read_record()) return true;
     }
+    return false;
+  }
+  //! A further piece of the file: whole lines following the text read so far (the parser stands at
+  //! a line start after every row), so that a file is read in pieces of bounded size.
+  void rebase(std::string_view next) {
+    s_ = next;
+    pos_ = line_start_ = 0;
+    col_line_start_ = static_cast<std::size_t>(-1);
+    col_pos_ = 0;
+  }
+  int line() const { return line_; }
+  //! The checks at the end of the file.
+  void finish() const {
     if (t_.header.empty())
       throw InputError("header", "", "a header row, then data rows (the file has none)", file_only(t_.file));
     if (data_rows_ == 0)
@@ -65,8 +89,19 @@ class Parser {
   }
 
   InputError error(int line, int col, std::string key, std::string value, std::string expected) const {
-    return InputError(std::move(key), std::move(value), std::move(expected),
-                      InputWhere{t_.file, line, col, detail::display_line(t_.text, line)});
+    return InputError(std::move(key), std::move(value), std::move(expected), InputWhere{t_.file, line, col, shown_line(line)});
+  }
+  // The line above a caret: from the text in hand when streaming (no copy of the file's lines is kept).
+  std::string shown_line(int line) const {
+    if (!sink_ || (line != line_ && line != rec_line_)) return detail::display_line(t_.text, line);
+    std::size_t start = line == line_ ? line_start_ : rec_start_;
+    if (start > s_.size()) return {};
+    std::size_t end = s_.find('\n', start);
+    if (end == std::string_view::npos) end = s_.size();
+    std::string out(s_.substr(start, end - start));
+    if (!out.empty() && out.back() == '\r') out.pop_back();
+    std::replace(out.begin(), out.end(), '\t', ' ');
+    return out;
   }
   InputError error_here(std::size_t p, std::string key, std::string value, std::string expected) const {
     return error(line_, column(p), std::move(key), std::move(value), std::move(expected));
@@ -88,6 +123,7 @@ class Parser {
     while (p < s_.size() && is_space(s_[p])) ++p;
     if (at_line_end(p) || s_[p] == '#') {
       while (!at_line_end(p)) ++p;
+      if (sink_ && t_.header.empty()) t_.text.emplace_back(s_.substr(line_start_, p - line_start_));
       pos_ = p;
       next_line();
       return true;
@@ -100,11 +136,14 @@ class Parser {
     return cell < t_.header.size() ? t_.header[cell] : "(extra cell)";
   }
 
-  void read_record() {
+  // Reads one line's cells; true when they were a data row handed to the sink.
+  bool read_record() {
     std::vector<std::string>& cells = cells_;  // kept from row to row: no allocation per row
     std::vector<int>& cols = cols_;
     cells.clear();
     cols.clear();
+    rec_start_ = line_start_;
+    rec_line_ = line_;
     for (;;) {
       while (pos_ < s_.size() && is_space(s_[pos_])) ++pos_;
       const int col = column(pos_);
@@ -155,8 +194,9 @@ class Parser {
     const std::string_view line_text = s_.substr(line_start_, pos_ - line_start_);
     next_line();
     if (t_.header.empty()) {
+      if (sink_) t_.text.emplace_back(line_text);
       take_header(cells, cols, line);
-      return;
+      return false;
     }
     const std::size_t n = t_.header.size();
     if (cells.size() > n)
@@ -168,11 +208,12 @@ class Parser {
     ++data_rows_;
     if (sink_) {
       (*sink_)(cells, cols, line, line_text);
-      return;
+      return true;
     }
     t_.rows.push_back(std::move(cells));
     t_.columns.push_back(std::move(cols));
     t_.lines.push_back(line);
+    return true;
   }
 
   void take_header(const std::vector<std::string>& cells, const std::vector<int>& cols, int line) {
@@ -200,6 +241,8 @@ class Parser {
   std::size_t pos_ = 0;
   std::size_t line_start_ = 0;
   int line_ = 1;
+  std::size_t rec_start_ = 0;  // where the line of the record being read starts
+  int rec_line_ = 0;
   int header_line_ = 0;
   mutable std::size_t col_line_start_ = static_cast<std::size_t>(-1), col_pos_ = 0;
   mutable int col_ = 1;
@@ -249,38 +292,146 @@ CsvTable parse_csv(const std::string& text, const std::string& file_name, std::s
   return t;
 }
 
-std::size_t detail::stream_csv(const std::string& text, const std::string& file_name, CsvTable& header,
-                               const CsvRowSink& sink, std::size_t max_bytes) {
-  header = CsvTable{};
-  header.file = file_name;
-  std::size_t rows = 0;
-  try {
-    const std::string_view s = prepared(text, file_name, max_bytes);
-    Parser p(s, header, &sink);
-    p.run();
-    rows = p.data_rows();
-    // the lines up to the header's, for carets at the header
-    std::size_t end = 0;
-    for (int l = 0; l < header.header_line && end != std::string_view::npos; ++l) {
-      end = s.find('\n', end);
-      if (end != std::string_view::npos) ++end;
+namespace detail {
+
+CsvFileFacts scan_csv_file(const std::string& path, std::size_t max_bytes) {
+  const std::string readable = "a readable CSV file";
+  if (const std::string why = not_a_plain_file(path); !why.empty())
+    throw InputError("file", path, readable + " (" + why + ")", file_only(path));
+  const int fd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
+  if (fd < 0) throw InputError("file", path, readable + " (cannot open it)", file_only(path));
+  struct Closer {
+    int fd;
+    ~Closer() { ::close(fd); }
+  } closer{fd};
+  struct stat st {};
+  if (::fstat(fd, &st) != 0 || !S_ISREG(st.st_mode)) throw InputError("file", path, readable + " (cannot open it)", file_only(path));
+  CsvFileFacts f;
+  f.size = static_cast<std::uint64_t>(st.st_size);
+  f.mtime_ns = static_cast<std::int64_t>(st.st_mtim.tv_sec) * 1000000000 + st.st_mtim.tv_nsec;
+  if (f.size > max_bytes)
+    throw InputError("file", std::to_string(f.size) + " bytes", "a file of at most " + std::to_string(max_bytes) + " bytes",
+                     file_only(path));
+  // one pass in blocks: the digest, and a NUL byte refused wherever it is (before any cell is read)
+  std::uint64_t h = 1469598103934665603ull;  // FNV-1a, 64 bit, over 8-byte words of each 1 MB block
+  std::vector<char> buf(1u << 20);
+  std::uint64_t at = 0, line = 1, line_start = 0;
+  bool bom = false;
+  for (;;) {
+    std::size_t k = 0;  // the block filled whole (but at the end), so the words do not depend on how reads split
+    while (k < buf.size()) {
+      const ssize_t n = ::read(fd, buf.data() + k, buf.size() - k);
+      if (n < 0) throw InputError("file", path, readable + " (reading it failed)", file_only(path));
+      if (n == 0) break;
+      k += static_cast<std::size_t>(n);
     }
-    header.text = split_lines(s.substr(0, end == std::string_view::npos ? s.size() : end));
-  } catch (const InputError&) {
-    // A mistake in the file's form comes first, wherever it is (as read_csv finds it before any
-    // value is read), shown with its line: the whole-table parse throws it. Otherwise the sink's.
-    const CsvRowSink none = [](const std::vector<std::string>&, const std::vector<int>&, int, std::string_view) {};
-    try {
-      CsvTable scratch;
-      scratch.file = file_name;
-      Parser(prepared(text, file_name, max_bytes), scratch, &none).run();
-    } catch (const InputError&) {
-      (void)parse_csv(text, file_name, max_bytes);
+    if (k == 0) break;
+    if (at == 0 && k >= 3 && std::memcmp(buf.data(), "\xEF\xBB\xBF", 3) == 0) bom = true;
+    std::size_t i = 0;
+    for (; i + 8 <= k; i += 8) {  // in 8-byte words, then the block's last bytes one by one
+      std::uint64_t w;
+      std::memcpy(&w, buf.data() + i, sizeof w);
+      h = (h ^ w) * 1099511628211ull;
     }
-    throw;
+    for (; i < k; ++i) h = (h ^ static_cast<unsigned char>(buf[i])) * 1099511628211ull;
+    if (const void* z = std::memchr(buf.data(), 0, k)) {
+      const std::size_t nul = static_cast<std::size_t>(static_cast<const char*>(z) - buf.data());
+      for (std::size_t j = 0; j < nul; ++j)
+        if (buf[j] == '\n') ++line, line_start = at + j + 1;
+      const std::uint64_t from = line == 1 && bom ? 3 : line_start;
+      throw InputError("file", "byte 0x00", "text (a NUL byte is here; is this a CSV file?)",
+                       InputWhere{path, static_cast<int>(line), static_cast<int>(at + nul - from) + 1, ""});
+    }
+    line += static_cast<std::uint64_t>(std::count(buf.data(), buf.data() + k, '\n'));
+    if (const void* last = ::memrchr(buf.data(), '\n', k))
+      line_start = at + static_cast<std::size_t>(static_cast<const char*>(last) - buf.data()) + 1;
+    at += k;
+    if (at > max_bytes) break;  // grown since the size was taken: read no further than the cap
   }
+  f.digest = h;
+  if (at != f.size) throw InputError("file", path, readable + " (it changed while it was read)", file_only(path));
+  return f;
+}
+
+struct CsvFileReader::Impl {
+  Impl(std::string p, CsvTable& t, const CsvRowSink& s) : path(std::move(p)), table(t), sink(s), parser("", t, &sink) {}
+  std::string path;
+  CsvTable& table;
+  CsvRowSink sink;
+  Parser parser;
+  int fd = -1;
+  std::uint64_t left = 0;  // bytes of the file still to read (its size when scanned)
+  std::string piece, carry;
+  bool first = true, done = false;
+
+  // The next piece of whole lines; false at the end of the file.
+  bool refill() {
+    if (left == 0 && carry.empty()) return false;
+    piece.swap(carry);
+    carry.clear();
+    std::size_t last = std::string::npos;
+    while (left > 0) {
+      const std::size_t want = static_cast<std::size_t>(std::min<std::uint64_t>(left, 1u << 20));
+      const std::size_t old = piece.size();
+      piece.resize(old + want);
+      const ssize_t n = ::read(fd, piece.data() + old, want);
+      if (n <= 0) {
+        piece.resize(old);
+        if (n < 0) throw InputError("file", path, "a readable CSV file (reading it failed)", file_only(path));
+        left = 0;
+        break;
+      }
+      piece.resize(old + static_cast<std::size_t>(n));
+      left -= static_cast<std::uint64_t>(n);
+      last = piece.rfind('\n');
+      if (last != std::string::npos && last >= old) break;  // a line end in what was just read
+      if (last != std::string::npos) break;
+    }
+    if (left > 0 && last != std::string::npos) {
+      carry.assign(piece, last + 1, std::string::npos);
+      piece.resize(last + 1);
+    }
+    std::string_view v(piece);
+    if (first && v.size() >= 3 && v.substr(0, 3) == "\xEF\xBB\xBF") v.remove_prefix(3);  // UTF-8 byte-order mark
+    first = false;
+    parser.rebase(v);
+    return true;
+  }
+};
+
+CsvFileReader::CsvFileReader(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink)
+    : p_(std::make_unique<Impl>(path, header, sink)) {
+  header = CsvTable{};
+  header.file = path;
+  p_->fd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
+  if (p_->fd < 0) throw InputError("file", path, "a readable CSV file (cannot open it)", file_only(path));
+  p_->left = facts.size;
+}
+
+CsvFileReader::~CsvFileReader() {
+  if (p_ && p_->fd >= 0) ::close(p_->fd);
+}
+
+bool CsvFileReader::next() {
+  Impl& m = *p_;
+  if (m.done) return false;
+  for (;;) {
+    if (m.parser.step()) return true;
+    if (!m.refill()) break;
+  }
+  m.done = true;
+  m.parser.finish();
+  return false;
+}
+
+std::size_t stream_csv_file(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink) {
+  CsvFileReader r(path, facts, header, sink);
+  std::size_t rows = 0;
+  while (r.next()) ++rows;
   return rows;
 }
+
+}  // namespace detail
 
 void detail::cell_scalar(const std::string& cell, const std::string& unit, std::string& out) {
   const bool bare = !cell.empty() && cell.find_first_not_of("+-.0123456789eE") == std::string::npos;

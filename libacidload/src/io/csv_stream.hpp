@@ -1,7 +1,10 @@
 #pragma once
 // CSV rows streamed one at a time (internal to acidload::io; not installed): a record is read row
-// by row into segments, with no table of cells and no copy of the file's lines kept.
+// by row into segments, with no table of cells and no copy of the file's lines kept, the file read
+// in pieces.
 #include <cstddef>
+#include <cstdint>
+#include <memory>
 #include <functional>
 #include <string>
 #include <string_view>
@@ -16,13 +19,39 @@ namespace acidload::io::detail {
 using CsvRowSink = std::function<void(const std::vector<std::string>& cells, const std::vector<int>& columns, int line,
                                       std::string_view line_text)>;
 
-//! Parses `text` as read_csv does, with the same checks and messages, handing each data row to
-//! `sink` instead of keeping it. `header` gets the file name, the header, its line and columns, and
-//! the file's lines up to the header's (`rows`, `lines`, `columns` stay empty). Returns the number
-//! of data rows. A mistake in the file's form is thrown as parse_csv throws it; the sink's own
-//! exceptions pass through.
-std::size_t stream_csv(const std::string& text, const std::string& file_name, CsvTable& header, const CsvRowSink& sink,
-                       std::size_t max_bytes = 64u << 20);
+//! What is known of a CSV file from one pass over its bytes: its size, modification time and a
+//! digest (FNV-1a, 64 bit) of every byte, to tell later whether it is still the file that was read.
+struct CsvFileFacts {
+  std::uint64_t size = 0;
+  std::int64_t mtime_ns = 0;
+  std::uint64_t digest = 0;
+  bool operator==(const CsvFileFacts& o) const { return size == o.size && mtime_ns == o.mtime_ns && digest == o.digest; }
+};
+
+//! Scans the file in blocks of 1 MB: a plain file of at most `max_bytes`, with no NUL byte (refused
+//! with its line and column, before any cell is read). Memory: one block.
+CsvFileFacts scan_csv_file(const std::string& path, std::size_t max_bytes);
+
+//! A CSV file's data rows one at a time, parsed as read_csv parses (the same checks, messages and
+//! positions), read in pieces of whole lines of about 1 MB: memory does not grow with the file.
+//! `header` gets the file name, the header, its line and columns and the file's lines up to the
+//! header's. Each next() hands one data row to `sink` and returns true; false at the end (where a
+//! file with no header or no data row is refused). The sink's own exceptions pass through.
+class CsvFileReader {
+ public:
+  CsvFileReader(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink);
+  ~CsvFileReader();
+  CsvFileReader(const CsvFileReader&) = delete;
+  CsvFileReader& operator=(const CsvFileReader&) = delete;
+  bool next();
+
+ private:
+  struct Impl;
+  std::unique_ptr<Impl> p_;
+};
+
+//! Every data row of the file to `sink` (a CsvFileReader read to the end); returns their number.
+std::size_t stream_csv_file(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink);
 
 //! A cell's text as its node's scalar: a bare number gets the header's `unit` ("500" → "500 ppmv").
 void cell_scalar(const std::string& cell, const std::string& unit, std::string& out);

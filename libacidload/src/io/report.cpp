@@ -155,7 +155,7 @@ double gas_figure(const Segment& s, double x_wet, ConcentrationUnit u, double mo
 // ---- the inputs as understood ----------------------------------------------------------------
 std::vector<InputRow> input_rows(const CaseFile& c, std::size_t variant) {
   const EngineCase& v = c.variants.at(variant);
-  const Segment& s = v.record.front();
+  const Segment& s = first_segment(v);
   const FuelGas& g = s.fuel;
   const std::map<std::string, std::string> none;
   const std::map<std::string, std::string>& src = variant < c.key_sources.size() ? c.key_sources[variant] : none;
@@ -215,10 +215,8 @@ std::vector<InputRow> input_rows(const CaseFile& c, std::size_t variant) {
   for (Limit x : all_limits)
     if (!l.enabled[static_cast<std::size_t>(x)] && x != Limit::crossover) ignored += (ignored.empty() ? "" : ", ") + std::string(name(x));
   if (!ignored.empty()) add({"limits.ignore"}, "limits not applied", ignored);
-  double h = 0;
-  for (const Segment& x : v.record) h += x.hours;
   add({"record.segments", "record.file", "run.hours"}, "operating record",
-      std::to_string(v.record.size()) + " segment(s), " + fixed(h, 0) + " h");
+      std::to_string(record_segments(v)) + " segment(s), " + fixed(record_hours(v), 0) + " h");
   for (const ParameterInfo& p : parameter_table()) {
     if (p.key.rfind("model.", 0) != 0) continue;
     double x = get_parameter(v, p.key);
@@ -257,7 +255,8 @@ std::vector<std::string> result_warnings(const CaseFile& c, const std::vector<Va
 H2sSweep h2s_sweep(const EngineCase& record_case, double top, int points) {
   // one charge under the first segment's operation, held up to the planned maximum
   EngineCase c = record_case;
-  Segment first = c.record.front();
+  Segment first = first_segment(c);
+  c.streamed.reset();
   first.events.clear();
   first.starts = first.hours > 0 ? first.starts / first.hours * c.model.limits.max_hours : 0;
   first.hours = c.model.limits.max_hours;
@@ -277,7 +276,9 @@ H2sSweep h2s_sweep(const EngineCase& record_case, double top, int points) {
   return s;
 }
 
-ReportData gather_report(const CaseFile& c, const std::vector<VariantSummary>& rows, const ReportOptions& o) {
+ReportData gather_report(const CaseFile& given, const std::vector<VariantSummary>& rows, const ReportOptions& o) {
+  // the report's studies (the H2S sweep, the lab fit) index segments: a streamed record is read in
+  const CaseFile c = held_records(given);
   ReportData d;
   d.title = c.title.empty() ? c.file : c.title;
   d.case_file = c.file;

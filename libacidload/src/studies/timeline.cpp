@@ -3,6 +3,7 @@
 #include <cmath>
 #include <cstring>
 #include <type_traits>
+#include <utility>
 
 #include "acidload/core/error.hpp"
 #include "acidload/core/oil_rates.hpp"
@@ -267,6 +268,7 @@ RunResult simulate(const OilCharge& charge, const ModelParameters& model, const 
   validate(model.transfer);  // constant over the run: validated once here, not per segment
   validate(model.oxidation);
   Runner run{charge, model, options, balance_constants(charge.oil), {}, start ? *start : fresh_oil(charge.oil, charge.mass)};
+  run.result.trajectory.reserve(options.reserve_points);
   run.result.initial = run.state;
   run.open_charge(start_oil_hours);
   run.record_point();
@@ -288,7 +290,7 @@ RunResult simulate(const OilCharge& charge, const ModelParameters& model, const 
   if (run.any_segment && !r.charges.back().oil_limit_reached() && charge.continuous_makeup &&
       run.cache.oil_consumption > 0)
     r.steady_state = steady_state(run.state, run.k, run.cache.rates);  // under the last segment's rates
-  return r;
+  return std::move(r);  // not a copy: the trajectory of a long record is the run's largest part
 }
 
 RunResult simulate(const OilCharge& charge, const ModelParameters& model, const std::vector<Segment>& record,

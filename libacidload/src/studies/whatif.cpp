@@ -4,11 +4,40 @@
 
 namespace acidload {
 
-VariantSummary summarize(const EngineCase& c) {
+std::size_t record_segments(const EngineCase& c) { return c.streamed ? c.streamed->segments() : c.record.size(); }
+
+double record_hours(const EngineCase& c) {
+  if (c.streamed) return c.streamed->hours();
+  double h = 0;
+  for (const Segment& s : c.record) h += s.hours;
+  return h;
+}
+
+const Segment& first_segment(const EngineCase& c) {
+  if (c.streamed) return c.streamed->first();
   if (c.record.empty()) throw InputError("record", "(empty)", "at least one segment of operation");
+  return c.record.front();
+}
+
+EngineCase held_record(const EngineCase& c, std::size_t max_segments) {
+  if (!c.streamed) return c;
+  if (c.streamed->segments() > max_segments)
+    throw InputError("record", std::to_string(c.streamed->segments()) + " segments",
+                     "a record of at most " + std::to_string(max_segments) +
+                         " segments for this study, which holds the whole record in memory (run and check stream any length)");
+  EngineCase out = c;
+  out.streamed.reset();
+  out.record.reserve(c.streamed->segments());
+  const SegmentSource next = c.streamed->open();
+  while (const Segment* s = next()) out.record.push_back(*s);
+  return out;
+}
+
+VariantSummary summarize(const EngineCase& c) {
+  if (!c.streamed && c.record.empty()) throw InputError("record", "(empty)", "at least one segment of operation");
   VariantSummary v;
   v.name = c.name;
-  v.run = simulate(c.charge, c.model, c.record, c.options);
+  v.run = c.streamed ? simulate(c.charge, c.model, c.streamed->open(), c.options) : simulate(c.charge, c.model, c.record, c.options);
   const Transfer& t = v.run.first_transfer;
   v.inflow = t.inflow;
   v.inflow_koh = t.inflow.as_koh();
@@ -28,7 +57,7 @@ VariantSummary summarize(const EngineCase& c) {
     v.tbn_fall_rate_average = hours > 0 ? (tb.value - fresh) / hours : 0;
   }
   v.steady_state = v.run.steady_state;
-  const Operation& op = c.record.front().operation;
+  const Operation& op = first_segment(c).operation;
   v.dew_points = exhaust_dew_points(t.combustion, op.exhaust_pressure);
   v.emissions = emissions(t.exhaust, op.nox.o2_reference, op.nox.o2_air);
   if (c.catalyst_so3_conversion >= 0) {
@@ -36,13 +65,13 @@ VariantSummary summarize(const EngineCase& c) {
     v.emissions_after_catalyst = emissions(after, op.nox.o2_reference, op.nox.o2_air);
     v.dew_points_after_catalyst = exhaust_dew_points(as_products(after), op.exhaust_pressure);
   }
-  v.warnings = input_warnings(c.record.front().fuel, op, c.fuel_gas_limits);
+  v.warnings = input_warnings(first_segment(c).fuel, op, c.fuel_gas_limits);
   if (v.charge.oil_limit_reached())
     for (const Warning& w : interval_warnings(v.charge.drain_interval)) v.warnings.push_back(w);
   v.so3_share = c.model.transfer.so3_share;
   if (t.combustion.products[static_cast<std::size_t>(Gas::SO2)] > 0)
     v.so3_share_bound = so3_share_equilibrium_bound(t.combustion, c.exhaust_temperature,
-                                                   c.record.front().operation.exhaust_pressure);
+                                                   first_segment(c).operation.exhaust_pressure);
   return v;
 }
 

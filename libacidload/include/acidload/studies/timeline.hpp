@@ -89,6 +89,8 @@ struct RunOptions {
                                      //!< are then not located; for Monte Carlo, which reports these two)
   bool keep_segment_ends = true;     //!< a trajectory point at every segment end (off: only every
                                      //!< output_interval, at events and at the end — for long records)
+  std::size_t reserve_points = 0;    //!< room made for this many trajectory points up front (a long
+                                     //!< streamed record: the trajectory then is not copied as it grows)
 };
 
 //! The whole run.

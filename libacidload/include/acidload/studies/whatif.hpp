@@ -1,5 +1,7 @@
 #pragma once
 // What-if comparisons: an engine case and its variants, each summarised as a table row.
+#include <cstddef>
+#include <memory>
 #include <optional>
 #include <string>
 #include <vector>
@@ -11,12 +13,27 @@
 
 namespace acidload {
 
+//! A record read again from its source for each run instead of held in memory (a case's CSV
+//! record file as `acidload check`, `run` and Python read it): memory does not grow with its length.
+class RecordStream {
+ public:
+  virtual ~RecordStream() = default;
+  virtual std::size_t segments() const = 0;  //!< segments in the record
+  virtual double hours() const = 0;          //!< running hours in all [h]
+  virtual const Segment& first() const = 0;  //!< the first segment
+  //! A fresh reading of the record, segment by segment. Refuses (InputError) a source that is no
+  //! longer what was read when the case was loaded.
+  virtual SegmentSource open() const = 0;
+};
+
 //! Everything one run needs.
 struct EngineCase {
   std::string name;                //!< the variant's name ("raw gas", "scrubbed to 50 ppmv", …)
   OilCharge charge;                //!< the oil and how it is kept
   ModelParameters model;           //!< calibratable parameters and limits
-  std::vector<Segment> record;     //!< the operating record
+  std::vector<Segment> record;     //!< the operating record (empty when `streamed`)
+  //! Set instead of `record` when the record is streamed from its file; see held_record().
+  std::shared_ptr<const RecordStream> streamed;
   RunOptions options;              //!< output and detection settings
   double exhaust_temperature = 723.15;  //!< for the SO3 equilibrium bound [K]
   double catalyst_so3_conversion = -1;  //!< oxidation catalyst: share of SO2 it turns to SO3 [-]; < 0: none fitted
@@ -45,7 +62,17 @@ struct VariantSummary {
   RunResult run;                       //!< the full run (trajectories)
 };
 
-//! Runs a case and summarises it.
+//! Segments in the record, held or streamed.
+std::size_t record_segments(const EngineCase& c);
+//! Running hours of the record, held or streamed [h].
+double record_hours(const EngineCase& c);
+//! The record's first segment, held or streamed (the record must not be empty).
+const Segment& first_segment(const EngineCase& c);
+//! The case with a streamed record read into `record` (for studies that index segments); refused
+//! (InputError naming the record) when it holds more than `max_segments`. A held case is returned as it is.
+EngineCase held_record(const EngineCase& c, std::size_t max_segments);
+
+//! Runs a case and summarises it (a streamed record is read through once).
 VariantSummary summarize(const EngineCase& c);
 
 }  // namespace acidload
