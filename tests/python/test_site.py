@@ -185,6 +185,7 @@ def test_the_schema_takes_the_demo_site_and_refuses_what_the_site_reader_refuses
     assert not list(validator.iter_errors(good))
     for mutate in (
         lambda d: d.__setitem__("variants", [{"name": "x"}]),                    # no variants in a site file
+        lambda d: d.__setitem__("lab", {"precision": {"tan": "0.1 mg KOH/g"}}),  # no lab settings in a site file
         lambda d: d["site"]["engines"][0].__setitem__("fuel", {"h2s": "5 ppmv"}),  # one gas supply
         lambda d: d["site"]["engines"][0].pop("name"),                           # every engine named
         lambda d: d["site"]["gas-record"]["segments"][0].__setitem__("load", "50 %"),  # gas figures only
