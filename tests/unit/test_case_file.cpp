@@ -9,6 +9,7 @@
 #include "acidload/acidload.hpp"
 #include "acidload/io/case_file.hpp"
 #include "acidload/io/site_file.hpp"
+#include "../support/scratch.hpp"
 
 using namespace acidload;
 
@@ -148,7 +149,7 @@ TEST_CASE("fuel-gas limits per kWh of fuel heat read as per MJ") {
 
 TEST_CASE("an overlay merges over the base before the variants") {
   namespace fs = std::filesystem;
-  const fs::path dir = fs::temp_directory_path() / "acidload-overlay-test";
+  const fs::path dir = acidload::test::scratch_path("acidload-overlay-test");
   fs::create_directories(dir);
   { std::ofstream(dir / "case.yaml") << case_text; }
   { std::ofstream(dir / "fit.yaml") << "format-version: 1\nmodel:\n  so3-share: 3 %\n"; }

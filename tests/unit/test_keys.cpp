@@ -18,6 +18,7 @@
 #include "acidload/io/case_file.hpp"
 #include "acidload/io/keys.hpp"
 #include "acidload/io/lab_file.hpp"
+#include "../support/scratch.hpp"
 
 using namespace acidload;
 
@@ -239,7 +240,7 @@ TEST_CASE("a variant or an overlay may swap one key of a pair for the other") {
   CHECK_THROWS_WITH_AS(load(both), doctest::Contains("either 'power' or 'load', not both"), InputError);
 
   namespace fs = std::filesystem;
-  const fs::path dir = fs::temp_directory_path() / "acidload-test-keys";
+  const fs::path dir = acidload::test::scratch_path("acidload-test-keys");
   fs::create_directories(dir / "over");
   std::ofstream(dir / "case.yaml") << c.text();
   std::ofstream(dir / "over" / "power.yaml") << "format-version: 1\nengine: {power: 700 kW}\n";
@@ -251,7 +252,7 @@ TEST_CASE("a variant or an overlay may swap one key of a pair for the other") {
 
 TEST_CASE("a record file named in an overlay resolves next to the overlay") {
   namespace fs = std::filesystem;
-  const fs::path dir = fs::temp_directory_path() / "acidload-test-overlay-record";
+  const fs::path dir = acidload::test::scratch_path("acidload-test-overlay-record");
   fs::create_directories(dir / "over");
   CaseText c;
   std::ofstream(dir / "case.yaml") << c.text();
@@ -271,7 +272,7 @@ TEST_CASE("a variant named '' is refused at its line") {
 
 TEST_CASE("lab files: a SAN limit below zero and an initial pH outside 0-14 are refused at the cell") {
   namespace fs = std::filesystem;
-  const fs::path dir = fs::temp_directory_path() / "acidload-test-lab-refusals";
+  const fs::path dir = acidload::test::scratch_path("acidload-test-lab-refusals");
   fs::create_directories(dir);
   const auto refused = [&](const std::string& san, const std::string& ph, const std::string& fragment) {
     const fs::path p = dir / "lab.csv";

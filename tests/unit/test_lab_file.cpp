@@ -9,13 +9,14 @@
 #include "acidload/io/fitted_overlay.hpp"
 #include "acidload/io/lab_file.hpp"
 #include "acidload/studies/parameters.hpp"
+#include "../support/scratch.hpp"
 
 using namespace acidload;
 namespace fs = std::filesystem;
 
 namespace {
 fs::path write(const std::string& name, const std::string& text) {
-  const fs::path p = fs::temp_directory_path() / name;
+  const fs::path p = acidload::test::scratch_path(name);
   std::ofstream(p) << text;
   return p;
 }
@@ -108,7 +109,7 @@ uncertainty:
   fit.degrees_of_freedom = 20;
   fit.parameters = {{"model.liner-uptake", 2.5e-4, 3.1e-4, 2e-5, 0, 0}, {"model.oxidation-rate", 0.008, 0.0102, 6e-4, 0, 0},
                     {"model.organic-acid-yield", 0.08, 0.09, 0.01, 0, 0}, {"engine.blow-by", 0.01, 0.012, 0.001, 0, 0}};
-  const fs::path ov = fs::temp_directory_path() / "acidload-overlay.yaml";
+  const fs::path ov = acidload::test::scratch_path("acidload-overlay.yaml");
   const fs::path cs = write("acidload-overlay-case.yaml", text);
   io::write_overlay(ov.string(), fit, cs.string(), "lab.csv");
   const io::CaseFile with = io::load_case(cs.string(), {ov.string()});
@@ -142,7 +143,7 @@ oil: {volume: 600 L, fresh-tbn: 30 mg KOH/g, consumption: 0.2 g/kWh}
     if (p.key == "model.base-floor") v = 2.5;  // below the fresh TBN of 30 mg KOH/g
     fit.parameters.push_back({p.key, get_parameter(base, p.key), v, 0.1 * v, 0, 0});
   }
-  const fs::path ov = fs::temp_directory_path() / "acidload-overlay-all.yaml";
+  const fs::path ov = acidload::test::scratch_path("acidload-overlay-all.yaml");
   io::write_overlay(ov.string(), fit, cs.string(), "lab.csv");
   const EngineCase e = io::load_case(cs.string(), {ov.string()}).variants[0];
   for (const FittedParameter& p : fit.parameters) {

@@ -17,6 +17,7 @@
 #include "acidload/io/report.hpp"
 #include "acidload/io/svg.hpp"
 #include "acidload/studies/fit_band.hpp"
+#include "../support/scratch.hpp"
 
 using namespace acidload;
 using namespace acidload::io;
@@ -268,7 +269,7 @@ TEST_CASE("the report page of the demo case is well-formed, marks its inputs and
 
 TEST_CASE("the overlay of a fit marks its parameters as fitted") {
   namespace fs = std::filesystem;
-  const fs::path dir = fs::temp_directory_path() / "acidload-report-test";
+  const fs::path dir = acidload::test::scratch_path("acidload-report-test");
   fs::create_directories(dir);
   const fs::path ov = dir / "fitted.yaml";
   std::ofstream(ov) << "# Fitted by acidload test\nformat-version: 1\nmodel:\n  liner-uptake: 2 %\n";
@@ -281,7 +282,7 @@ TEST_CASE("the overlay of a fit marks its parameters as fitted") {
 
 TEST_CASE("a report replaces only a file that is an acidload report, and atomically") {
   namespace fs = std::filesystem;
-  const fs::path dir = fs::temp_directory_path() / "acidload-report-write";
+  const fs::path dir = acidload::test::scratch_path("acidload-report-write");
   fs::remove_all(dir);
   fs::create_directories(dir);
   const fs::path other = dir / "notes.html";
