@@ -2,7 +2,6 @@
 
 #include <cmath>
 #include <cstring>
-#include <type_traits>
 
 #include "acidload/core/error.hpp"
 #include "acidload/core/oil_rates.hpp"
@@ -20,12 +19,32 @@ OilRates segment_rates(const Segment& s, const OilCharge& charge, const ModelPar
 
 namespace {
 
-// Bitwise equality of two plain structs: equal bits give equal results, so a repeat may reuse
-// them (conservative: -0 against +0, or differing padding, only cost a recomputation).
-template <class T>
-bool same_bits(const T& a, const T& b) {
-  static_assert(std::is_trivially_copyable_v<T>, "compared bit by bit");
-  return std::memcmp(&a, &b, sizeof(T)) == 0;
+// Equality of operating states by value, field by field, each double compared by its bits (equal
+// bits give equal results, so a repeat may reuse them; -0 against +0 only costs a recomputation).
+// Not memcmp of the whole struct: the padding after an enum (NoxEmission::unit, FuelGas::combustion)
+// holds whatever the stack held, so equal states compared unequal at random and the transfer was
+// recomputed for every segment. The size assertions fail when a field is added: compare it too.
+bool same(double a, double b) { return std::memcmp(&a, &b, sizeof(double)) == 0; }
+
+bool same(const Operation& a, const Operation& b) {
+  static_assert(sizeof(Operation) == 17 * sizeof(double), "a field was added to Operation: compare it here");
+  return same(a.fuel_flow, b.fuel_flow) && same(a.electrical_power, b.electrical_power) && same(a.load, b.load) &&
+         same(a.air.excess_air_ratio, b.air.excess_air_ratio) && same(a.air.water_fraction, b.air.water_fraction) &&
+         same(a.blowby_share, b.blowby_share) && same(a.blowby_flow, b.blowby_flow) &&
+         same(a.jacket_water_out, b.jacket_water_out) && same(a.coldest_crankcase_surface, b.coldest_crankcase_surface) &&
+         same(a.crankcase_pressure, b.crankcase_pressure) && same(a.exhaust_pressure, b.exhaust_pressure) &&
+         same(a.starts_per_hour, b.starts_per_hour) && same(a.jacket_water_at_start, b.jacket_water_at_start) &&
+         same(a.nox.value, b.nox.value) && a.nox.unit == b.nox.unit && same(a.nox.o2_reference, b.nox.o2_reference) &&
+         same(a.nox.o2_air, b.nox.o2_air);
+}
+
+bool same(const FuelGas& a, const FuelGas& b) {
+  static_assert(sizeof(FuelGas) == (gas_count + 6) * sizeof(double), "a field was added to FuelGas: compare it here");
+  for (std::size_t i = 0; i < gas_count; ++i)
+    if (!same(a.x[i], b.x[i])) return false;
+  return same(a.other_sulfur, b.other_sulfur) && same(a.chlorine, b.chlorine) && same(a.fluorine, b.fluorine) &&
+         same(a.reference.temperature, b.reference.temperature) && same(a.reference.pressure, b.reference.pressure) &&
+         a.combustion == b.combustion;
 }
 
 // The rates of the last operating state, reused while the state repeats (a record often holds
@@ -41,8 +60,8 @@ struct RateCache {
   const OilRates& of(const Segment& s, const OilCharge& charge, const ModelParameters& model) {
     Operation op2 = s.operation;
     op2.starts_per_hour = s.hours > 0 ? s.starts / s.hours : 0;
-    if (valid && same_bits(op2, op) && same_bits(s.fuel, fuel) && s.oil_temperature == oil_temperature &&
-        s.oil_consumption == oil_consumption)
+    if (valid && same(op2, op) && same(s.fuel, fuel) && same(s.oil_temperature, oil_temperature) &&
+        same(s.oil_consumption, oil_consumption))
       return rates;
     valid = false;
     transfer = acidload::transfer(s.fuel, op2, model.transfer, false);
