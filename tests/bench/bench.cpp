@@ -6,6 +6,8 @@
 //                    bytes; (2b) Monte Carlo on the demo history with and without the early stop,
 //                    1 and 2 threads; (6) memory of a ten-year one-minute record against a one-year one
 //   bench --memory-run YEARS   stream YEARS of one-minute segments, print the peak resident memory
+//   bench --limit-side SIDE [N]  run one side of (5) N times (minimal, balance, simulate, daily; once by
+//                    default, for callgrind), print its end base and CPU time per segment
 //   bench --record-csv FILE    write the one-year hourly record's inputs for the Python side
 #include <sys/resource.h>
 #include <sys/wait.h>
@@ -61,7 +63,7 @@ double load_at(double hour) { return 0.85 + 0.15 * std::sin(hour / 24 * 6.283185
 
 OilCharge charge() {
   OilCharge c;
-  c.oil.fresh_tbn = 9.0;  // a charge that lasts the year with makeup
+  c.oil.fresh_tbn = 12.0;  // a charge that lasts the year with makeup, above the base floor
   c.mass = 0.6 * c.oil.density_15;
   return c;
 }
@@ -162,31 +164,54 @@ double cpu_seconds(F f) {
 }
 
 // The limit: the oil balance of a record of constant-rate segments above the base floor with
-// continuous makeup, written for the benchmark from the balance's equations (no library call in
-// the loop): every state y obeys dy/dt = A − L·y over a segment, so y ← y∞ + (y − y∞)·e^{−L·h},
-// y∞ = A/L, with three distinct exponentials per segment (the makeup k, k + SO2 uptake, k + additive
-// depletion). States: reactive base b, weak acid w, u = b + salts, oxidation, nitration, additive.
+// continuous makeup, written for the benchmark from the balance's equations (docs/model.md; no
+// library call in the loop): every state y obeys dy/dt = A − L·y over a segment, so
+// y ← y∞ + (y − y∞)·e^{−L·h}, y∞ = A/L, with three distinct exponentials per segment (the makeup k,
+// k + SO2 uptake, k + additive depletion). States: reactive base b, weak acid w, u = b + salts,
+// oxidation, nitration, additive, antioxidant reserve a (dA/dt = k − k_A − k·A while any is left;
+// once spent with k_A > k, oxidation and organic acid run at m − (m − 1)·k/k_A times the protected
+// rates). The one segment in which the reserve runs out is split there (a logarithm, once a year).
 struct Minimal {
-  double b, w, u, ox, ni, add;
+  double b, w, u, ox, ni, add, anti;
 };
+inline void minimal_piece(Minimal& y, const OilRates& r, const OilBalance& k, double M, double h, double f) {
+  const double phi = k.organic_neutralised_share, bf = k.fresh_base, bmin = k.base_floor;
+  const double km = r.consumption / M, l1 = r.sulfurous_fresh / (bf - bmin) / M, rw = r.organic_acid * f;
+  const double e_k = std::exp(-km * h), e_b = std::exp(-(km + l1) * h), e_a = std::exp(-(km + k.additive_depletion) * h);
+  const double b_inf = (-r.strong_acid / M - phi * rw + l1 * bmin + km * bf) / (km + l1);
+  y.b = b_inf + (y.b - b_inf) * e_b;
+  const double w_inf = (1 - phi) * rw / km;
+  y.w = w_inf + (y.w - w_inf) * e_k;
+  y.u = bf + (y.u - bf) * e_k;
+  const double ox_inf = r.oxidation * f / km, ni_inf = r.nitration / M / km;
+  y.ox = ox_inf + (y.ox - ox_inf) * e_k;
+  y.ni = ni_inf + (y.ni - ni_inf) * e_k;
+  const double add_inf = km * k.fresh_additive / (km + k.additive_depletion);
+  y.add = add_inf + (y.add - add_inf) * e_a;
+  if (y.anti > 0 || r.antioxidant_depletion < km) {
+    const double a_inf = (km - r.antioxidant_depletion) / km;
+    y.anti = std::fmin(1.0, std::fmax(0.0, a_inf + (y.anti - a_inf) * e_k));
+  }
+}
 Minimal minimal_loop(const std::vector<double>& hours, const std::vector<OilRates>& rates, const OilBalance& k, double M,
                      const OilState& start) {
-  Minimal y{start.base, start.weak_acid, start.base + start.salts, start.oxidation, start.nitration, start.additive_acidity};
-  const double phi = k.organic_neutralised_share, bf = k.fresh_base, bmin = k.base_floor;
+  Minimal y{start.base, start.weak_acid, start.base + start.salts, start.oxidation, start.nitration, start.additive_acidity,
+            start.antioxidant};
   for (std::size_t i = 0; i < rates.size(); ++i) {
     const OilRates& r = rates[i];
-    const double h = hours[i], km = r.consumption / M, l1 = r.sulfurous_fresh / (bf - bmin) / M;
-    const double e_k = std::exp(-km * h), e_b = std::exp(-(km + l1) * h), e_a = std::exp(-(km + k.additive_depletion) * h);
-    const double b_inf = (-r.strong_acid / M - phi * r.organic_acid + l1 * bmin + km * bf) / (km + l1);
-    y.b = b_inf + (y.b - b_inf) * e_b;
-    const double w_inf = (1 - phi) * r.organic_acid / km;
-    y.w = w_inf + (y.w - w_inf) * e_k;
-    y.u = bf + (y.u - bf) * e_k;
-    const double ox_inf = r.oxidation / km, ni_inf = r.nitration / M / km;
-    y.ox = ox_inf + (y.ox - ox_inf) * e_k;
-    y.ni = ni_inf + (y.ni - ni_inf) * e_k;
-    const double add_inf = km * k.fresh_additive / (km + k.additive_depletion);
-    y.add = add_inf + (y.add - add_inf) * e_a;
+    const double km = r.consumption / M, kA = r.antioxidant_depletion;
+    const bool spent = y.anti <= 0 && kA > km;
+    const double f = spent ? r.depleted_factor - (r.depleted_factor - 1) * std::fmin(1.0, km / kA) : 1.0;
+    if (!spent && y.anti > 0 && kA > km) {  // does the reserve run out in this segment? a(t) = a∞ + (a0 − a∞) e^{−k t}, a∞ < 0
+      const double a_inf = (km - kA) / km, t0 = std::log((y.anti - a_inf) / -a_inf) / km;
+      if (t0 < hours[i]) {
+        minimal_piece(y, r, k, M, t0, 1.0);
+        y.anti = 0;
+        minimal_piece(y, r, k, M, hours[i] - t0, r.depleted_factor - (r.depleted_factor - 1) * std::fmin(1.0, km / kA));
+        continue;
+      }
+    }
+    minimal_piece(y, r, k, M, hours[i], f);
   }
   return y;
 }
@@ -235,10 +260,46 @@ std::vector<double> draws_without_stop(const EngineCase& c0, const std::vector<U
   return out;
 }
 
+// One side of part 5 run once, for an instruction count that the machine's load does not move
+// (valgrind --tool=callgrind acidload_bench --limit-side SIDE); prints the end base.
+int limit_side(const char* side, int repeats) {
+  const std::vector<Segment> record = std::strcmp(side, "daily") == 0 ? hourly_year_daily_readings() : hourly_year();
+  const OilCharge c = charge();
+  const ModelParameters m = model();
+  const OilBalance k = balance_constants(c.oil);
+  std::vector<double> hours;
+  std::vector<OilRates> rates;
+  for (const Segment& s : record) {
+    hours.push_back(s.hours);
+    rates.push_back(oil_rates(transfer(s.fuel, s.operation, m.transfer), m.oxidation, s.oil_temperature, s.oil_consumption, true));
+  }
+  const OilState start = fresh_oil(c.oil, c.mass);
+  double base = 0;
+  const double a = thread_cpu();
+  for (int rep = 0; rep < repeats; ++rep) {
+  if (std::strcmp(side, "minimal") == 0) {
+    base = minimal_loop(hours, rates, k, c.mass, start).b;
+  } else if (std::strcmp(side, "balance") == 0) {
+    OilState bal = start;
+    OilLedger ledger;
+    for (std::size_t i = 0; i < rates.size(); ++i) advance(bal, k, rates[i], hours[i], ledger);
+    base = bal.base;
+  } else if (std::strcmp(side, "simulate") == 0 || std::strcmp(side, "daily") == 0) {
+    base = simulate(c, m, record).final_state.base;
+  } else {
+    std::fprintf(stderr, "--limit-side: one of minimal, balance, simulate, daily\n");
+    return 2;
+  }
+  }
+  std::printf("%.17g %.4f us/segment (CPU time of the thread, %d runs)\n", base, (thread_cpu() - a) / repeats / 8760 * 1e6, repeats);
+  return 0;
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
   if (argc == 3 && std::strcmp(argv[1], "--memory-run") == 0) return memory_run(std::atof(argv[2]));
+  if ((argc == 3 || argc == 4) && std::strcmp(argv[1], "--limit-side") == 0) return limit_side(argv[2], argc == 4 ? std::atoi(argv[3]) : 1);
   // one side of bench.py's record reading (part 4), run in a child so that bench.py interleaves it
   // with its own sides: prints the CPU seconds of this thread for the C++ call, and its peak memory
   if (argc == 3 && std::strcmp(argv[1], "--load-record") == 0) {

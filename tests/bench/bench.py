@@ -114,7 +114,7 @@ def part1(bench_program):
         subprocess.run([bench_program, "--record-csv", str(path)], check=True, capture_output=True)
         table = np.loadtxt(path, delimiter=",", skiprows=1)
     props = core.oil.OilProperties()
-    props.fresh_tbn = 9.0  # as the C++ benchmark's charge: TBN 9, 600 L at 880 kg/m3
+    props.fresh_tbn = 12.0  # as the C++ benchmark's charge: TBN 12, 600 L at 880 kg/m3
     k = core.oil.balance_constants(props)
     start = core.oil.fresh_oil(props, 0.6 * props.density_15)
     mass = start.mass
