@@ -2,6 +2,7 @@
 
 #include <cmath>
 #include <cstring>
+#include <limits>
 
 #include "acidload/core/error.hpp"
 #include "acidload/core/oil_rates.hpp"
@@ -72,6 +73,10 @@ struct RateCache {
   }
 };
 
+// v ≥ 0 and finite, inline (NaN fails both comparisons, +inf the second): the common case of a
+// segment's checks without a call; check:: then names the field.
+bool finite_non_negative(double v) { return v >= 0 && v <= std::numeric_limits<double>::max(); }
+
 struct Runner {
   const OilCharge& charge;
   const ModelParameters& model;
@@ -85,6 +90,7 @@ struct Runner {
   bool any_segment = false;             // the last segment's rates (in the cache) give the steady state
   double fuel_s = 0, oil_s = 0;         // fuel sulfur and sulfur to the oil of the current charge up to its first limit [mol]
   double since_output = 0;              // hours since the last output point
+  const double so2_g_koh_per_mol = 2 * koh_molar_mass() * 1e3;  // SO2 counts 2 equivalents of KOH
 
   ChargeSummary& current() { return result.charges.back(); }
 
@@ -130,7 +136,7 @@ struct Runner {
     ChargeSummary& c = current();
     for (Limit l : all_limits) {
       const auto i = static_cast<std::size_t>(l);
-      if (c.reached_at[i] >= 0) continue;
+      if (c.reached_at[i] >= 0 || !model.limits.enabled[i]) continue;  // a disabled limit never reads reached
       if (opt.stop_when_interval_and_san_known && c.first && l != Limit::san) continue;  // not asked for
       if (!read_limit(l, model.limits, charge.oil, state, oil_h).reached) continue;
       // Illinois (regula falsi) on the exact solution's margin to the limit: not reached at lo,
@@ -177,7 +183,7 @@ struct Runner {
         if (!had_first) {  // charge averages up to the first limit: only the part of the step before it
           const double strong_s = t.inflow.sulfuric_liner + t.inflow.sulfuric_blowby;
           fuel_s += t.sulfur_flow * std::fmax(back, 0.0);
-          oil_s += strong_s * std::fmax(back, 0.0) + scratch.sulfurous_taken_up / (2 * koh_molar_mass() * 1e3);
+          oil_s += strong_s * std::fmax(back, 0.0) + scratch.sulfurous_taken_up / so2_g_koh_per_mol;
           if (fuel_s > 0) c.sulfur_share_to_oil_average = oil_s / fuel_s;
         }
         for (Limit l : all_limits)
@@ -222,8 +228,8 @@ struct Runner {
   }
 
   void run_segment(const Segment& s, bool first) {
-    check::non_negative("segment.hours", s.hours);
-    check::non_negative("segment.starts", s.starts);
+    if (!finite_non_negative(s.hours)) check::non_negative("segment.hours", s.hours);
+    if (!finite_non_negative(s.starts)) check::non_negative("segment.starts", s.starts);
     for (const OilEvent& e : s.events) apply(e);
     const OilRates r = cache.of(s, charge, model);
     if (first) result.first_transfer = cache.transfer, result.first_rates = r;
@@ -249,7 +255,7 @@ struct Runner {
         else if (o.floor_reached_at > dt) dt = o.floor_reached_at;    // no free acid before the floor
       }
       const SegmentOutcome out = advance(state, k, r, dt, result.ledger);
-      const double so2_mol = (result.ledger.sulfurous_taken_up - so2_before) / (2 * koh_molar_mass() * 1e3);
+      const double so2_mol = (result.ledger.sulfurous_taken_up - so2_before) / so2_g_koh_per_mol;
       const bool counting = !current().first;
       if (out.floor_reached_at >= 0 && current().floor_reached_at < 0) current().floor_reached_at = oil_h + out.floor_reached_at;
       if (out.antioxidant_spent_at >= 0 && current().antioxidant_spent_at < 0)
@@ -277,8 +283,13 @@ struct Runner {
 
 }  // namespace
 
-RunResult simulate(const OilCharge& charge, const ModelParameters& model, const SegmentSource& next,
-                   const RunOptions& options, const std::optional<OilState>& start, double start_oil_hours) {
+namespace {
+// simulate() with room for `points` trajectory points made at once where the record's length is
+// known: a point per segment grown by doubling cost more than the oil balance itself (copies and
+// first touches of the new blocks).
+RunResult run_record(const OilCharge& charge, const ModelParameters& model, const SegmentSource& next,
+                     const RunOptions& options, const std::optional<OilState>& start, double start_oil_hours,
+                     std::size_t points) {
   validate(charge.oil);
   check::positive("oil.mass", charge.mass);
   check::in_range("oil.residual-share", charge.residual_share, 0.0, 0.9, "(share)");
@@ -286,6 +297,7 @@ RunResult simulate(const OilCharge& charge, const ModelParameters& model, const 
   validate(model.transfer);  // constant over the run: validated once here, not per segment
   validate(model.oxidation);
   Runner run{charge, model, options, balance_constants(charge.oil), {}, start ? *start : fresh_oil(charge.oil, charge.mass)};
+  run.result.trajectory.reserve(points);
   run.result.initial = run.state;
   run.open_charge(start_oil_hours);
   run.record_point();
@@ -309,12 +321,24 @@ RunResult simulate(const OilCharge& charge, const ModelParameters& model, const 
     r.steady_state = steady_state(run.state, run.k, run.cache.rates);  // under the last segment's rates
   return r;
 }
+}  // namespace
+
+RunResult simulate(const OilCharge& charge, const ModelParameters& model, const SegmentSource& next,
+                   const RunOptions& options, const std::optional<OilState>& start, double start_oil_hours) {
+  return run_record(charge, model, next, options, start, start_oil_hours, 1);
+}
 
 RunResult simulate(const OilCharge& charge, const ModelParameters& model, const std::vector<Segment>& record,
                    const RunOptions& options, const std::optional<OilState>& start, double start_oil_hours) {
   std::size_t i = 0;
-  return simulate(charge, model, [&]() -> const Segment* { return i < record.size() ? &record[i++] : nullptr; },
-                  options, start, start_oil_hours);
+  // the start, a point per segment end and one per event (events, too, record a point)
+  std::size_t points = 1;
+  if (options.keep_segment_ends && options.output_interval <= 0) {
+    points += record.size();
+    for (const Segment& s : record) points += s.events.size();
+  }
+  return run_record(charge, model, [&]() -> const Segment* { return i < record.size() ? &record[i++] : nullptr; },
+                    options, start, start_oil_hours, points);
 }
 
 }  // namespace acidload
