@@ -1,5 +1,6 @@
 #include "acidload/studies/timeline.hpp"
 
+#include <array>
 #include <cmath>
 #include <cstring>
 #include <limits>
@@ -90,6 +91,8 @@ struct Runner {
   bool any_segment = false;             // the last segment's rates (in the cache) give the steady state
   double fuel_s = 0, oil_s = 0;         // fuel sulfur and sulfur to the oil of the current charge up to its first limit [mol]
   double since_output = 0;              // hours since the last output point
+  std::array<Limit, limit_count> watched{};  // the current charge's enabled limits not reached yet, in order
+  std::size_t watched_count = 0;
   const double so2_g_koh_per_mol = 2 * koh_molar_mass() * 1e3;  // SO2 counts 2 equivalents of KOH
 
   ChargeSummary& current() { return result.charges.back(); }
@@ -100,13 +103,16 @@ struct Runner {
     c.start_engine_hours = engine_h;
     c.reached_at.fill(-1);
     result.charges.push_back(c);
+    watched_count = 0;  // a disabled limit never reads reached: not watched
+    for (Limit l : all_limits)
+      if (model.limits.enabled[static_cast<std::size_t>(l)]) watched[watched_count++] = l;
     fuel_s = oil_s = 0;
     oil_h = oil_hours;
   }
 
   void record_point() {
     since_output = 0;
-    TrajectoryPoint p;
+    TrajectoryPoint& p = result.trajectory.emplace_back();  // filled in place
     p.engine_hours = engine_h;
     p.oil_hours = oil_h;
     p.calendar_hours = calendar_h;
@@ -118,7 +124,6 @@ struct Runner {
     p.tan = acidload::tan(state, charge.oil);
     p.san = san(state);
     p.viscosity_rise = acidload::viscosity_rise(state, charge.oil);
-    result.trajectory.push_back(p);
   }
 
   void close_charge() {
@@ -134,11 +139,14 @@ struct Runner {
   void check_limits(const OilState& before, const OilRates& r, double dt, const Transfer& t) {
     const bool had_first = current().first.has_value();
     ChargeSummary& c = current();
-    for (Limit l : all_limits) {
+    std::size_t kept = 0;  // the watched limits not reached in this step, in their order
+    for (std::size_t w = 0; w < watched_count; ++w) {
+      const Limit l = watched[w];
       const auto i = static_cast<std::size_t>(l);
-      if (c.reached_at[i] >= 0 || !model.limits.enabled[i]) continue;  // a disabled limit never reads reached
+      watched[kept++] = l;
       if (opt.stop_when_interval_and_san_known && c.first && l != Limit::san) continue;  // not asked for
       if (!read_limit(l, model.limits, charge.oil, state, oil_h).reached) continue;
+      --kept;  // reached: located below, no longer watched
       // Illinois (regula falsi) on the exact solution's margin to the limit: not reached at lo,
       // reached at hi; a bisection step whenever the secant falls outside the bracket
       const LimitReading at_start = read_limit(l, model.limits, charge.oil, before, oil_h - dt);
@@ -167,6 +175,7 @@ struct Runner {
       }
       c.reached_at[i] = oil_h - dt + hi;
     }
+    watched_count = kept;
     // the first limit and the readings there
     if (!c.first) {
       double t_first = -1;
