@@ -367,14 +367,20 @@ int main(int argc, char** argv) {
   RunResult full, full_daily;
   std::vector<double> r_bal, r_full, r_daily, t_lim;
   for (int round = 0; round < rounds; ++round) {
-    const double a = cpu_seconds([&] { lim = minimal_loop(hours, rates, k, c.mass, start); });
-    const double b = cpu_seconds([&] {
-      bal = start;
-      OilLedger ledger;
-      for (std::size_t i = 0; i < rates.size(); ++i) advance(bal, k, rates[i], hours[i], ledger);
-    });
-    const double f = cpu_seconds([&] { full = simulate(c, m, year); });
-    const double d = cpu_seconds([&] { full_daily = simulate(c, m, daily); });
+    // the order turns by one side each round (A B C D, B C D A …): no side always follows the same one
+    double a = 0, b = 0, f = 0, d = 0;
+    for (int j = 0; j < 4; ++j) switch ((round + j) % 4) {
+        case 0: a = cpu_seconds([&] { lim = minimal_loop(hours, rates, k, c.mass, start); }); break;
+        case 1:
+          b = cpu_seconds([&] {
+            bal = start;
+            OilLedger ledger;
+            for (std::size_t i = 0; i < rates.size(); ++i) advance(bal, k, rates[i], hours[i], ledger);
+          });
+          break;
+        case 2: f = cpu_seconds([&] { full = simulate(c, m, year); }); break;
+        default: d = cpu_seconds([&] { full_daily = simulate(c, m, daily); }); break;
+      }
     t_lim.push_back(a / 8760 * 1e6);
     r_bal.push_back(b / a), r_full.push_back(f / a), r_daily.push_back(d / a);
   }
