@@ -13,12 +13,14 @@
 #include <sys/wait.h>
 
 #include <algorithm>
+#include <array>
 #include <chrono>
 #include <ctime>
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
 #include <cstring>
+#include <random>
 #include <string>
 #include <thread>
 #include <vector>
@@ -366,10 +368,13 @@ int main(int argc, char** argv) {
   OilState bal{};
   RunResult full, full_daily;
   std::vector<double> r_bal, r_full, r_daily, t_lim;
+  std::array<int, 4> order{0, 1, 2, 3};
+  std::mt19937 shuffle(19);
   for (int round = 0; round < rounds; ++round) {
-    // the order turns by one side each round (A B C D, B C D A …): no side always follows the same one
+    // the order shuffled each round (a fixed seed): no side always runs right after the same one
+    std::shuffle(order.begin(), order.end(), shuffle);
     double a = 0, b = 0, f = 0, d = 0;
-    for (int j = 0; j < 4; ++j) switch ((round + j) % 4) {
+    for (int j = 0; j < 4; ++j) switch (order[static_cast<std::size_t>(j)]) {
         case 0: a = cpu_seconds([&] { lim = minimal_loop(hours, rates, k, c.mass, start); }); break;
         case 1:
           b = cpu_seconds([&] {

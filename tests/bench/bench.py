@@ -18,6 +18,7 @@ import csv
 import multiprocessing
 import os
 import pathlib
+import random
 import statistics
 import subprocess
 import sys
@@ -39,16 +40,19 @@ ROUNDS = 5
 
 def interleaved(sides, rounds=ROUNDS, clock=time.perf_counter):
     """Times each side once per round, in turn; returns {name: [seconds per round]} and the last results.
-    The order turns by one side each round (A B C, B C A, C A B …), so that no side always follows the
-    same one: a side run after a heavy one finds its caches cold (acidload's year took 0.048 us per
-    segment right after solve_ivp against 0.039 after itself, when it always came first).
+    The order is shuffled each round (a fixed seed), so that no side always follows the same one: a
+    side run right after a heavy one finds its caches cold (acidload's year took 0.048 us per segment
+    right after solve_ivp, 0.039 right after itself, and in a fixed order it always came after it;
+    turning the order each round keeps every side's neighbours, so it would not help).
     clock=time.thread_time times the CPU of this thread only, for sides that run on it alone: on a
     shared machine it leaves out the time the thread waits for a core."""
     times = {name: [] for name in sides}
     results = {}
     order = list(sides.items())
-    for r in range(rounds):
-        for name, f in order[r % len(order):] + order[:r % len(order)]:
+    shuffle = random.Random(19)
+    for _ in range(rounds):
+        shuffle.shuffle(order)
+        for name, f in order:
             t = clock()
             results[name] = f()
             times[name].append(clock() - t)
