@@ -11,9 +11,6 @@ namespace acidload {
 // ---------------------------------------------------------------------------------------------
 // Oil, oxidation and readings
 
-double OilProperties::weak_base(BaseNumberMethod m) const {
-  return m == BaseNumberMethod::d2896 ? weak_base_d2896 : weak_base_d4739;
-}
 double OilProperties::fresh_reactive_base() const { return fresh_tbn - weak_base(fresh_tbn_method); }
 
 void validate(const OilProperties& o) {
@@ -73,17 +70,6 @@ OilState fresh_oil(const OilProperties& oil, double mass) {
   return s;
 }
 
-double tbn(const OilState& s, const OilProperties& oil, BaseNumberMethod m) { return s.base + oil.weak_base(m); }
-double tan(const OilState& s, const OilProperties& oil) {
-  return s.additive_acidity + s.weak_acid + s.strong_acid + oil.salt_titration_share * s.salts;
-}
-double san(const OilState& s) { return s.strong_acid; }
-double viscosity_rise(const OilState& s, const OilProperties& oil) {
-  return oil.viscosity_per_oxidation * s.oxidation + oil.viscosity_per_nitration * s.nitration;
-}
-double anti_wear_remaining(const OilState& s, const OilProperties& oil) {
-  return oil.fresh_tan > 0 ? s.additive_acidity / oil.fresh_tan : 1.0;
-}
 
 namespace {
 // v ≥ 0 and finite, inline: NaN fails both comparisons, +inf the second.
