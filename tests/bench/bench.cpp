@@ -6,7 +6,7 @@
 //                    bytes; (2b) Monte Carlo on the demo history with and without the early stop,
 //                    1 and 2 threads; (6) memory of a ten-year one-minute record against a one-year one
 //   bench --memory-run YEARS   stream YEARS of one-minute segments, print the peak resident memory
-//   bench --limit-side SIDE [N]  run one side of (5) N times (minimal, balance, simulate, daily; once by
+//   bench --limit-side SIDE [N]  run one side of (5) N times (minimal, balance, simulate, daily, cycle; once by
 //                    default, for callgrind), print its end base and CPU time per segment
 //   bench --record-csv FILE    write the one-year hourly record's inputs for the Python side
 #include <sys/resource.h>
@@ -226,6 +226,15 @@ std::vector<Segment> hourly_year_daily_readings() {
   return r;
 }
 
+// A year of hourly segments on a daily cycle: each hour's H2S and load differ from the previous hour's,
+// and the day repeats (a daily load profile, hourly gas readings quantised to whole ppmv): 24 operating
+// states, none back to back, so only a cache of recent states reuses the transfer.
+std::vector<Segment> hourly_year_daily_cycle() {
+  std::vector<Segment> r;
+  for (int h = 0; h < 8760; ++h) r.push_back(segment(1.0, std::round(h2s_at(h % 24)), load_at(h % 24)));
+  return r;
+}
+
 // Monte Carlo's draw without the early stop: the first charge continued to the planned maximum, every
 // limit watched (what each draw cost before the stop), for the ratio.
 std::vector<double> draws_without_stop(const EngineCase& c0, const std::vector<UncertainInput>& in, int draws, std::uint64_t seed) {
@@ -265,7 +274,9 @@ std::vector<double> draws_without_stop(const EngineCase& c0, const std::vector<U
 // One side of part 5 run once, for an instruction count that the machine's load does not move
 // (valgrind --tool=callgrind acidload_bench --limit-side SIDE); prints the end base.
 int limit_side(const char* side, int repeats) {
-  const std::vector<Segment> record = std::strcmp(side, "daily") == 0 ? hourly_year_daily_readings() : hourly_year();
+  const std::vector<Segment> record = std::strcmp(side, "daily") == 0   ? hourly_year_daily_readings()
+                                      : std::strcmp(side, "cycle") == 0 ? hourly_year_daily_cycle()
+                                                                        : hourly_year();
   const OilCharge c = charge();
   const ModelParameters m = model();
   const OilBalance k = balance_constants(c.oil);
@@ -286,10 +297,10 @@ int limit_side(const char* side, int repeats) {
     OilLedger ledger;
     for (std::size_t i = 0; i < rates.size(); ++i) advance(bal, k, rates[i], hours[i], ledger);
     base = bal.base;
-  } else if (std::strcmp(side, "simulate") == 0 || std::strcmp(side, "daily") == 0) {
+  } else if (std::strcmp(side, "simulate") == 0 || std::strcmp(side, "daily") == 0 || std::strcmp(side, "cycle") == 0) {
     base = simulate(c, m, record).final_state.base;
   } else {
-    std::fprintf(stderr, "--limit-side: one of minimal, balance, simulate, daily\n");
+    std::fprintf(stderr, "--limit-side: one of minimal, balance, simulate, daily, cycle\n");
     return 2;
   }
   }
@@ -353,7 +364,7 @@ int main(int argc, char** argv) {
               "(A B C A B C …); a figure is the median of the rounds [lowest – highest]\n\n", version(), rounds);
 
   // (5) the limit: a year of hourly segments
-  const std::vector<Segment> year = hourly_year(), daily = hourly_year_daily_readings();
+  const std::vector<Segment> year = hourly_year(), daily = hourly_year_daily_readings(), cycle = hourly_year_daily_cycle();
   const OilCharge c = charge();
   const ModelParameters m = model();
   const OilBalance k = balance_constants(c.oil);
@@ -366,15 +377,15 @@ int main(int argc, char** argv) {
   const OilState start = fresh_oil(c.oil, c.mass);
   Minimal lim{};
   OilState bal{};
-  RunResult full, full_daily;
-  std::vector<double> r_bal, r_full, r_daily, t_lim;
-  std::array<int, 4> order{0, 1, 2, 3};
+  RunResult full, full_daily, full_cycle;
+  std::vector<double> r_bal, r_full, r_daily, r_cycle, r_cycle_full, t_lim;
+  std::array<int, 5> order{0, 1, 2, 3, 4};
   std::mt19937 shuffle(19);
   for (int round = 0; round < rounds; ++round) {
     // the order shuffled each round (a fixed seed): no side always runs right after the same one
     std::shuffle(order.begin(), order.end(), shuffle);
-    double a = 0, b = 0, f = 0, d = 0;
-    for (int j = 0; j < 4; ++j) switch (order[static_cast<std::size_t>(j)]) {
+    double a = 0, b = 0, f = 0, d = 0, y = 0;
+    for (int j = 0; j < 5; ++j) switch (order[static_cast<std::size_t>(j)]) {
         case 0: a = cpu_seconds([&] { lim = minimal_loop(hours, rates, k, c.mass, start); }); break;
         case 1:
           b = cpu_seconds([&] {
@@ -384,14 +395,17 @@ int main(int argc, char** argv) {
           });
           break;
         case 2: f = cpu_seconds([&] { full = simulate(c, m, year); }); break;
-        default: d = cpu_seconds([&] { full_daily = simulate(c, m, daily); }); break;
+        case 3: d = cpu_seconds([&] { full_daily = simulate(c, m, daily); }); break;
+        default: y = cpu_seconds([&] { full_cycle = simulate(c, m, cycle); }); break;
       }
     t_lim.push_back(a / 8760 * 1e6);
-    r_bal.push_back(b / a), r_full.push_back(f / a), r_daily.push_back(d / a);
+    r_bal.push_back(b / a), r_full.push_back(f / a), r_daily.push_back(d / a), r_cycle.push_back(y / a);
+    r_cycle_full.push_back(f / y);
   }
   const double dev_bal = std::fabs(bal.base - lim.b), dev_full = std::fabs(full.final_state.base - lim.b);
   const double dev_salts = std::fabs(bal.salts - (lim.u - lim.b));
-  const Spread tl = spread(t_lim), sb = spread(r_bal), sf = spread(r_full), sd = spread(r_daily);
+  const Spread tl = spread(t_lim), sb = spread(r_bal), sf = spread(r_full), sd = spread(r_daily), sy = spread(r_cycle),
+               syf = spread(r_cycle_full);
   std::printf("5. the limit: a year of hourly segments (8760; H2S and load vary every hour), above the base floor\n");
   std::printf("   minimal closed-form loop (written here, no library call)  %.4f us/segment [%.4f – %.4f]\n", tl.median, tl.low, tl.high);
   std::printf("   acidload oil balance (advance per segment) / minimal      %6.2f  [%.2f – %.2f]   base agrees to %.1e mg KOH/g, salts to %.1e\n",
@@ -400,6 +414,9 @@ int main(int argc, char** argv) {
               sf.median, sf.low, sf.high, dev_full);
   std::printf("   acidload simulate, state repeats 24 h (transfer reused) / minimal %.2f [%.2f – %.2f]   (target <= 2)\n",
               sd.median, sd.low, sd.high);
+  std::printf("   acidload simulate, daily cycle (24 states, none back to back) / minimal %.2f [%.2f – %.2f]   (target <= 2)\n"
+              "   transfer every hour / daily cycle  %.2f [%.2f – %.2f]   (what the cache of recent states saves)\n",
+              sy.median, sy.low, sy.high, syf.median, syf.low, syf.high);
   std::printf("   (simulate includes the transfer, limit watching with detection steps of 25 h and a trajectory point per segment;\n"
               "   every side on one thread, CPU time of that thread)\n\n");
 
