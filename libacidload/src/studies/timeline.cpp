@@ -92,8 +92,9 @@ std::uint64_t hash(const Segment& s, double starts_per_hour) {
 // set-associative table by a hash of the state (daily load cycles, quantised readings), each hit
 // confirmed field by field. Exact: transfer and oil_rates are pure functions of the state and of the
 // run's constant parameters (validated once by simulate()), so a reused result is the recomputed one
-// bit for bit. Room for the entries is made on the first state that differs from the first one (at
-// most sets × ways entries of about 1.2 kB); a new state replaces the one of its set used longest ago.
+// bit for bit. The entries (about 1.2 kB each, at most sets × ways) grow with the states seen, so a
+// short record (a Monte Carlo draw) allocates little; they are addressed by index, and a reference to
+// one is held only until the next lookup. A new state replaces the one of its set used longest ago.
 class RateCache {
  public:
   static constexpr std::size_t sets = 32, ways = 4;
@@ -121,7 +122,6 @@ class RateCache {
     for (std::size_t v = 1; v < ways; ++v)
       if (t.entry[w] >= 0 && (t.entry[v] < 0 || t.used[v] < t.used[w])) w = v;
     if (t.entry[w] < 0) {
-      if (entries_.size() == 1 && entries_.capacity() < sets * ways) entries_.reserve(sets * ways);
       t.entry[w] = static_cast<std::int32_t>(entries_.size());
       entries_.emplace_back();
     }
