@@ -6,17 +6,21 @@
 //                    bytes; (2b) Monte Carlo on the demo history with and without the early stop,
 //                    1 and 2 threads; (6) memory of a ten-year one-minute record against a one-year one
 //   bench --memory-run YEARS   stream YEARS of one-minute segments, print the peak resident memory
+//   bench --limit-side SIDE [N]  run one side of (5) N times (minimal, balance, simulate, daily, cycle; once by
+//                    default, for callgrind), print its end base and CPU time per segment
 //   bench --record-csv FILE    write the one-year hourly record's inputs for the Python side
 #include <sys/resource.h>
 #include <sys/wait.h>
 
 #include <algorithm>
+#include <array>
 #include <chrono>
 #include <ctime>
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
 #include <cstring>
+#include <random>
 #include <string>
 #include <thread>
 #include <vector>
@@ -61,7 +65,7 @@ double load_at(double hour) { return 0.85 + 0.15 * std::sin(hour / 24 * 6.283185
 
 OilCharge charge() {
   OilCharge c;
-  c.oil.fresh_tbn = 9.0;  // a charge that lasts the year with makeup
+  c.oil.fresh_tbn = 12.0;  // a charge that lasts the year with makeup, above the base floor
   c.mass = 0.6 * c.oil.density_15;
   return c;
 }
@@ -162,31 +166,54 @@ double cpu_seconds(F f) {
 }
 
 // The limit: the oil balance of a record of constant-rate segments above the base floor with
-// continuous makeup, written for the benchmark from the balance's equations (no library call in
-// the loop): every state y obeys dy/dt = A − L·y over a segment, so y ← y∞ + (y − y∞)·e^{−L·h},
-// y∞ = A/L, with three distinct exponentials per segment (the makeup k, k + SO2 uptake, k + additive
-// depletion). States: reactive base b, weak acid w, u = b + salts, oxidation, nitration, additive.
+// continuous makeup, written for the benchmark from the balance's equations (docs/model.md; no
+// library call in the loop): every state y obeys dy/dt = A − L·y over a segment, so
+// y ← y∞ + (y − y∞)·e^{−L·h}, y∞ = A/L, with three distinct exponentials per segment (the makeup k,
+// k + SO2 uptake, k + additive depletion). States: reactive base b, weak acid w, u = b + salts,
+// oxidation, nitration, additive, antioxidant reserve a (dA/dt = k − k_A − k·A while any is left;
+// once spent with k_A > k, oxidation and organic acid run at m − (m − 1)·k/k_A times the protected
+// rates). The one segment in which the reserve runs out is split there (a logarithm, once a year).
 struct Minimal {
-  double b, w, u, ox, ni, add;
+  double b, w, u, ox, ni, add, anti;
 };
+inline void minimal_piece(Minimal& y, const OilRates& r, const OilBalance& k, double M, double h, double f) {
+  const double phi = k.organic_neutralised_share, bf = k.fresh_base, bmin = k.base_floor;
+  const double km = r.consumption / M, l1 = r.sulfurous_fresh / (bf - bmin) / M, rw = r.organic_acid * f;
+  const double e_k = std::exp(-km * h), e_b = std::exp(-(km + l1) * h), e_a = std::exp(-(km + k.additive_depletion) * h);
+  const double b_inf = (-r.strong_acid / M - phi * rw + l1 * bmin + km * bf) / (km + l1);
+  y.b = b_inf + (y.b - b_inf) * e_b;
+  const double w_inf = (1 - phi) * rw / km;
+  y.w = w_inf + (y.w - w_inf) * e_k;
+  y.u = bf + (y.u - bf) * e_k;
+  const double ox_inf = r.oxidation * f / km, ni_inf = r.nitration / M / km;
+  y.ox = ox_inf + (y.ox - ox_inf) * e_k;
+  y.ni = ni_inf + (y.ni - ni_inf) * e_k;
+  const double add_inf = km * k.fresh_additive / (km + k.additive_depletion);
+  y.add = add_inf + (y.add - add_inf) * e_a;
+  if (y.anti > 0 || r.antioxidant_depletion < km) {
+    const double a_inf = (km - r.antioxidant_depletion) / km;
+    y.anti = std::fmin(1.0, std::fmax(0.0, a_inf + (y.anti - a_inf) * e_k));
+  }
+}
 Minimal minimal_loop(const std::vector<double>& hours, const std::vector<OilRates>& rates, const OilBalance& k, double M,
                      const OilState& start) {
-  Minimal y{start.base, start.weak_acid, start.base + start.salts, start.oxidation, start.nitration, start.additive_acidity};
-  const double phi = k.organic_neutralised_share, bf = k.fresh_base, bmin = k.base_floor;
+  Minimal y{start.base, start.weak_acid, start.base + start.salts, start.oxidation, start.nitration, start.additive_acidity,
+            start.antioxidant};
   for (std::size_t i = 0; i < rates.size(); ++i) {
     const OilRates& r = rates[i];
-    const double h = hours[i], km = r.consumption / M, l1 = r.sulfurous_fresh / (bf - bmin) / M;
-    const double e_k = std::exp(-km * h), e_b = std::exp(-(km + l1) * h), e_a = std::exp(-(km + k.additive_depletion) * h);
-    const double b_inf = (-r.strong_acid / M - phi * r.organic_acid + l1 * bmin + km * bf) / (km + l1);
-    y.b = b_inf + (y.b - b_inf) * e_b;
-    const double w_inf = (1 - phi) * r.organic_acid / km;
-    y.w = w_inf + (y.w - w_inf) * e_k;
-    y.u = bf + (y.u - bf) * e_k;
-    const double ox_inf = r.oxidation / km, ni_inf = r.nitration / M / km;
-    y.ox = ox_inf + (y.ox - ox_inf) * e_k;
-    y.ni = ni_inf + (y.ni - ni_inf) * e_k;
-    const double add_inf = km * k.fresh_additive / (km + k.additive_depletion);
-    y.add = add_inf + (y.add - add_inf) * e_a;
+    const double km = r.consumption / M, kA = r.antioxidant_depletion;
+    const bool spent = y.anti <= 0 && kA > km;
+    const double f = spent ? r.depleted_factor - (r.depleted_factor - 1) * std::fmin(1.0, km / kA) : 1.0;
+    if (!spent && y.anti > 0 && kA > km) {  // does the reserve run out in this segment? a(t) = a∞ + (a0 − a∞) e^{−k t}, a∞ < 0
+      const double a_inf = (km - kA) / km, t0 = std::log((y.anti - a_inf) / -a_inf) / km;
+      if (t0 < hours[i]) {
+        minimal_piece(y, r, k, M, t0, 1.0);
+        y.anti = 0;
+        minimal_piece(y, r, k, M, hours[i] - t0, r.depleted_factor - (r.depleted_factor - 1) * std::fmin(1.0, km / kA));
+        continue;
+      }
+    }
+    minimal_piece(y, r, k, M, hours[i], f);
   }
   return y;
 }
@@ -196,6 +223,15 @@ Minimal minimal_loop(const std::vector<double>& hours, const std::vector<OilRate
 std::vector<Segment> hourly_year_daily_readings() {
   std::vector<Segment> r;
   for (int h = 0; h < 8760; ++h) r.push_back(segment(1.0, h2s_at(h - h % 24), load_at(12)));
+  return r;
+}
+
+// A year of hourly segments on a daily cycle: each hour's H2S and load differ from the previous hour's,
+// and the day repeats (a daily load profile, hourly gas readings quantised to whole ppmv): 24 operating
+// states, none back to back, so only a cache of recent states reuses the transfer.
+std::vector<Segment> hourly_year_daily_cycle() {
+  std::vector<Segment> r;
+  for (int h = 0; h < 8760; ++h) r.push_back(segment(1.0, std::round(h2s_at(h % 24)), load_at(h % 24)));
   return r;
 }
 
@@ -235,10 +271,48 @@ std::vector<double> draws_without_stop(const EngineCase& c0, const std::vector<U
   return out;
 }
 
+// One side of part 5 run once, for an instruction count that the machine's load does not move
+// (valgrind --tool=callgrind acidload_bench --limit-side SIDE); prints the end base.
+int limit_side(const char* side, int repeats) {
+  const std::vector<Segment> record = std::strcmp(side, "daily") == 0   ? hourly_year_daily_readings()
+                                      : std::strcmp(side, "cycle") == 0 ? hourly_year_daily_cycle()
+                                                                        : hourly_year();
+  const OilCharge c = charge();
+  const ModelParameters m = model();
+  const OilBalance k = balance_constants(c.oil);
+  std::vector<double> hours;
+  std::vector<OilRates> rates;
+  for (const Segment& s : record) {
+    hours.push_back(s.hours);
+    rates.push_back(oil_rates(transfer(s.fuel, s.operation, m.transfer), m.oxidation, s.oil_temperature, s.oil_consumption, true));
+  }
+  const OilState start = fresh_oil(c.oil, c.mass);
+  double base = 0;
+  const double a = thread_cpu();
+  for (int rep = 0; rep < repeats; ++rep) {
+  if (std::strcmp(side, "minimal") == 0) {
+    base = minimal_loop(hours, rates, k, c.mass, start).b;
+  } else if (std::strcmp(side, "balance") == 0) {
+    OilState bal = start;
+    OilLedger ledger;
+    for (std::size_t i = 0; i < rates.size(); ++i) advance(bal, k, rates[i], hours[i], ledger);
+    base = bal.base;
+  } else if (std::strcmp(side, "simulate") == 0 || std::strcmp(side, "daily") == 0 || std::strcmp(side, "cycle") == 0) {
+    base = simulate(c, m, record).final_state.base;
+  } else {
+    std::fprintf(stderr, "--limit-side: one of minimal, balance, simulate, daily, cycle\n");
+    return 2;
+  }
+  }
+  std::printf("%.17g %.4f us/segment (CPU time of the thread, %d runs)\n", base, (thread_cpu() - a) / repeats / 8760 * 1e6, repeats);
+  return 0;
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
   if (argc == 3 && std::strcmp(argv[1], "--memory-run") == 0) return memory_run(std::atof(argv[2]));
+  if ((argc == 3 || argc == 4) && std::strcmp(argv[1], "--limit-side") == 0) return limit_side(argv[2], argc == 4 ? std::atoi(argv[3]) : 1);
   // one side of bench.py's record reading (part 4), run in a child so that bench.py interleaves it
   // with its own sides: prints the CPU seconds of this thread for the C++ call, and its peak memory
   if (argc == 3 && std::strcmp(argv[1], "--load-record") == 0) {
@@ -291,7 +365,7 @@ int main(int argc, char** argv) {
               "(A B C A B C …); a figure is the median of the rounds [lowest – highest]\n\n", version(), rounds);
 
   // (5) the limit: a year of hourly segments
-  const std::vector<Segment> year = hourly_year(), daily = hourly_year_daily_readings();
+  const std::vector<Segment> year = hourly_year(), daily = hourly_year_daily_readings(), cycle = hourly_year_daily_cycle();
   const OilCharge c = charge();
   const ModelParameters m = model();
   const OilBalance k = balance_constants(c.oil);
@@ -304,23 +378,35 @@ int main(int argc, char** argv) {
   const OilState start = fresh_oil(c.oil, c.mass);
   Minimal lim{};
   OilState bal{};
-  RunResult full, full_daily;
-  std::vector<double> r_bal, r_full, r_daily, t_lim;
+  RunResult full, full_daily, full_cycle;
+  std::vector<double> r_bal, r_full, r_daily, r_cycle, r_cycle_full, t_lim;
+  std::array<int, 5> order{0, 1, 2, 3, 4};
+  std::mt19937 shuffle(19);
   for (int round = 0; round < rounds; ++round) {
-    const double a = cpu_seconds([&] { lim = minimal_loop(hours, rates, k, c.mass, start); });
-    const double b = cpu_seconds([&] {
-      bal = start;
-      OilLedger ledger;
-      for (std::size_t i = 0; i < rates.size(); ++i) advance(bal, k, rates[i], hours[i], ledger);
-    });
-    const double f = cpu_seconds([&] { full = simulate(c, m, year); });
-    const double d = cpu_seconds([&] { full_daily = simulate(c, m, daily); });
+    // the order shuffled each round (a fixed seed): no side always runs right after the same one
+    std::shuffle(order.begin(), order.end(), shuffle);
+    double a = 0, b = 0, f = 0, d = 0, y = 0;
+    for (int j = 0; j < 5; ++j) switch (order[static_cast<std::size_t>(j)]) {
+        case 0: a = cpu_seconds([&] { lim = minimal_loop(hours, rates, k, c.mass, start); }); break;
+        case 1:
+          b = cpu_seconds([&] {
+            bal = start;
+            OilLedger ledger;
+            for (std::size_t i = 0; i < rates.size(); ++i) advance(bal, k, rates[i], hours[i], ledger);
+          });
+          break;
+        case 2: f = cpu_seconds([&] { full = simulate(c, m, year); }); break;
+        case 3: d = cpu_seconds([&] { full_daily = simulate(c, m, daily); }); break;
+        default: y = cpu_seconds([&] { full_cycle = simulate(c, m, cycle); }); break;
+      }
     t_lim.push_back(a / 8760 * 1e6);
-    r_bal.push_back(b / a), r_full.push_back(f / a), r_daily.push_back(d / a);
+    r_bal.push_back(b / a), r_full.push_back(f / a), r_daily.push_back(d / a), r_cycle.push_back(y / a);
+    r_cycle_full.push_back(f / y);
   }
   const double dev_bal = std::fabs(bal.base - lim.b), dev_full = std::fabs(full.final_state.base - lim.b);
   const double dev_salts = std::fabs(bal.salts - (lim.u - lim.b));
-  const Spread tl = spread(t_lim), sb = spread(r_bal), sf = spread(r_full), sd = spread(r_daily);
+  const Spread tl = spread(t_lim), sb = spread(r_bal), sf = spread(r_full), sd = spread(r_daily), sy = spread(r_cycle),
+               syf = spread(r_cycle_full);
   std::printf("5. the limit: a year of hourly segments (8760; H2S and load vary every hour), above the base floor\n");
   std::printf("   minimal closed-form loop (written here, no library call)  %.4f us/segment [%.4f – %.4f]\n", tl.median, tl.low, tl.high);
   std::printf("   acidload oil balance (advance per segment) / minimal      %6.2f  [%.2f – %.2f]   base agrees to %.1e mg KOH/g, salts to %.1e\n",
@@ -329,6 +415,9 @@ int main(int argc, char** argv) {
               sf.median, sf.low, sf.high, dev_full);
   std::printf("   acidload simulate, state repeats 24 h (transfer reused) / minimal %.2f [%.2f – %.2f]   (target <= 2)\n",
               sd.median, sd.low, sd.high);
+  std::printf("   acidload simulate, daily cycle (24 states, none back to back) / minimal %.2f [%.2f – %.2f]   (target <= 2)\n"
+              "   transfer every hour / daily cycle  %.2f [%.2f – %.2f]   (what the cache of recent states saves)\n",
+              sy.median, sy.low, sy.high, syf.median, syf.low, syf.high);
   std::printf("   (simulate includes the transfer, limit watching with detection steps of 25 h and a trajectory point per segment;\n"
               "   every side on one thread, CPU time of that thread)\n\n");
 

@@ -43,6 +43,13 @@ TEST_CASE("gas species table is consistent with the parser") {
   CHECK_THROWS_AS(gas_from_formula("XeF2"), InputError);
 }
 
+TEST_CASE("the KOH molar mass held once equals the formula's sum of standard atomic weights") {
+  // K 39.0983, O 15.9994, H 1.00794 g/mol (IUPAC 2007 standard atomic weights, as the element
+  // table of libacidload/src/core/species.cpp uses): 56.10564 g/mol = 0.05610564 kg/mol
+  CHECK(koh_molar_mass() == doctest::Approx(0.05610564).epsilon(1e-12));
+  CHECK(koh_molar_mass() == molar_mass("KOH"));  // the cached value is the parser's, bit for bit
+}
+
 TEST_CASE("round trips between every pair of bases and units to 1e-12") {
   GasContext gas;
   gas.reference = ReferenceState::standard();

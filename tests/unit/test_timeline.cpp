@@ -2,6 +2,9 @@
 #include <doctest/doctest.h>
 
 #include <cmath>
+#include <cstdint>
+#include <random>
+#include <vector>
 
 #include "../support/sanity_case.hpp"
 #include "acidload/core/error.hpp"
@@ -213,4 +216,154 @@ TEST_CASE("rates reused while the operating state repeats give the bits of a fre
   CHECK(r.final_state.oxidation == s.oxidation);
   CHECK(r.final_state.nitration == s.nitration);
   CHECK(r.ledger.acid_entered == ledger.acid_entered);
+}
+
+namespace {
+bool same_state(const OilState& a, const OilState& b) {  // every field, bit for bit (equal doubles; no NaN here)
+  return a.mass == b.mass && a.base == b.base && a.strong_acid == b.strong_acid && a.weak_acid == b.weak_acid &&
+         a.salts == b.salts && a.oxidation == b.oxidation && a.nitration == b.nitration &&
+         a.additive_acidity == b.additive_acidity && a.antioxidant == b.antioxidant;
+}
+}  // namespace
+
+TEST_CASE("states recurring out of order: the rates reused from the cache of recent states are a fresh computation's bits") {
+  // Random records drawn from pools of 1 to 300 operating states (more than the cache holds, so entries
+  // are replaced), in random order with back-to-back repeats; some states differ only in fields the
+  // cache's hash leaves out (jacket water, NOx unit, other sulfur), so they share its set and hash and
+  // only the field-by-field comparison tells them apart. Every segment end of simulate must equal the
+  // plain path: each segment advanced with its rates computed afresh (segment_rates), bit for bit.
+  std::mt19937_64 rng(1907);
+  const OilCharge c = sanity_charge();
+  const ModelParameters m;
+  RunOptions o;
+  o.detection_step = 0;
+  for (std::size_t pool_size : {1u, 3u, 24u, 40u, 129u, 300u}) {
+    std::vector<Segment> pool;
+    for (std::size_t j = 0; j < pool_size; ++j) {
+      Segment s = hours(std::uniform_int_distribution<int>(1, 3)(rng) * 0.5,
+                        std::uniform_real_distribution<double>(50, 900)(rng));
+      s.operation.load = std::uniform_real_distribution<double>(0.5, 1.0)(rng);
+      if (j % 4 == 1) s.starts = 1;
+      if (j > 0 && j % 5 == 0) {  // a twin of the previous state in the hashed fields
+        s = pool[j - 1];
+        switch (j % 3) {
+          case 0: s.operation.jacket_water_out += 2; break;
+          case 1: s.operation.nox.unit = NoxEmission::Unit::g_per_kWh, s.operation.nox.value = 1.0; break;
+          default: s.fuel.other_sulfur += 1e-6; break;
+        }
+      }
+      pool.push_back(s);
+    }
+    std::vector<Segment> rec;
+    std::uniform_int_distribution<std::size_t> pick(0, pool_size - 1);
+    for (int i = 0; i < 1500; ++i) {
+      const std::size_t j = pick(rng);
+      for (int rep = i % 7 == 0 ? 3 : 1; rep > 0; --rep) rec.push_back(pool[j]);
+    }
+    const RunResult r = simulate(c, m, rec, o);
+    REQUIRE(r.trajectory.size() == rec.size() + 1);
+    OilState s = fresh_oil(c.oil, c.mass);
+    const OilBalance k = balance_constants(c.oil);
+    OilLedger ledger;
+    std::size_t unequal = 0;
+    for (std::size_t i = 0; i < rec.size(); ++i) {
+      advance(s, k, segment_rates(rec[i], c, m), rec[i].hours, ledger);
+      if (!same_state(r.trajectory[i + 1].state, s)) ++unequal;
+    }
+    INFO("pool of " << pool_size << " states");
+    CHECK(unequal == 0);
+    CHECK(same_state(r.final_state, s));
+    CHECK(r.ledger.acid_entered == ledger.acid_entered);
+    CHECK(r.ledger.sulfurous_taken_up == ledger.sulfurous_taken_up);
+  }
+}
+
+TEST_CASE("simulate's limit mask: reached_limits reads every limit as read_limit does") {
+  // random states about each threshold (some exactly on it, where >= and > differ), random settings and
+  // both TBN methods, an oil with and without additive acidity: bit l of the mask against
+  // read_limit(l, ...).reached with every limit enabled, and no bit where a limit is disabled... the
+  // mask does not look at `enabled` (simulate masks with the limits it watches), read_limit does
+  std::mt19937_64 rng(2026);
+  std::uniform_real_distribution<double> u(0, 1);
+  std::size_t compared = 0, reached = 0;
+  for (int trial = 0; trial < 20000; ++trial) {
+    LimitSettings s;
+    s.tbn_share_of_fresh = u(rng);
+    s.tbn_method = trial % 2 ? BaseNumberMethod::d2896 : BaseNumberMethod::d4739;
+    s.tan_rise = 4 * u(rng);
+    s.san = trial % 3 ? 0.0 : u(rng);
+    s.oxidation = 40 * u(rng), s.nitration = 40 * u(rng), s.viscosity_rise = 0.4 * u(rng);
+    s.antioxidant_remaining = u(rng), s.anti_wear_remaining = u(rng), s.max_hours = 1 + 9999 * u(rng);
+    s.enabled.fill(true);
+    OilProperties oil;
+    oil.fresh_tbn = 3 + 12 * u(rng);
+    oil.fresh_tan = trial % 5 ? 3 * u(rng) : 0.0;
+    oil.salt_titration_share = u(rng);
+    const LimitWatch w = limit_watch(s, oil);
+    OilState x = fresh_oil(oil, 500);
+    x.base = oil.fresh_tbn * u(rng), x.strong_acid = trial % 2 ? 0.0 : 0.5 * u(rng), x.weak_acid = 3 * u(rng);
+    x.salts = 5 * u(rng), x.oxidation = 40 * u(rng), x.nitration = 40 * u(rng);
+    x.additive_acidity = oil.fresh_tan * u(rng), x.antioxidant = u(rng);
+    double h = 10000 * u(rng);
+    switch (trial % 8) {  // on a threshold exactly
+      case 0: x.oxidation = s.oxidation; break;
+      case 1: x.strong_acid = s.san; break;
+      case 2: x.antioxidant = s.antioxidant_remaining; break;
+      case 3: h = s.max_hours; break;
+      case 4: x.nitration = s.nitration; break;
+      case 5: x.base = read_limit(Limit::tbn_fall, s, oil, x, h).limit - oil.weak_base(s.tbn_method); break;
+      default: break;
+    }
+    const std::uint32_t mask = reached_limits(w, x, h);
+    for (Limit l : all_limits) {
+      const bool bit = (mask >> static_cast<unsigned>(l)) & 1u;
+      CHECK(bit == read_limit(l, s, oil, x, h).reached);
+      ++compared;
+      reached += bit;
+    }
+  }
+  MESSAGE(compared << " readings compared, " << reached << " reached");
+  CHECK(reached > compared / 10);  // both outcomes well represented
+  CHECK(reached < compared * 9 / 10);
+}
+
+TEST_CASE("simulate locates every limit in the segment where the plain readings first find it reached") {
+  // random hourly records until several limits are reached; the trajectory's segment ends read with
+  // read_limit (the plain path) give, for every enabled limit, the first segment whose end reads
+  // reached: simulate's time for that limit must lie in that segment, and a limit never read reached
+  // must not be reported
+  std::mt19937_64 rng(4242);
+  std::uniform_real_distribution<double> u(0, 1);
+  RunOptions o;
+  o.detection_step = 0;
+  for (int trial = 0; trial < 12; ++trial) {
+    OilCharge c = sanity_charge();
+    c.continuous_makeup = trial % 2 == 0;
+    ModelParameters m;
+    m.limits.enabled.fill(true);
+    m.limits.anti_wear_remaining = 0.5;
+    m.limits.max_hours = 900 + 600 * u(rng);
+    m.limits.tbn_share_of_fresh = 0.3 + 0.5 * u(rng);
+    std::vector<Segment> rec;
+    for (int i = 0; i < 1500; ++i) rec.push_back(hours(1.0, 100 + 1200 * u(rng)));
+    const RunResult r = simulate(c, m, rec, o);
+    const ChargeSummary& cs = r.charges.front();
+    for (Limit l : all_limits) {
+      double lo = -1, hi = -1;  // the segment of the first reading reached
+      for (std::size_t i = 1; i < r.trajectory.size(); ++i)
+        if (read_limit(l, m.limits, c.oil, r.trajectory[i].state, r.trajectory[i].oil_hours).reached) {
+          lo = r.trajectory[i - 1].oil_hours, hi = r.trajectory[i].oil_hours;
+          break;
+        }
+      const double t = cs.reached_at[static_cast<std::size_t>(l)];
+      INFO("trial " << trial << ", limit " << std::string(name(l)) << ": plain segment [" << lo << ", " << hi
+                    << "], simulate " << t);
+      if (hi < 0) {
+        CHECK(t < 0);
+      } else {
+        CHECK(t >= lo);
+        CHECK(t <= hi);
+      }
+    }
+  }
 }

@@ -2,10 +2,12 @@
 #include <doctest/doctest.h>
 
 #include <cmath>
+#include <string>
 
 #include "../support/sanity_case.hpp"
 #include "acidload/core/combustion.hpp"
 #include "acidload/core/error.hpp"
+#include "acidload/core/oil_rates.hpp"
 #include "acidload/core/transfer.hpp"
 
 using namespace acidload;
@@ -131,4 +133,51 @@ TEST_CASE("transfer parameters outside their range are named") {
   Operation op;
   op.jacket_water_out = 500;
   CHECK_THROWS_AS(validate(op), InputError);
+}
+
+TEST_CASE("an operating state's fields are each checked: the inline common case lets no bad value through") {
+  // every field at a bad value (NaN, infinite, negative, beyond its range) is refused, named
+  const auto refused = [](auto set, const char* key) {
+    Operation op = sanity_operation(sanity_gas());
+    CHECK_NOTHROW(validate(op));
+    set(op);
+    try {
+      validate(op);
+      FAIL("accepted a bad " << key);
+    } catch (const InputError& e) {
+      CHECK(std::string(e.what()).find(key) != std::string::npos);
+    }
+  };
+  const double nan = std::nan(""), inf = HUGE_VAL;
+  refused([&](Operation& o) { o.fuel_flow = nan; }, "engine.fuel-flow");
+  refused([&](Operation& o) { o.fuel_flow = inf; }, "engine.fuel-flow");
+  refused([&](Operation& o) { o.electrical_power = -1; }, "engine.electrical-power");
+  refused([&](Operation& o) { o.load = 1.3; }, "engine.load");
+  refused([&](Operation& o) { o.blowby_share = 1.01; }, "engine.blow-by");
+  refused([&](Operation& o) { o.blowby_flow = inf; }, "engine.blow-by-flow");
+  refused([&](Operation& o) { o.jacket_water_out = 200; }, "engine.jacket-water-out");
+  refused([&](Operation& o) { o.coldest_crankcase_surface = nan; }, "engine.coldest-crankcase-surface");
+  refused([&](Operation& o) { o.crankcase_pressure = 1e4; }, "engine.crankcase-pressure");
+  refused([&](Operation& o) { o.exhaust_pressure = 1e6; }, "engine.exhaust-pressure");
+  refused([&](Operation& o) { o.starts_per_hour = 11; }, "engine.starts-per-hour");
+  refused([&](Operation& o) { o.jacket_water_at_start = nan; }, "engine.jacket-water-at-start");
+}
+
+TEST_CASE("oil rates: oxidation and antioxidant use from one temperature factor") {
+  // docs/model.md: k_ox = k_ref·2^((T − T_ref)/ΔT_2), k_A = 2^((T − T_ref)/ΔT_2)/τ_A at the ring zone
+  // T = sump + offset. Hand check at sump 88 °C, offset 30 K, T_ref 393.15 K, ΔT_2 10 K, k_ref 0.008,
+  // τ_A 1500 h: 2^(−0.2) = 0.8705505633 (by hand: e^(−0.2·ln 2))
+  const OxidationLaw law;
+  const OilRates r = oil_rates(Transfer{}, law, 273.15 + 88, 0.2, true);
+  CHECK(r.oxidation == doctest::Approx(0.008 * 0.8705505633).epsilon(1e-9));
+  CHECK(r.antioxidant_depletion == doctest::Approx(0.8705505633 / 1500).epsilon(1e-9));
+  // and bit for bit the library's own functions of one rate each, for both laws
+  for (const auto kind : {OxidationLaw::Kind::doubling, OxidationLaw::Kind::arrhenius}) {
+    OxidationLaw l;
+    l.kind = kind;
+    const OilRates x = oil_rates(Transfer{}, l, 355.0, 0.2, true);
+    CHECK(x.oxidation == oxidation_rate(l, 355.0 + l.ring_zone_offset));
+    CHECK(x.antioxidant_depletion == antioxidant_depletion_rate(l, 355.0 + l.ring_zone_offset));
+    CHECK(x.organic_acid == l.organic_acid_yield * x.oxidation);
+  }
 }

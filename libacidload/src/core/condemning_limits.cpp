@@ -104,4 +104,11 @@ LimitReading read_limit(Limit l, const LimitSettings& s, const OilProperties& oi
   return r;
 }
 
+LimitWatch limit_watch(const LimitSettings& s, const OilProperties& oil) {
+  LimitWatch w{&s, &oil, {}};
+  const OilState any{};
+  for (Limit l : all_limits) w.threshold[static_cast<std::size_t>(l)] = read_limit(l, s, oil, any, 0).limit;
+  return w;
+}
+
 }  // namespace acidload

@@ -11,9 +11,6 @@ namespace acidload {
 // ---------------------------------------------------------------------------------------------
 // Oil, oxidation and readings
 
-double OilProperties::weak_base(BaseNumberMethod m) const {
-  return m == BaseNumberMethod::d2896 ? weak_base_d2896 : weak_base_d4739;
-}
 double OilProperties::fresh_reactive_base() const { return fresh_tbn - weak_base(fresh_tbn_method); }
 
 void validate(const OilProperties& o) {
@@ -73,17 +70,6 @@ OilState fresh_oil(const OilProperties& oil, double mass) {
   return s;
 }
 
-double tbn(const OilState& s, const OilProperties& oil, BaseNumberMethod m) { return s.base + oil.weak_base(m); }
-double tan(const OilState& s, const OilProperties& oil) {
-  return s.additive_acidity + s.weak_acid + s.strong_acid + oil.salt_titration_share * s.salts;
-}
-double san(const OilState& s) { return s.strong_acid; }
-double viscosity_rise(const OilState& s, const OilProperties& oil) {
-  return oil.viscosity_per_oxidation * s.oxidation + oil.viscosity_per_nitration * s.nitration;
-}
-double anti_wear_remaining(const OilState& s, const OilProperties& oil) {
-  return oil.fresh_tan > 0 ? s.additive_acidity / oil.fresh_tan : 1.0;
-}
 
 namespace {
 // v ≥ 0 and finite, inline: NaN fails both comparisons, +inf the second.
@@ -376,6 +362,62 @@ void advance_piece(OilState& s, Regime g, const Context& c, const Equations& e, 
   s.additive_acidity = value(e.additive, s.additive_acidity, c.mass, t);
   s.antioxidant = e.antioxidant_fixed ? 0.0 : std::fmax(0.0, std::fmin(1.0, value(e.antioxidant, s.antioxidant, c.mass, t)));
 }
+
+// The common case of a segment: continuous makeup (constant mass), above the base floor throughout,
+// the antioxidant reserve not running out within it — one piece, no switch. The same closed forms as
+// solve(), value() and advance_piece() above (y = y0 + (A − Λ y0)·t·E(−Λt), ∫y = y0 t + (A − Λ y0)·t²·φ2(Λt)),
+// written out so that each of the three distinct exponentials is evaluated once and the crossing
+// tests reuse the end values: the same operations in the same order, so bit for bit the results of
+// the general path. Returns false, changing nothing, where a switch may fall inside the segment.
+bool advance_steady(OilState& s, const OilBalance& k, const OilRates& r, double t, OilLedger& ledger) {
+  const Context c = make_context(s, k, r);
+  if (regime_at(s, c) != Regime::above_floor) return false;
+  const Equations e = equations(Regime::above_floor, c);
+  const double m0 = c.mass.m0, z = 0.0 / m0;  // z: a1/M0 and l1/M0 of the equations without a 1/M term
+  // the base, and its crossing of the floor (as crossing(): none if both ends lie on one side)
+  const double Ab = e.base.a0 + e.base.a1 / m0, Lb = e.base.l0 + e.base.l1 / m0;
+  const double slope_b = Ab - Lb * s.base;
+  const double yb = s.base + slope_b * t * expm1_over_x(-Lb * t);
+  if (!((s.base - k.base_floor) * (yb - k.base_floor) > 0 || s.base == k.base_floor)) return false;
+  // every equation with the makeup rate alone as Λ shares E(−Λt)
+  const double Lk = e.weak.l0 + z, Ek = expm1_over_x(-Lk * t);
+  double anti = 0;
+  if (!e.antioxidant_fixed) {
+    const double Aa = e.antioxidant.a0 + z;
+    anti = s.antioxidant + (Aa - Lk * s.antioxidant) * t * Ek;
+    const bool watched = !c.spent && s.antioxidant > 0 && r.antioxidant_depletion > c.makeup_rate;
+    if (watched && !(s.antioxidant * anti > 0 || s.antioxidant == 0)) return false;
+    anti = std::fmax(0.0, std::fmin(1.0, anti));
+  }
+  const double b_int = s.base * t + slope_b * t * t * phi2(Lb * t);
+  const double Aw = e.weak.a0 + z, slope_w = Aw - Lk * s.weak_acid;
+  const double yw = s.weak_acid + slope_w * t * Ek, w_int = s.weak_acid * t + slope_w * t * t * phi2(Lk * t);
+  const double Au = e.base_plus_salts.a0 + z, u0 = s.base + s.salts;
+  const double u = u0 + (Au - Lk * u0) * t * Ek;
+  const double R = c.r.strong_acid, IM = c.mass.integral(t), cons = c.r.consumption;
+  const double so2 = c.so2_coeff * (b_int - c.k.base_floor * t);
+  if (c.r.continuous_makeup) ledger.base_added += cons * c.k.fresh_base * t;
+  ledger.base_removed += cons * b_int;
+  ledger.base_consumed += R * t + c.k.organic_neutralised_share * c.organic * IM + so2;
+  ledger.acid_entered += R * t + c.organic * IM + so2;
+  ledger.sulfurous_taken_up += so2;
+  ledger.acid_removed += cons * (s.strong_acid * t + w_int);
+  const double Ao = e.oxidation.a0 + z, An = e.nitration.a0 + e.nitration.a1 / m0;
+  const double Ad = e.additive.a0 + z, Ld = e.additive.l0 + z;
+  s.mass = c.mass.at(t);
+  s.base = yb;
+  s.weak_acid = yw;
+  s.salts = u - yb;
+  s.oxidation = s.oxidation + (Ao - Lk * s.oxidation) * t * Ek;
+  s.nitration = s.nitration + (An - Lk * s.nitration) * t * Ek;
+  s.additive_acidity = s.additive_acidity + (Ad - Ld * s.additive_acidity) * t * expm1_over_x(-Ld * t);
+  s.antioxidant = anti;
+  if (s.base < k.base_floor) {  // rounding at the very end
+    s.salts += s.base - k.base_floor;
+    s.base = k.base_floor;
+  }
+  return true;
+}
 }  // namespace
 
 bool antioxidant_spent(const OilState& s, const OilRates& r) { return spent_at(s, r); }
@@ -408,6 +450,7 @@ SegmentOutcome advance(OilState& s, const OilBalance& k, const OilRates& r, doub
                      "a stretch without top-up that burns less than 90 % of the oil (" +
                          format_value(0.9 * s.mass / r.consumption) + " h at this consumption)");
   SegmentOutcome out;
+  if (r.continuous_makeup && hours > 0 && advance_steady(s, k, r, hours, ledger)) return out;  // end_regime: above_floor
   double done = 0;
   for (int piece = 0; piece < 16 && done < hours; ++piece) {
     const Context c = make_context(s, k, r);

@@ -2,6 +2,7 @@
 
 #include "acidload/core/constants.hpp"
 #include "acidload/core/error.hpp"
+#include "acidload/core/oil.hpp"
 
 namespace acidload {
 
@@ -25,9 +26,12 @@ OilRates oil_rates(const Transfer& t, const OxidationLaw& law, double sump_T, do
   r.strong_acid = t.inflow.strong_koh();
   r.sulfurous_fresh = t.inflow.sulfurous_fresh_koh();
   r.nitration = law.nitration_yield * t.inflow.nitric;  // [A/cm per mol/kg] × [mol/h] = A/cm·kg/h
-  r.oxidation = oxidation_rate(law, sump_T + law.ring_zone_offset);
+  // the temperature factor once: both rates follow it (oxidation_rate and antioxidant_depletion_rate
+  // of oil.hpp, the same expressions, so the same bits)
+  const double f = oxidation_temperature_factor(law, sump_T + law.ring_zone_offset);
+  r.oxidation = law.rate_at_reference * f;                // k_ox(T)
   r.organic_acid = law.organic_acid_yield * r.oxidation;  // α·k_ox
-  r.antioxidant_depletion = antioxidant_depletion_rate(law, sump_T + law.ring_zone_offset);  // k_A(T)
+  r.antioxidant_depletion = f / law.induction_hours;      // k_A(T)
   r.depleted_factor = law.depleted_factor;
   r.consumption = consumption;
   r.continuous_makeup = continuous;

@@ -1,6 +1,7 @@
 #include "acidload/core/transfer.hpp"
 
 #include <cmath>
+#include <limits>
 
 #include "acidload/core/constants.hpp"
 #include "acidload/core/dew_points.hpp"
@@ -34,7 +35,23 @@ void validate(const TransferParameters& p) {
   check::fraction("model.capture-no2", p.capture_no2);
 }
 
+namespace {
+// lo ≤ v ≤ hi, inline (NaN fails): the common case of validate(Operation) without a call per field.
+bool within(double v, double lo, double hi) { return v >= lo && v <= hi; }
+constexpr double huge = std::numeric_limits<double>::max();
+// Every field fine, with the bounds of the named checks below (finite: ≤ the largest double).
+bool operation_fine(const Operation& op) {
+  return within(op.fuel_flow, 0, huge) && within(op.electrical_power, 0, huge) && within(op.load, 0.05, 1.2) &&
+         within(op.blowby_share, 0, 1) && within(op.blowby_flow, 0, huge) &&
+         within(op.jacket_water_out, constants::engine_temperature_min, constants::engine_temperature_max) &&
+         within(op.coldest_crankcase_surface, constants::crankcase_surface_min, constants::engine_temperature_max) &&
+         within(op.crankcase_pressure, 5e4, 2e5) && within(op.exhaust_pressure, 5e4, 5e5) &&
+         within(op.starts_per_hour, 0.0, 10.0) && within(op.jacket_water_at_start, 233.15, 423.15);
+}
+}  // namespace
+
 void validate(const Operation& op) {
+  if (operation_fine(op)) return;  // the common case; otherwise the first bad field is named below
   check::non_negative("engine.fuel-flow", op.fuel_flow);
   check::non_negative("engine.electrical-power", op.electrical_power);
   check::in_range("engine.load", op.load, 0.05, 1.2, "(share of rated output)");

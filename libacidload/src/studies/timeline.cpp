@@ -1,7 +1,11 @@
 #include "acidload/studies/timeline.hpp"
 
+#include <array>
 #include <cmath>
+#include <cstdint>
 #include <cstring>
+#include <algorithm>
+#include <limits>
 #include <type_traits>
 #include <utility>
 
@@ -21,38 +25,139 @@ OilRates segment_rates(const Segment& s, const OilCharge& charge, const ModelPar
 
 namespace {
 
-// Bitwise equality of two plain structs: equal bits give equal results, so a repeat may reuse
-// them (conservative: -0 against +0, or differing padding, only cost a recomputation).
-template <class T>
-bool same_bits(const T& a, const T& b) {
-  static_assert(std::is_trivially_copyable_v<T>, "compared bit by bit");
-  return std::memcmp(&a, &b, sizeof(T)) == 0;
+// Operating states compared by value, field by field, each double by its bits (equal bits give equal
+// results, so a recurring state may reuse them; -0 against +0 only costs a recomputation). Not memcmp
+// of whole structs: the padding after an enum (NoxEmission::unit, FuelGas::combustion) holds whatever
+// the stack held, so equal states compared unequal at random. The differences of the fields are or-ed
+// together without a branch per field, in two groups: those that vary from row to row first, so that a
+// new state is told apart after about half of them, a repeat reading every field anyway. The size
+// assertions fail when a field is added: compare it too.
+std::uint64_t bits(double v) {
+  std::uint64_t u;
+  std::memcpy(&u, &v, sizeof u);
+  return u;
+}
+std::uint64_t differ(double a, double b) { return bits(a) ^ bits(b); }
+
+// b with its starts per hour replaced by b_starts_per_hour (a segment holds its starts and hours instead)
+// (fuel flow, power, load and the starts per hour are in the first group, compared by differ(OperatingState, ...))
+std::uint64_t differ_rest(const Operation& a, const Operation& b) {
+  static_assert(sizeof(Operation) == 17 * sizeof(double), "a field was added to Operation: compare it here");
+  return differ(a.air.excess_air_ratio, b.air.excess_air_ratio) | differ(a.air.water_fraction, b.air.water_fraction) |
+         differ(a.blowby_share, b.blowby_share) | differ(a.blowby_flow, b.blowby_flow) |
+         differ(a.jacket_water_out, b.jacket_water_out) | differ(a.coldest_crankcase_surface, b.coldest_crankcase_surface) |
+         differ(a.crankcase_pressure, b.crankcase_pressure) | differ(a.exhaust_pressure, b.exhaust_pressure) |
+         differ(a.jacket_water_at_start, b.jacket_water_at_start) |
+         differ(a.nox.value, b.nox.value) | static_cast<std::uint64_t>(a.nox.unit != b.nox.unit) |
+         differ(a.nox.o2_reference, b.nox.o2_reference) | differ(a.nox.o2_air, b.nox.o2_air);
 }
 
-// The rates of the last operating state, reused while the state repeats (a record often holds
-// long runs of identical rows); the model's constant parameters were validated once by simulate().
-struct RateCache {
-  bool valid = false;
+// (the mole fractions are in the first group)
+std::uint64_t differ_rest(const FuelGas& a, const FuelGas& b) {
+  static_assert(sizeof(FuelGas) == (gas_count + 6) * sizeof(double), "a field was added to FuelGas: compare it here");
+  return differ(a.other_sulfur, b.other_sulfur) | differ(a.chlorine, b.chlorine) | differ(a.fluorine, b.fluorine) |
+         differ(a.reference.temperature, b.reference.temperature) | differ(a.reference.pressure, b.reference.pressure) |
+         static_cast<std::uint64_t>(a.combustion != b.combustion);
+}
+
+// What the rates of a segment depend on besides the run's constant parameters.
+struct OperatingState {
   FuelGas fuel;
-  Operation op;
+  Operation op;  // starts_per_hour from the segment's starts and hours
   double oil_temperature = 0, oil_consumption = 0;
-  Transfer transfer;
-  OilRates rates;
+};
+// a against a segment's state, without copying the segment's fields into an OperatingState first
+// b's starts per hour is b_starts_per_hour (a segment holds its starts and hours instead). Zero when equal.
+std::uint64_t differ(const OperatingState& a, const Segment& b, double b_starts_per_hour) {
+  std::uint64_t d = differ(a.op.fuel_flow, b.operation.fuel_flow) | differ(a.op.electrical_power, b.operation.electrical_power) |
+                    differ(a.op.load, b.operation.load) | differ(a.op.starts_per_hour, b_starts_per_hour) |
+                    differ(a.oil_temperature, b.oil_temperature) | differ(a.oil_consumption, b.oil_consumption);
+  for (std::size_t i = 0; i < gas_count; ++i) d |= differ(a.fuel.x[i], b.fuel.x[i]);
+  if (d != 0) return d;
+  return differ_rest(a.op, b.operation) | differ_rest(a.fuel, b.fuel);
+}
+// A hash of the fields that usually vary from row to row; it only picks the set, the comparison decides.
+// Their bit patterns summed (one add each: the miss path of an all-distinct record pays for it), then
+// mixed (the 64-bit finaliser of MurmurHash3) so that the top bits depend on every field.
+std::uint64_t hash(const Segment& s, double starts_per_hour) {
+  std::uint64_t h = bits(s.operation.fuel_flow) + bits(s.operation.electrical_power) + bits(s.operation.load) +
+                    bits(starts_per_hour) + bits(s.oil_temperature) + bits(s.oil_consumption);
+  for (double v : s.fuel.x) h += bits(v);
+  h ^= h >> 33;
+  h *= 0xff51afd7ed558ccdull;
+  h ^= h >> 33;
+  h *= 0xc4ceb9fe1a85ec53ull;
+  return h ^ (h >> 33);
+}
+
+// The transfer and rates of recent operating states, reused when a state recurs: at once when it
+// repeats the last segment's (long runs of identical rows), otherwise from a small four-way
+// set-associative table by a hash of the state (daily load cycles, quantised readings), each hit
+// confirmed field by field. Exact: transfer and oil_rates are pure functions of the state and of the
+// run's constant parameters (validated once by simulate()), so a reused result is the recomputed one
+// bit for bit. The entries (about 1.2 kB each, at most sets × ways) grow with the states seen, so a
+// short record (a Monte Carlo draw) allocates little; they are addressed by index, and a reference to
+// one is held only until the next lookup. A new state replaces the one of its set used longest ago.
+class RateCache {
+ public:
+  static constexpr std::size_t sets = 32, ways = 4;
+
+  // The last looked-up state's entry (its transfer, rates and oil consumption).
+  const Transfer& transfer() const { return entries_[last_].transfer; }
+  const OilRates& rates() const { return entries_[last_].rates; }
+  double oil_consumption() const { return entries_[last_].key.oil_consumption; }
 
   const OilRates& of(const Segment& s, const OilCharge& charge, const ModelParameters& model) {
-    Operation op2 = s.operation;
-    op2.starts_per_hour = s.hours > 0 ? s.starts / s.hours : 0;
-    if (valid && same_bits(op2, op) && same_bits(s.fuel, fuel) && s.oil_temperature == oil_temperature &&
-        s.oil_consumption == oil_consumption)
-      return rates;
-    valid = false;
-    transfer = acidload::transfer(s.fuel, op2, model.transfer, false);
-    rates = oil_rates(transfer, model.oxidation, s.oil_temperature, s.oil_consumption, charge.continuous_makeup, false);
-    fuel = s.fuel, op = op2, oil_temperature = s.oil_temperature, oil_consumption = s.oil_consumption;
-    valid = true;
-    return rates;
+    const double starts_per_hour = s.hours > 0 ? s.starts / s.hours : 0;
+    if (!entries_.empty() && differ(entries_[last_].key, s, starts_per_hour) == 0) return entries_[last_].rates;  // a repeat
+    const std::uint64_t h = hash(s, starts_per_hour);
+    const std::size_t set = static_cast<std::size_t>(h >> 59) % sets;  // the hash's top bits
+    Set& t = sets_[set];
+    ++clock_;
+    for (std::size_t w = 0; w < ways; ++w)
+      if (t.entry[w] >= 0 && t.hash[w] == h && differ(entries_[static_cast<std::size_t>(t.entry[w])].key, s, starts_per_hour) == 0) {
+        last_ = static_cast<std::size_t>(t.entry[w]);
+        t.used[w] = clock_;
+        return entries_[last_].rates;
+      }
+    // a miss: an empty way of the set, else the one used longest ago
+    std::size_t w = 0;
+    for (std::size_t v = 1; v < ways; ++v)
+      if (t.entry[w] >= 0 && (t.entry[v] < 0 || t.used[v] < t.used[w])) w = v;
+    if (t.entry[w] < 0) {
+      t.entry[w] = static_cast<std::int32_t>(entries_.size());
+      entries_.emplace_back();
+    }
+    t.hash[w] = h, t.used[w] = clock_;
+    last_ = static_cast<std::size_t>(t.entry[w]);
+    Entry& e = entries_[last_];
+    e.key.fuel = s.fuel, e.key.op = s.operation, e.key.op.starts_per_hour = starts_per_hour;
+    e.key.oil_temperature = s.oil_temperature, e.key.oil_consumption = s.oil_consumption;
+    e.transfer = acidload::transfer(e.key.fuel, e.key.op, model.transfer, false);
+    e.rates = oil_rates(e.transfer, model.oxidation, s.oil_temperature, s.oil_consumption, charge.continuous_makeup, false);
+    return e.rates;
   }
+
+ private:
+  struct Entry {
+    OperatingState key;
+    Transfer transfer;
+    OilRates rates;
+  };
+  struct Set {
+    std::array<std::uint64_t, ways> hash{};
+    std::array<std::uint64_t, ways> used{};          // the lookup count when last used
+    std::array<std::int32_t, ways> entry{-1, -1, -1, -1};  // into entries_, -1 empty
+  };
+  std::vector<Entry> entries_;
+  std::array<Set, sets> sets_{};
+  std::size_t last_ = 0;
+  std::uint64_t clock_ = 0;
 };
+
+// v ≥ 0 and finite, inline (NaN fails both comparisons, +inf the second): the common case of a
+// segment's checks without a call; check:: then names the field.
+bool finite_non_negative(double v) { return v >= 0 && v <= std::numeric_limits<double>::max(); }
 
 struct Runner {
   const OilCharge& charge;
@@ -67,6 +172,11 @@ struct Runner {
   bool any_segment = false;             // the last segment's rates (in the cache) give the steady state
   double fuel_s = 0, oil_s = 0;         // fuel sulfur and sulfur to the oil of the current charge up to its first limit [mol]
   double since_output = 0;              // hours since the last output point
+  std::array<Limit, limit_count> watched{};  // the current charge's enabled limits not reached yet, in order
+  std::size_t watched_count = 0;
+  std::uint32_t watched_mask = 0;       // the same limits as bits
+  const double so2_g_koh_per_mol = 2 * koh_molar_mass() * 1e3;  // SO2 counts 2 equivalents of KOH
+  LimitWatch limits{};  // set by run_record before the first step
 
   ChargeSummary& current() { return result.charges.back(); }
 
@@ -76,13 +186,18 @@ struct Runner {
     c.start_engine_hours = engine_h;
     c.reached_at.fill(-1);
     result.charges.push_back(c);
+    watched_count = 0;  // a disabled limit never reads reached: not watched
+    watched_mask = 0;
+    for (Limit l : all_limits)
+      if (model.limits.enabled[static_cast<std::size_t>(l)])
+        watched[watched_count++] = l, watched_mask |= 1u << static_cast<unsigned>(l);
     fuel_s = oil_s = 0;
     oil_h = oil_hours;
   }
 
   void record_point() {
     since_output = 0;
-    TrajectoryPoint p;
+    TrajectoryPoint& p = result.trajectory.emplace_back();  // filled in place
     p.engine_hours = engine_h;
     p.oil_hours = oil_h;
     p.calendar_hours = calendar_h;
@@ -94,7 +209,6 @@ struct Runner {
     p.tan = acidload::tan(state, charge.oil);
     p.san = san(state);
     p.viscosity_rise = acidload::viscosity_rise(state, charge.oil);
-    result.trajectory.push_back(p);
   }
 
   void close_charge() {
@@ -108,13 +222,19 @@ struct Runner {
   // Marks limits reached at the end of a step of length dt from `before`; locates each exactly. `t` is the
   // step's transfer, for the charge averages up to the first limit.
   void check_limits(const OilState& before, const OilRates& r, double dt, const Transfer& t) {
+    const std::uint32_t now = reached_limits(limits, state, oil_h) & watched_mask;
+    if (now == 0) return;  // no watched limit reached: nothing to locate, the first limit still unknown (the common step)
     const bool had_first = current().first.has_value();
     ChargeSummary& c = current();
-    for (Limit l : all_limits) {
+    std::size_t kept = 0;  // the watched limits not reached in this step, in their order
+    for (std::size_t w = 0; w < watched_count; ++w) {
+      const Limit l = watched[w];
       const auto i = static_cast<std::size_t>(l);
-      if (c.reached_at[i] >= 0) continue;
+      watched[kept++] = l;
       if (opt.stop_when_interval_and_san_known && c.first && l != Limit::san) continue;  // not asked for
-      if (!read_limit(l, model.limits, charge.oil, state, oil_h).reached) continue;
+      if (!(now >> i & 1u)) continue;
+      --kept;  // reached: located below, no longer watched
+      watched_mask &= ~(1u << i);
       // Illinois (regula falsi) on the exact solution's margin to the limit: not reached at lo,
       // reached at hi; a bisection step whenever the secant falls outside the bracket
       const LimitReading at_start = read_limit(l, model.limits, charge.oil, before, oil_h - dt);
@@ -143,8 +263,11 @@ struct Runner {
       }
       c.reached_at[i] = oil_h - dt + hi;
     }
-    // the first limit and the readings there
-    if (!c.first) {
+    const bool any_reached = kept < watched_count;
+    watched_count = kept;
+    // the first limit and the readings there (only when a limit was reached in this step: reached_at
+    // is set only above, so with none reached the first limit stays unknown)
+    if (!c.first && any_reached) {
       double t_first = -1;
       for (Limit l : all_limits) {
         const double t = c.reached_at[static_cast<std::size_t>(l)];
@@ -159,7 +282,7 @@ struct Runner {
         if (!had_first) {  // charge averages up to the first limit: only the part of the step before it
           const double strong_s = t.inflow.sulfuric_liner + t.inflow.sulfuric_blowby;
           fuel_s += t.sulfur_flow * std::fmax(back, 0.0);
-          oil_s += strong_s * std::fmax(back, 0.0) + scratch.sulfurous_taken_up / (2 * koh_molar_mass() * 1e3);
+          oil_s += strong_s * std::fmax(back, 0.0) + scratch.sulfurous_taken_up / so2_g_koh_per_mol;
           if (fuel_s > 0) c.sulfur_share_to_oil_average = oil_s / fuel_s;
         }
         for (Limit l : all_limits)
@@ -204,12 +327,12 @@ struct Runner {
   }
 
   void run_segment(const Segment& s, bool first) {
-    check::non_negative("segment.hours", s.hours);
-    check::non_negative("segment.starts", s.starts);
+    if (!finite_non_negative(s.hours)) check::non_negative("segment.hours", s.hours);
+    if (!finite_non_negative(s.starts)) check::non_negative("segment.starts", s.starts);
     for (const OilEvent& e : s.events) apply(e);
     const OilRates r = cache.of(s, charge, model);
-    if (first) result.first_transfer = cache.transfer, result.first_rates = r;
-    const Transfer& t = cache.transfer;  // this segment's, for the charge averages
+    if (first) result.first_transfer = cache.transfer(), result.first_rates = r;
+    const Transfer& t = cache.transfer();  // this segment's, for the charge averages
     any_segment = true;
     const double cal = s.calendar_hours < 0 ? s.hours : s.calendar_hours;
     if (cal < s.hours) throw InputError("segment.calendar-hours", format_value(cal), "at least the running hours " + format_value(s.hours));
@@ -231,7 +354,7 @@ struct Runner {
         else if (o.floor_reached_at > dt) dt = o.floor_reached_at;    // no free acid before the floor
       }
       const SegmentOutcome out = advance(state, k, r, dt, result.ledger);
-      const double so2_mol = (result.ledger.sulfurous_taken_up - so2_before) / (2 * koh_molar_mass() * 1e3);
+      const double so2_mol = (result.ledger.sulfurous_taken_up - so2_before) / so2_g_koh_per_mol;
       const bool counting = !current().first;
       if (out.floor_reached_at >= 0 && current().floor_reached_at < 0) current().floor_reached_at = oil_h + out.floor_reached_at;
       if (out.antioxidant_spent_at >= 0 && current().antioxidant_spent_at < 0)
@@ -259,16 +382,23 @@ struct Runner {
 
 }  // namespace
 
-RunResult simulate(const OilCharge& charge, const ModelParameters& model, const SegmentSource& next,
-                   const RunOptions& options, const std::optional<OilState>& start, double start_oil_hours) {
+namespace {
+// simulate() with room for `points` trajectory points made at once where the record's length is
+// known: a point per segment grown by doubling cost more than the oil balance itself (copies and
+// first touches of the new blocks).
+RunResult run_record(const OilCharge& charge, const ModelParameters& model, const SegmentSource& next,
+                     const RunOptions& options, const std::optional<OilState>& start, double start_oil_hours,
+                     std::size_t points) {
   validate(charge.oil);
   check::positive("oil.mass", charge.mass);
   check::in_range("oil.residual-share", charge.residual_share, 0.0, 0.9, "(share)");
   validate(model.limits);
   validate(model.transfer);  // constant over the run: validated once here, not per segment
   validate(model.oxidation);
-  Runner run{charge, model, options, balance_constants(charge.oil), {}, start ? *start : fresh_oil(charge.oil, charge.mass)};
-  run.result.trajectory.reserve(options.reserve_points);
+  Runner run{charge, model, options, balance_constants(charge.oil), RunResult{}, start ? *start : fresh_oil(charge.oil, charge.mass)};
+  run.limits = limit_watch(model.limits, charge.oil);
+  // room for the points known up front: a held record's length, or what a streamed one's reader asks
+  run.result.trajectory.reserve(std::max(points, options.reserve_points));
   run.result.initial = run.state;
   run.open_charge(start_oil_hours);
   run.record_point();
@@ -288,16 +418,28 @@ RunResult simulate(const OilCharge& charge, const ModelParameters& model, const 
   r.calendar_hours = run.calendar_h;
   r.starts = run.starts;
   if (run.any_segment && !r.charges.back().oil_limit_reached() && charge.continuous_makeup &&
-      run.cache.oil_consumption > 0)
-    r.steady_state = steady_state(run.state, run.k, run.cache.rates);  // under the last segment's rates
+      run.cache.oil_consumption() > 0)
+    r.steady_state = steady_state(run.state, run.k, run.cache.rates());  // under the last segment's rates
   return std::move(r);  // not a copy: the trajectory of a long record is the run's largest part
+}
+}  // namespace
+
+RunResult simulate(const OilCharge& charge, const ModelParameters& model, const SegmentSource& next,
+                   const RunOptions& options, const std::optional<OilState>& start, double start_oil_hours) {
+  return run_record(charge, model, next, options, start, start_oil_hours, 1);
 }
 
 RunResult simulate(const OilCharge& charge, const ModelParameters& model, const std::vector<Segment>& record,
                    const RunOptions& options, const std::optional<OilState>& start, double start_oil_hours) {
   std::size_t i = 0;
-  return simulate(charge, model, [&]() -> const Segment* { return i < record.size() ? &record[i++] : nullptr; },
-                  options, start, start_oil_hours);
+  // the start, a point per segment end and one per event (events, too, record a point)
+  std::size_t points = 1;
+  if (options.keep_segment_ends && options.output_interval <= 0) {
+    points += record.size();
+    for (const Segment& s : record) points += s.events.size();
+  }
+  return run_record(charge, model, [&]() -> const Segment* { return i < record.size() ? &record[i++] : nullptr; },
+                    options, start, start_oil_hours, points);
 }
 
 }  // namespace acidload

@@ -3,6 +3,7 @@
 // source; the engine maker's and oil supplier's limits govern.
 #include <array>
 #include <cstddef>
+#include <cstdint>
 #include <string_view>
 
 #include "acidload/core/oil.hpp"
@@ -57,5 +58,32 @@ double viscosity_change(double nu, double nu_fresh);
 //! The reading of one limit for a state at `oil_hours` [h] of a charge.
 LimitReading read_limit(Limit l, const LimitSettings& s, const OilProperties& oil, const OilState& state,
                         double oil_hours);
+
+//! The settings and oil a run watches its limits with, each limit's threshold held once (read_limit's
+//! `limit`, which depends on the state only for the crossover, whose limit is the TBN itself).
+struct LimitWatch {
+  const LimitSettings* settings = nullptr;
+  const OilProperties* oil = nullptr;
+  std::array<double, limit_count> threshold{};
+};
+LimitWatch limit_watch(const LimitSettings& s, const OilProperties& oil);
+
+//! Bit i set when limit i reads reached for `state` at `oil_hours`: read_limit(l, …).reached of every
+//! limit, enabled or not (mask with the enabled ones), the same tests on the same readings, all ten
+//! without a branch or a LimitReading each, for simulate's every step.
+inline std::uint32_t reached_limits(const LimitWatch& w, const OilState& x, double oil_hours) {
+  const OilProperties& oil = *w.oil;
+  const double b = tbn(x, oil, w.settings->tbn_method), a = tan(x, oil);
+  const auto bit = [](Limit l, bool reached) { return static_cast<std::uint32_t>(reached) << static_cast<unsigned>(l); };
+  const auto th = [&w](Limit l) { return w.threshold[static_cast<std::size_t>(l)]; };
+  return bit(Limit::tbn_fall, b <= th(Limit::tbn_fall)) | bit(Limit::tan_rise, a >= th(Limit::tan_rise)) |
+         bit(Limit::crossover, a >= b) | bit(Limit::san, san(x) > th(Limit::san)) |
+         bit(Limit::oxidation, x.oxidation >= th(Limit::oxidation)) |
+         bit(Limit::nitration, x.nitration >= th(Limit::nitration)) |
+         bit(Limit::viscosity, viscosity_rise(x, oil) >= th(Limit::viscosity)) |
+         bit(Limit::antioxidant, x.antioxidant <= th(Limit::antioxidant)) |
+         bit(Limit::anti_wear, anti_wear_remaining(x, oil) <= th(Limit::anti_wear)) |
+         bit(Limit::max_hours, oil_hours >= th(Limit::max_hours));
+}
 
 }  // namespace acidload

@@ -26,7 +26,7 @@ struct OilProperties {
   //! Reactive base of the fresh oil b_fresh = fresh TBN − weak base of its method [mg KOH/g].
   double fresh_reactive_base() const;
   //! Weak base a method reads [mg KOH/g].
-  double weak_base(BaseNumberMethod m) const;
+  double weak_base(BaseNumberMethod m) const { return m == BaseNumberMethod::d2896 ? weak_base_d2896 : weak_base_d4739; }
 };
 //! Validates the oil; throws InputError naming the field.
 void validate(const OilProperties& oil);
@@ -75,15 +75,25 @@ struct OilState {
 //! The state of a fresh charge of `mass` [kg].
 OilState fresh_oil(const OilProperties& oil, double mass);
 
-//! Lab readings from the state.
-double tbn(const OilState& s, const OilProperties& oil, BaseNumberMethod m);  //!< b + b_weak,m [mg KOH/g]
-double tan(const OilState& s, const OilProperties& oil);  //!< t_add + a_w + s + β·c_n (D664) [mg KOH/g]
-double san(const OilState& s);                            //!< s (D664 strong acid number) [mg KOH/g]
+//! Lab readings from the state (inline: simulate reads them for every watched limit at every step and
+//! for every trajectory point; one definition here, so every caller computes the same expression).
+//! b + b_weak,m [mg KOH/g]
+inline double tbn(const OilState& s, const OilProperties& oil, BaseNumberMethod m) { return s.base + oil.weak_base(m); }
+//! t_add + a_w + s + β·c_n (D664) [mg KOH/g]
+inline double tan(const OilState& s, const OilProperties& oil) {
+  return s.additive_acidity + s.weak_acid + s.strong_acid + oil.salt_titration_share * s.salts;
+}
+//! s (D664 strong acid number) [mg KOH/g]
+inline double san(const OilState& s) { return s.strong_acid; }
 //! Relative rise of kinematic viscosity at 100 °C over fresh, ν/ν₀ − 1 = c_o·o + c_n·n [-] (linear in
 //! the FTIR readings; soot and insolubles are not modelled).
-double viscosity_rise(const OilState& s, const OilProperties& oil);
+inline double viscosity_rise(const OilState& s, const OilProperties& oil) {
+  return oil.viscosity_per_oxidation * s.oxidation + oil.viscosity_per_nitration * s.nitration;
+}
 //! Anti-wear additive remaining, t_add / t_add,fresh [-] (1 when the fresh oil has no additive acidity).
-double anti_wear_remaining(const OilState& s, const OilProperties& oil);
+inline double anti_wear_remaining(const OilState& s, const OilProperties& oil) {
+  return oil.fresh_tan > 0 ? s.additive_acidity / oil.fresh_tan : 1.0;
+}
 
 //! Rates that are constant over a segment.
 struct OilRates {
