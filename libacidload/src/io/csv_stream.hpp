@@ -11,6 +11,7 @@
 #include <vector>
 
 #include "acidload/io/csv.hpp"
+#include "acidload/io/quantity.hpp"
 
 namespace acidload::io::detail {
 
@@ -55,5 +56,14 @@ std::size_t stream_csv_file(const std::string& path, const CsvFileFacts& facts, 
 
 //! A cell's text as its node's scalar: a bare number gets the header's `unit` ("500" → "500 ppmv").
 void cell_scalar(const std::string& cell, const std::string& unit, std::string& out);
+
+//! The fast path's pieces of the quantity reader (quantity.cpp), each exactly the generic reader's
+//! arithmetic: a whole cell as a number (its syntax and magnitude checks; false where the reader
+//! refuses it); a header unit's factor and offset for a kind (false: not one of the kind's units,
+//! or no unit where the kind needs one); a number converted with them, false where the reader
+//! refuses the result (a temperature at or below 0 K, a negative pressure or count, beyond 1e300).
+bool plain_number(std::string_view s, double& out);
+bool unit_conversion(Kind k, std::string_view unit_text, double& factor, double& offset);
+bool converted(Kind k, double v, double factor, double offset, double& out);
 
 }  // namespace acidload::io::detail
