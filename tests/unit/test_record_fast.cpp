@@ -287,3 +287,50 @@ TEST_CASE("generated records: the fast path gives the generic reader's segments 
   CHECK(accepted > 200);  // the generator's point: most records are read, many are refused
   CHECK(refused > 100);
 }
+
+#include "../../libacidload/src/io/csv_stream.hpp"  // internal: the form pass against the full one
+
+TEST_CASE("generated CSV files: the form pass (no cells made) refuses what reading every cell refuses, at the same place") {
+  const fs::path file = fs::temp_directory_path() / (std::to_string(::getpid()) + "-acidload-form-pass.csv");
+  std::mt19937_64 g(3122026);
+  const std::vector<std::string> pieces = {"1", "2.5", " 3 ", "\"4\"", "\"a \"\"b\"\"\"", "x\"y", "\"open", "\"c\" d",
+                                           "", "\xC3\xA9t\xC3\xA9", "5\r6", "#7", "\"8\"  "};
+  int refused = 0, read = 0;
+  for (int round = 0; round < 2000; ++round) {
+    CAPTURE(round);
+    std::string text = g() % 10 == 0 ? "\xEF\xBB\xBF" : "";
+    const int cols = 1 + static_cast<int>(g() % 4);
+    for (int c = 0; c < cols; ++c) text += (c ? "," : "") + std::string("c") + std::to_string(c);
+    text += "\n";
+    const int rows = static_cast<int>(g() % 8);
+    for (int i = 0; i < rows; ++i) {
+      if (g() % 12 == 0) text += g() % 2 ? "\n" : "# note\n";
+      int n = cols;
+      if (g() % 15 == 0) n += g() % 2 ? 1 : -1;
+      for (int c = 0; c < n; ++c) {
+        const std::size_t k = g() % 40;
+        text += (c ? "," : "") + (k < pieces.size() ? pieces[k] : std::to_string(g() % 1000));
+      }
+      text += g() % 8 == 0 ? "\r\n" : "\n";
+    }
+    CAPTURE(text);
+    std::ofstream(file, std::ios::binary) << text;
+    const io::detail::CsvFileFacts facts = io::detail::scan_csv_file(file.string(), 1u << 20);
+    const io::detail::CsvRowSink none = [](const std::vector<std::string>&, const std::vector<int>&, int, std::string_view) {};
+    const auto outcome = [&](bool form_only) {
+      io::CsvTable header;
+      try {
+        return "rows " + std::to_string(io::detail::stream_csv_file(file.string(), facts, header, none, form_only));
+      } catch (const InputError& e) {
+        return std::string(e.what()) + " | " + e.key() + " | " + e.value() + " | " + e.expected() + " | " +
+               std::to_string(e.where().line) + ":" + std::to_string(e.where().column) + " | " + e.where().line_text;
+      }
+    };
+    const std::string full = outcome(false), form = outcome(true);
+    CHECK(form == full);
+    (full.rfind("rows ", 0) == 0 ? read : refused) += 1;
+  }
+  fs::remove(file);
+  CHECK(read > 300);
+  CHECK(refused > 300);
+}

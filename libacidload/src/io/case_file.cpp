@@ -104,7 +104,7 @@ CsvRecord open_csv_record(Reader& r, const Node& file_node) {
   try {
     rec.facts = detail::scan_csv_file(rec.file, max_record_file_bytes);
     const detail::CsvRowSink count = [](const std::vector<std::string>&, const std::vector<int>&, int, std::string_view) {};
-    rec.rows = detail::stream_csv_file(rec.file, rec.facts, header, count);
+    rec.rows = detail::stream_csv_file(rec.file, rec.facts, header, count, true);  // the form pass: no cells made
   } catch (const InputError& e) {
     if (e.where().line > 0) throw;
     r.fail(file_node, file_node.scalar, "a readable CSV file (" + e.expected() + ")");
@@ -220,6 +220,17 @@ struct FastRows {
   std::vector<FastColumn> cols;
   std::vector<double> values;  //!< per column, the row being read
   bool seen_set = false;       //!< the reader's `seen` points where the last fast row's cells would be
+  //! set_power's outcome (the four fields it sets, studies/operation.cpp) for a gas and a power: the
+  //! gas by its entry in the record's ResolvedGases (its `age`, never reused), 0 for a gas not known
+  //! to the table. Two ways of 32 slots; a miss calls set_power.
+  struct Powered {
+    std::uint64_t gas = 0;
+    double power = 0;
+    double fuel_flow = 0, electrical_power = 0, load = 0, oil_consumption = 0;
+  };
+  std::vector<Powered> powered = std::vector<Powered>(64);
+  std::uint64_t gas = 0;  //!< the gas of the segment last made by the fast path (0: unknown)
+  unsigned flip = 0;
 };
 
 FastRows fast_rows(const NamedColumns& cols, const EngineInputs& eng) {
@@ -330,11 +341,33 @@ bool fast_segment(FastRows& f, const std::vector<std::string>& cells, const Segm
     x.fuel.h2s = k[0], x.fuel.other_sulfur = k[1], x.fuel.chlorine = k[2], x.fuel.fluorine = k[3];
   };
   try {
+    std::uint64_t gas = f.gas;
     if (fuel_changed) {
       put(conc);
       s.fuel = gases.of(x.fuel);
+      gas = gases.table[gases.last].age;
     }
-    if (power_given || fuel_changed) set_power(s, x.eng.rating, power);
+    if (power_given || fuel_changed) {
+      std::uint64_t pb;
+      std::memcpy(&pb, &power, sizeof pb);
+      const std::size_t a = static_cast<std::size_t>(((gas * 0x9E3779B97F4A7C15ull) ^ (pb * 0xBF58476D1CE4E5B9ull)) >> 58) & ~std::size_t{1};
+      FastRows::Powered* hit = nullptr;
+      for (std::size_t k = a; k < a + 2 && gas != 0; ++k)
+        if (f.powered[k].gas == gas && std::memcmp(&f.powered[k].power, &power, sizeof power) == 0) hit = &f.powered[k];
+      if (hit) {
+        s.operation.fuel_flow = hit->fuel_flow;
+        s.operation.electrical_power = hit->electrical_power;
+        s.operation.load = hit->load;
+        s.oil_consumption = hit->oil_consumption;
+      } else {
+        set_power(s, x.eng.rating, power);
+        if (gas != 0) {
+          FastRows::Powered& e = f.powered[a + ((f.flip ^= 1u) & 1u)];
+          e = {gas, power, s.operation.fuel_flow, s.operation.electrical_power, s.operation.load, s.oil_consumption};
+        }
+      }
+    }
+    f.gas = gas;
   } catch (const InputError&) {
     put(held);
     return false;
@@ -376,6 +409,7 @@ Segment csv_segment(const Reader& r, FastRows& f, Document& window, const NamedC
     return s;
   }
   f.seen_set = false;
+  f.gas = 0;  // the generic reader's gas is not known to the fast path's table of powers
   return next_segment(r, fill_row(window, cols, source, i, cells, columns, line, text), prev, x, gases);
 }
 

@@ -40,8 +40,8 @@ std::string trim(std::string_view s) {
 
 class Parser {
  public:
-  Parser(std::string_view text, CsvTable& table, const detail::CsvRowSink* sink = nullptr)
-      : s_(text), t_(table), sink_(sink) {}
+  Parser(std::string_view text, CsvTable& table, const detail::CsvRowSink* sink = nullptr, bool form_only = false)
+      : s_(text), t_(table), sink_(sink), form_only_(form_only) {}
   std::size_t data_rows() const { return data_rows_; }
 
   void run() {
@@ -136,8 +136,53 @@ class Parser {
     return cell < t_.header.size() ? t_.header[cell] : "(extra cell)";
   }
 
+  // A data row's form checked without its cells (form_only_): the row's line passed when it is as
+  // read_record would take it (quotes closed, no quote inside an unquoted cell, no lone CR, the
+  // header's number of cells); false, with nothing consumed, when read_record must read it (and
+  // refuse it, with its message).
+  bool pass_form() {
+    std::size_t p = pos_, n = 0;
+    for (;;) {
+      while (p < s_.size() && is_space(s_[p])) ++p;
+      if (p < s_.size() && s_[p] == '"') {
+        ++p;
+        for (;;) {
+          if (at_line_end(p)) return false;
+          if (s_[p] == '"') {
+            if (p + 1 < s_.size() && s_[p + 1] == '"') {
+              p += 2;
+              continue;
+            }
+            ++p;
+            break;
+          }
+          ++p;
+        }
+        while (p < s_.size() && is_space(s_[p])) ++p;
+        if (!at_line_end(p) && s_[p] != ',') return false;
+      } else {
+        while (!at_line_end(p) && s_[p] != ',') {
+          if (s_[p] == '"' || s_[p] == '\r') return false;
+          ++p;
+        }
+      }
+      ++n;
+      if (p < s_.size() && s_[p] == ',') {
+        ++p;
+        continue;
+      }
+      break;
+    }
+    if (n != t_.header.size()) return false;
+    pos_ = p;
+    next_line();
+    ++data_rows_;
+    return true;
+  }
+
   // Reads one line's cells; true when they were a data row handed to the sink.
   bool read_record() {
+    if (form_only_ && !t_.header.empty() && pass_form()) return true;
     std::vector<std::string>& cells = cells_;  // kept from row to row: no allocation per row
     std::vector<int>& cols = cols_;
     cells.clear();
@@ -235,6 +280,7 @@ class Parser {
   std::string_view s_;
   CsvTable& t_;
   const detail::CsvRowSink* sink_ = nullptr;
+  bool form_only_ = false;  //!< data rows checked for their form only, the sink not called
   std::size_t data_rows_ = 0;
   std::vector<std::string> cells_;
   std::vector<int> cols_;
@@ -354,7 +400,8 @@ CsvFileFacts scan_csv_file(const std::string& path, std::size_t max_bytes) {
 }
 
 struct CsvFileReader::Impl {
-  Impl(std::string p, CsvTable& t, const CsvRowSink& s) : path(std::move(p)), table(t), sink(s), parser("", t, &sink) {}
+  Impl(std::string p, CsvTable& t, const CsvRowSink& s, bool form_only)
+      : path(std::move(p)), table(t), sink(s), parser("", t, &sink, form_only) {}
   std::string path;
   CsvTable& table;
   CsvRowSink sink;
@@ -399,8 +446,9 @@ struct CsvFileReader::Impl {
   }
 };
 
-CsvFileReader::CsvFileReader(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink)
-    : p_(std::make_unique<Impl>(path, header, sink)) {
+CsvFileReader::CsvFileReader(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink,
+                             bool form_only)
+    : p_(std::make_unique<Impl>(path, header, sink, form_only)) {
   header = CsvTable{};
   header.file = path;
   p_->fd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
@@ -424,8 +472,9 @@ bool CsvFileReader::next() {
   return false;
 }
 
-std::size_t stream_csv_file(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink) {
-  CsvFileReader r(path, facts, header, sink);
+std::size_t stream_csv_file(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink,
+                            bool form_only) {
+  CsvFileReader r(path, facts, header, sink, form_only);
   std::size_t rows = 0;
   while (r.next()) ++rows;
   return rows;

@@ -40,7 +40,10 @@ CsvFileFacts scan_csv_file(const std::string& path, std::size_t max_bytes);
 //! file with no header or no data row is refused). The sink's own exceptions pass through.
 class CsvFileReader {
  public:
-  CsvFileReader(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink);
+  //! `form_only`: a data row whose form is right is passed over (counted, the sink not called); a
+  //! row with a mistake in its form is read and refused as always.
+  CsvFileReader(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink,
+                bool form_only = false);
   ~CsvFileReader();
   CsvFileReader(const CsvFileReader&) = delete;
   CsvFileReader& operator=(const CsvFileReader&) = delete;
@@ -52,7 +55,8 @@ class CsvFileReader {
 };
 
 //! Every data row of the file to `sink` (a CsvFileReader read to the end); returns their number.
-std::size_t stream_csv_file(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink);
+std::size_t stream_csv_file(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink,
+                            bool form_only = false);
 
 //! A cell's text as its node's scalar: a bare number gets the header's `unit` ("500" → "500 ppmv").
 void cell_scalar(const std::string& cell, const std::string& unit, std::string& out);
