@@ -185,19 +185,21 @@ class Parser {
     if (form_only_ && !t_.header.empty() && pass_form()) return true;
     std::vector<std::string>& cells = cells_;  // kept from row to row: no allocation per row
     std::vector<int>& cols = cols_;
-    cells.clear();
+    std::size_t k = 0;  // the row's cells so far (cells_ keeps its strings from row to row: their room is reused)
     cols.clear();
     rec_start_ = line_start_;
     rec_line_ = line_;
     for (;;) {
       while (pos_ < s_.size() && is_space(s_[pos_])) ++pos_;
       const int col = column(pos_);
-      std::string cell;
+      std::string& cell = quoted_;
+      std::string_view text;
       if (pos_ < s_.size() && s_[pos_] == '"') {
+        cell.clear();
         const std::size_t open = pos_++;
         for (;;) {
           if (at_line_end(pos_))
-            throw error_here(open, key_for(cells.size()), std::string(s_.substr(open, pos_ - open)),
+            throw error_here(open, key_for(k), std::string(s_.substr(open, pos_ - open)),
                              "a closing quote on the same line for the quote opened here");
           if (s_[pos_] == '"') {
             if (pos_ + 1 < s_.size() && s_[pos_ + 1] == '"') {
@@ -212,21 +214,25 @@ class Parser {
         }
         while (pos_ < s_.size() && is_space(s_[pos_])) ++pos_;
         if (!at_line_end(pos_) && s_[pos_] != ',')
-          throw error_here(pos_, key_for(cells.size()), cell, "a comma or the line end after the closing quote");
+          throw error_here(pos_, key_for(k), cell, "a comma or the line end after the closing quote");
+        text = cell;
       } else {
         const std::size_t start = pos_;
         while (!at_line_end(pos_) && s_[pos_] != ',') {
           if (s_[pos_] == '"')
-            throw error_here(pos_, key_for(cells.size()), trim(s_.substr(start, pos_ - start + 1)),
+            throw error_here(pos_, key_for(k), trim(s_.substr(start, pos_ - start + 1)),
                              "a cell quoted as a whole when it holds a quote (\"say \"\"x\"\"\")");
           if (s_[pos_] == '\r')
-            throw error_here(pos_, key_for(cells.size()), trim(s_.substr(start, pos_ - start)),
+            throw error_here(pos_, key_for(k), trim(s_.substr(start, pos_ - start)),
                              "line ends LF or CR LF (a lone CR is here)");
           ++pos_;
         }
-        cell = std::string(s_.substr(start, pos_ - start));
+        text = s_.substr(start, pos_ - start);
       }
-      cells.push_back(trim(cell));
+      while (!text.empty() && is_space(text.front())) text.remove_prefix(1);  // trimmed, as trim() does
+      while (!text.empty() && is_space(text.back())) text.remove_suffix(1);
+      if (k == cells.size()) cells.emplace_back();
+      cells[k++].assign(text);
       cols.push_back(col);
       if (pos_ < s_.size() && s_[pos_] == ',') {
         ++pos_;
@@ -234,6 +240,7 @@ class Parser {
       }
       break;
     }
+    cells.resize(k);
     const int end_col = column(pos_);
     const int line = line_;
     const std::string_view line_text = s_.substr(line_start_, pos_ - line_start_);
@@ -284,6 +291,7 @@ class Parser {
   std::size_t data_rows_ = 0;
   std::vector<std::string> cells_;
   std::vector<int> cols_;
+  std::string quoted_;  // a quoted cell's text, unquoted
   std::size_t pos_ = 0;
   std::size_t line_start_ = 0;
   int line_ = 1;
