@@ -104,7 +104,7 @@ CsvRecord open_csv_record(Reader& r, const Node& file_node) {
   try {
     rec.facts = detail::scan_csv_file(rec.file, max_record_file_bytes);
     const detail::CsvRowSink count = [](const std::vector<std::string>&, const std::vector<int>&, int, std::string_view) {};
-    rec.rows = detail::stream_csv_file(rec.file, rec.facts, header, count);
+    rec.rows = detail::stream_csv_file(rec.file, rec.facts, header, count, true);  // the form pass: no cells made
   } catch (const InputError& e) {
     if (e.where().line > 0) throw;
     r.fail(file_node, file_node.scalar, "a readable CSV file (" + e.expected() + ")");
@@ -148,17 +148,6 @@ const Node& fill_row(Document& d, const NamedColumns& cols, int source, std::siz
   return row;
 }
 
-// Streams the record's rows to `take(i, row)`.
-void stream_rows(CsvRecord& rec, const std::function<void(std::size_t, const Node&)>& take) {
-  std::size_t i = 0;
-  CsvTable header;
-  const detail::CsvRowSink sink = [&](const std::vector<std::string>& cells, const std::vector<int>& columns, int line,
-                                      std::string_view text) {
-    const std::size_t at = i++;
-    take(at, fill_row(*rec.window, rec.cols, rec.source, at, cells, columns, line, text));
-  };
-  detail::stream_csv_file(rec.file, rec.facts, header, sink);
-}
 
 // Row `i` of the record again (for a refusal found after the rows were read).
 const Node& csv_row_at(CsvRecord& rec, std::size_t i) {
@@ -200,6 +189,245 @@ Segment next_segment(const Reader& r, const Node& row, const Segment& prev, RowC
   return s;
 }
 
+// The fast path for a CSV record's rows: the header's units resolved once per column (factor,
+// offset, the contaminant's unit and basis), each cell read with from_chars straight into the
+// segment, nothing allocated and no node filled. It takes a row only when every cell is a plain
+// number that the generic reader would take as it stands (in range, converted, the gas resolved,
+// the power set); anything else — an empty cell, a unit or quotes in the cell, a value out of range,
+// a refusal from the core — leaves the row to the generic reader (fill_row and next_segment), which
+// then gives today's value or today's message at today's line and column. A column the fast path
+// does not read (event, event-amount) leaves every row to the generic reader. Its segments are bit
+// for bit the generic reader's (tested on generated rows, tests/unit/test_record_fast.cpp).
+}  // namespace
+
+bool detail::csv_generic_rows_only = false;
+
+namespace {
+
+struct FastColumn {
+  enum class Field { hours, calendar_hours, starts, h2s, other_sulfur, chlorine, fluorine, power, load, jacket_water_out,
+                     oil_temperature, coldest_crankcase_surface, blowby, excess_air_ratio };
+  Field field = Field::hours;
+  const CaseKey* key = nullptr;  //!< a quantity's registry key (null: a contaminant)
+  double factor = 1, offset = 0;
+  ConcentrationUnit unit = ConcentrationUnit::ppmv;  //!< a contaminant's
+  bool basis_given = false;
+  Basis basis = Basis::dry;
+};
+
+struct FastRows {
+  bool usable = false;
+  std::vector<FastColumn> cols;
+  std::vector<double> values;  //!< per column, the row being read
+  bool seen_set = false;       //!< the reader's `seen` points where the last fast row's cells would be
+  //! set_power's outcome (the four fields it sets, studies/operation.cpp) for a gas and a power: the
+  //! gas by its entry in the record's ResolvedGases (its `age`, never reused), 0 for a gas not known
+  //! to the table. Two ways of 32 slots; a miss calls set_power.
+  struct Powered {
+    std::uint64_t gas = 0;
+    double power = 0;
+    double fuel_flow = 0, electrical_power = 0, load = 0, oil_consumption = 0;
+  };
+  std::vector<Powered> powered = std::vector<Powered>(64);
+  std::uint64_t gas = 0;  //!< the gas of the segment last made by the fast path (0: unknown)
+  unsigned flip = 0;
+};
+
+FastRows fast_rows(const NamedColumns& cols, const EngineInputs& eng) {
+  using F = FastColumn::Field;
+  static const std::pair<const char*, F> fields[] = {
+      {"hours", F::hours}, {"calendar-hours", F::calendar_hours}, {"starts", F::starts}, {"h2s", F::h2s},
+      {"other-sulfur", F::other_sulfur}, {"chlorine", F::chlorine}, {"fluorine", F::fluorine}, {"power", F::power},
+      {"load", F::load}, {"jacket-water-out", F::jacket_water_out}, {"oil-temperature", F::oil_temperature},
+      {"coldest-crankcase-surface", F::coldest_crankcase_surface}, {"blow-by", F::blowby},
+      {"excess-air-ratio", F::excess_air_ratio}};
+  FastRows f;
+  bool hours = false, power = false, load = false;
+  for (std::size_t c = 0; c < cols.names.size(); ++c) {
+    const std::string& name = cols.names[c];
+    FastColumn fc;
+    bool known = false;
+    for (const auto& [n, field] : fields)
+      if (name == n) fc.field = field, known = true;
+    if (!known) return f;  // event, event-amount: the generic reader's
+    const CaseKey& k = case_key("segment." + name);
+    if (k.type == KeyType::quantity) {
+      fc.key = &k;
+      if (!detail::unit_conversion(k.kind, cols.units[c], fc.factor, fc.offset)) return f;
+    } else if (k.type == KeyType::contaminant) {
+      // the header's unit as the reader takes it, on the figure 1 (the factor exactly), its basis
+      // told apart from the default by reading it with either default
+      Document none;
+      Node one;
+      one.type = Node::Type::scalar;
+      one.scalar = "1 " + cols.units[c];
+      one.path = "record[0]." + name;
+      try {
+        const Concentration dry = concentration(none, one, Basis::dry), wet = concentration(none, one, Basis::wet);
+        fc.factor = dry.value;
+        fc.unit = dry.unit;
+        fc.basis_given = dry.basis == wet.basis;
+        fc.basis = dry.basis;
+      } catch (const InputError&) {
+        return f;
+      }
+    } else {
+      return f;
+    }
+    hours = hours || fc.field == F::hours;
+    power = power || fc.field == F::power;
+    load = load || fc.field == F::load;
+    f.cols.push_back(fc);
+  }
+  // no hours, both power and load, or a power change where the engine's fuel flow is fixed: refused
+  // on every row, by the generic reader
+  if (!hours || (power && load) || ((power || load) && eng.rating.fixed_fuel_flow > 0)) return f;
+  f.values.resize(f.cols.size());
+  f.usable = true;
+  return f;
+}
+
+// Row `cells` as the segment after `prev` (next_segment's result), or false (nothing changed) when
+// the fast path leaves the row to the generic reader.
+bool fast_segment(FastRows& f, const std::vector<std::string>& cells, const Segment& prev, RowContext& x,
+                  ResolvedGases& gases, Segment& s) {
+  using F = FastColumn::Field;
+  if (!f.usable || cells.size() != f.cols.size()) return false;
+  for (std::size_t c = 0; c < cells.size(); ++c) {
+    const FastColumn& fc = f.cols[c];
+    double v = 0;
+    if (!detail::plain_number(cells[c], v)) return false;
+    if (fc.key) {
+      if (!detail::converted(fc.key->kind, v, fc.factor, fc.offset, v) || !detail::snapped_in_range(*fc.key, v)) return false;
+    } else {
+      if (v < 0) return false;
+      v *= fc.factor;
+    }
+    f.values[c] = v;
+  }
+  // the row's changes, in read_segment's order, on copies of what a refusal must leave as it was
+  Concentration conc[4] = {x.fuel.h2s, x.fuel.other_sulfur, x.fuel.chlorine, x.fuel.fluorine};
+  double power = x.power;
+  bool fuel_changed = false, power_given = false, starts_given = false;
+  s = prev;
+  s.events.clear();
+  s.calendar_hours = -1;
+  s.starts = 0;
+  for (std::size_t c = 0; c < cells.size(); ++c) {
+    const FastColumn& fc = f.cols[c];
+    const double v = f.values[c];
+    switch (fc.field) {
+      case F::hours: s.hours = v; break;
+      case F::calendar_hours: s.calendar_hours = v; break;
+      case F::starts: s.starts = v, starts_given = true; break;
+      case F::h2s:
+      case F::other_sulfur:
+      case F::chlorine:
+      case F::fluorine: {
+        Concentration& k = conc[static_cast<int>(fc.field) - static_cast<int>(F::h2s)];
+        k.value = v;
+        k.unit = fc.unit;
+        k.basis = fc.basis_given ? fc.basis : x.fuel.main_basis;
+        fuel_changed = true;
+        break;
+      }
+      case F::power: power = v, power_given = true; break;
+      case F::load: power = v * x.eng.rating.rated_power, power_given = true; break;
+      default: break;
+    }
+  }
+  const Concentration held[4] = {x.fuel.h2s, x.fuel.other_sulfur, x.fuel.chlorine, x.fuel.fluorine};
+  const auto put = [&](const Concentration* k) {
+    x.fuel.h2s = k[0], x.fuel.other_sulfur = k[1], x.fuel.chlorine = k[2], x.fuel.fluorine = k[3];
+  };
+  try {
+    std::uint64_t gas = f.gas;
+    if (fuel_changed) {
+      put(conc);
+      s.fuel = gases.of(x.fuel);
+      gas = gases.table[gases.last].age;
+    }
+    if (power_given || fuel_changed) {
+      std::uint64_t pb;
+      std::memcpy(&pb, &power, sizeof pb);
+      const std::size_t a = static_cast<std::size_t>(((gas * 0x9E3779B97F4A7C15ull) ^ (pb * 0xBF58476D1CE4E5B9ull)) >> 58) & ~std::size_t{1};
+      FastRows::Powered* hit = nullptr;
+      for (std::size_t k = a; k < a + 2 && gas != 0; ++k)
+        if (f.powered[k].gas == gas && std::memcmp(&f.powered[k].power, &power, sizeof power) == 0) hit = &f.powered[k];
+      if (hit) {
+        s.operation.fuel_flow = hit->fuel_flow;
+        s.operation.electrical_power = hit->electrical_power;
+        s.operation.load = hit->load;
+        s.oil_consumption = hit->oil_consumption;
+      } else {
+        set_power(s, x.eng.rating, power);
+        if (gas != 0) {
+          FastRows::Powered& e = f.powered[a + ((f.flip ^= 1u) & 1u)];
+          e = {gas, power, s.operation.fuel_flow, s.operation.electrical_power, s.operation.load, s.oil_consumption};
+        }
+      }
+    }
+    f.gas = gas;
+  } catch (const InputError&) {
+    put(held);
+    return false;
+  } catch (const NotModelledError&) {
+    put(held);
+    return false;
+  }
+  x.power = power;
+  for (std::size_t c = 0; c < cells.size(); ++c) {
+    const double v = f.values[c];
+    switch (f.cols[c].field) {
+      case F::jacket_water_out: s.operation.jacket_water_out = v; break;
+      case F::oil_temperature: s.oil_temperature = v; break;
+      case F::coldest_crankcase_surface: s.operation.coldest_crankcase_surface = v; break;
+      case F::blowby: s.operation.blowby_share = v; break;
+      case F::excess_air_ratio: s.operation.air.excess_air_ratio = v; break;
+      default: break;
+    }
+  }
+  if (!starts_given && x.eng.start_every > 0) s.starts = s.hours / x.eng.start_every;
+  return true;
+}
+
+// The next segment from a CSV row: the fast path's when it takes the row, else the generic reader's
+// (the row filled into the window node and read by read_segment). The reader's `seen` is left as
+// the generic reader would leave it: its quantity keys pointing at the window's nodes of the row.
+Segment csv_segment(const Reader& r, FastRows& f, Document& window, const NamedColumns& cols, int source, std::size_t i,
+                    const std::vector<std::string>& cells, const std::vector<int>& columns, int line,
+                    std::string_view text, const Segment& prev, RowContext& x, ResolvedGases& gases) {
+  Segment s;
+  if (!detail::csv_generic_rows_only && fast_segment(f, cells, prev, x, gases, s)) {
+    if (!f.seen_set) {  // every cell is set, so column c is the row node's entry c (room for them is reserved)
+      Node& row = window.root;
+      if (row.entries.size() < f.cols.size()) row.entries.resize(f.cols.size()), row.key_marks.resize(f.cols.size());
+      for (std::size_t c = 0; c < f.cols.size(); ++c)
+        if (f.cols[c].key) r.seen[f.cols[c].key->path] = &row.entries[c].second;
+      f.seen_set = true;
+    }
+    return s;
+  }
+  f.seen_set = false;
+  f.gas = 0;  // the generic reader's gas is not known to the fast path's table of powers
+  return next_segment(r, fill_row(window, cols, source, i, cells, columns, line, text), prev, x, gases);
+}
+
+// Streams the record's rows as segments to `take(i, segment)`, each after `prev` (updated).
+void stream_rows(const Reader& r, CsvRecord& rec, Segment& prev, RowContext& x, ResolvedGases& gases,
+                 const std::function<void(std::size_t, const Segment&)>& take) {
+  std::size_t i = 0;
+  CsvTable header;
+  FastRows fast = fast_rows(rec.cols, x.eng);
+  const detail::CsvRowSink sink = [&](const std::vector<std::string>& cells, const std::vector<int>& columns, int line,
+                                      std::string_view text) {
+    const std::size_t at = i++;
+    prev = csv_segment(r, fast, *rec.window, rec.cols, rec.source, at, cells, columns, line, text, prev, x, gases);
+    take(at, prev);
+  };
+  detail::stream_csv_file(rec.file, rec.facts, header, sink);
+}
+
 // A CSV record read again for each run (EngineCase::streamed): rows made into segments exactly as
 // when the case was loaded (the same reader code on the same context), after checking that the
 // file is still the one that was read (size, modification time and digest of every byte).
@@ -237,6 +465,7 @@ class CsvRecordStream final : public RecordStream {
       RowContext x;
       ResolvedGases gases;
       Segment prev, cur;
+      FastRows fast;
       CsvTable header;
       std::unique_ptr<detail::CsvFileReader> rows;
       NamedColumns cols;
@@ -251,10 +480,10 @@ class CsvRecordStream final : public RecordStream {
     st->prev = base_;
     st->cols = cols_;
     st->source = source_;
+    st->fast = fast_rows(cols_, context_.eng);
     const detail::CsvRowSink sink = [p = st.get()](const std::vector<std::string>& c, const std::vector<int>& cols, int l,
                                                    std::string_view t) {
-      const Node& row = fill_row(*p->window, p->cols, p->source, p->i, c, cols, l, t);
-      p->cur = next_segment(p->r, row, p->prev, p->x, p->gases);
+      p->cur = csv_segment(p->r, p->fast, *p->window, p->cols, p->source, p->i, c, cols, l, t, p->prev, p->x, p->gases);
       p->prev = p->cur;
       ++p->i;
     };
@@ -444,20 +673,37 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
   };
   std::optional<std::size_t> bad_operation;  // the first segment whose operation is refused
   std::exception_ptr bad_operation_error;
+  unsigned flip = 0;  // which of a full slot pair a new state replaces, in turn
   const auto check_operation = [&](std::size_t i, const Segment& s) {
     if (bad_operation) return;
     CheckedState* slot = nullptr;
     if (!checked.empty()) {
       const CheckedState k = state_of(s);
       static_assert(sizeof k % sizeof(std::uint64_t) == 0, "hashed in words");
-      std::uint64_t h = 1469598103934665603ull;  // FNV-1a over the state's 8-byte words
-      for (std::size_t b = 0; b < sizeof k; b += sizeof(std::uint64_t)) {
+      // FNV-1a over the state's 8-byte words in four lanes (the slot only: the state is compared in full)
+      std::uint64_t h[4] = {1469598103934665603ull, 0x9E3779B97F4A7C15ull, 0xC2B2AE3D27D4EB4Full, 0x165667B19E3779F9ull};
+      std::size_t b = 0;
+      const auto* bytes = reinterpret_cast<const unsigned char*>(&k);
+      for (; b + 4 * sizeof(std::uint64_t) <= sizeof k; b += 4 * sizeof(std::uint64_t))
+        for (int l = 0; l < 4; ++l) {
+          std::uint64_t w;
+          std::memcpy(&w, bytes + b + l * sizeof w, sizeof w);
+          h[l] = (h[l] ^ w) * 1099511628211ull;
+        }
+      for (int l = 0; b < sizeof k; b += sizeof(std::uint64_t), ++l) {
         std::uint64_t w;
-        std::memcpy(&w, reinterpret_cast<const unsigned char*>(&k) + b, sizeof w);
-        h = (h ^ w) * 1099511628211ull;
+        std::memcpy(&w, bytes + b, sizeof w);
+        h[l] = (h[l] ^ w) * 1099511628211ull;
       }
-      slot = &checked[(h ^ (h >> 29)) % checked.size()];
-      if (slot->used && std::memcmp(static_cast<const void*>(slot), static_cast<const void*>(&k), sizeof k) == 0) return;
+      std::uint64_t m = h[0] ^ (h[1] * 0x9E3779B97F4A7C15ull) ^ (h[2] * 0xC2B2AE3D27D4EB4Full) ^ (h[3] * 0x165667B19E3779F9ull);
+      m = (m ^ (m >> 30)) * 0xBF58476D1CE4E5B9ull;  // the splitmix64 finaliser: every bit to every bit
+      m = (m ^ (m >> 27)) * 0x94D049BB133111EBull;
+      const std::size_t a = static_cast<std::size_t>((m ^ (m >> 31)) % checked.size()), b2 = a ^ 1;  // two ways
+      const auto same = [&](const CheckedState& c) {
+        return c.used && std::memcmp(static_cast<const void*>(&c), static_cast<const void*>(&k), sizeof k) == 0;
+      };
+      if (same(checked[a]) || same(checked[b2])) return;
+      slot = !checked[a].used ? &checked[a] : !checked[b2].used ? &checked[b2] : &checked[(flip ^= 1) ? a : b2];
     }
     try {
       Transfer t;
@@ -485,20 +731,21 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
     const RowContext before = x;
     Segment prev = base, first;
     ResolvedGases gases;
-    const auto take = [&](std::size_t i, const Node& row) {
-      Segment s = next_segment(r, row, prev, x, gases);
+    const auto take = [&](std::size_t i, const Segment& s) {
       hours += s.hours;
       if (hours > max_simulated_hours && !over) over = i, over_hours = hours;
       check_operation(i, s);
       if (i == 0) first = s;
       if (!streamed) c.record.push_back(s);
-      prev = std::move(s);
     };
     if (from_csv) {
       if (!streamed) c.record.reserve(csv.rows);
-      stream_rows(csv, take);
+      stream_rows(r, csv, prev, x, gases, take);
     } else {
-      for (std::size_t i = 0; i < rows.size(); ++i) take(i, rows[i]);
+      for (std::size_t i = 0; i < rows.size(); ++i) {
+        prev = next_segment(r, rows[i], prev, x, gases);
+        take(i, prev);
+      }
     }
     if (streamed) {
       c.streamed = std::make_shared<CsvRecordStream>(r, csv, before, base, hours, first);

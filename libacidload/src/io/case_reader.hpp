@@ -3,6 +3,7 @@
 // Every value is read through the key registry (keys.hpp): its kind, range and the message that
 // names the key as written and its position. Each node keeps the document it came from, so a value
 // merged in from an overlay or a variant is still reported at its own file, line and column.
+#include <cstdint>
 #include <initializer_list>
 #include <map>
 #include <memory>
@@ -19,6 +20,14 @@
 #include "acidload/studies/operation.hpp"
 
 namespace acidload::io::detail {
+
+//! A value in the core unit snapped to the key's range ends it is within 1e-12 of (relative), and
+//! whether it then lies in the range (Reader::value's check).
+bool snapped_in_range(const CaseKey& k, double& v);
+
+//! For the tests only: every CSV record row read by the generic reader (fill_row, read_segment), the
+//! fast path left out, to compare the two (tests/unit/test_record_fast.cpp). Not set while loading.
+extern bool csv_generic_rows_only;
 
 struct Reader {
   std::vector<std::shared_ptr<Document>> docs;
@@ -86,10 +95,13 @@ struct ResolvedGases {
     Concentration h2s, other_sulfur, chlorine, fluorine;
     FuelGas gas;
     bool used = false;
+    std::uint64_t age = 0;  //!< when it was put in (the older of a slot pair is replaced)
   };
-  std::vector<Entry> table = std::vector<Entry>(256);
-  //! resolve(fuel), from the table when its four figures were resolved before.
-  FuelGas of(const FuelAnalysis& fuel);
+  std::vector<Entry> table = std::vector<Entry>(256);  //!< in pairs of slots (2i, 2i + 1)
+  std::size_t last = 0;                                //!< the slot found or filled last
+  std::uint64_t clock = 0;
+  //! resolve(fuel), from the table when its four figures were resolved before (valid until the next call).
+  const FuelGas& of(const FuelAnalysis& fuel);
 };
 
 //! One record row's changes over the previous segment (YAML map or CSV row made into nodes).

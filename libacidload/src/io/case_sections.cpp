@@ -39,15 +39,19 @@ void Reader::require_section(const Node& n, std::string_view section) const {
   require_keys(doc(n), n, section_keys(section));
 }
 
-double Reader::value(const Node& n, const CaseKey& k) const {
-  double v = quantity(doc(n), n, k.kind);
+bool snapped_in_range(const CaseKey& k, double& v) {
   // an end written in another unit ("-40 degC" for 233.15 K) is the end, not a rounding error past it
   const auto snap = [&](double end) {
     if (std::isfinite(end) && end != 0 && std::fabs(v - end) <= 1e-12 * std::fabs(end)) v = end;
   };
   snap(k.low);
   snap(k.high);
-  if (!k.in_range(v)) fail(n, n.scalar, "a value " + k.range_text(unit_written(n.scalar)));
+  return k.in_range(v);
+}
+
+double Reader::value(const Node& n, const CaseKey& k) const {
+  double v = quantity(doc(n), n, k.kind);
+  if (!snapped_in_range(k, v)) fail(n, n.scalar, "a value " + k.range_text(unit_written(n.scalar)));
   seen[k.path] = &n;
   return v;
 }
@@ -462,20 +466,41 @@ void read_run(const Reader& r, const Node& run, double& horizon, RunOptions& o) 
   r.get(run, "run.detection-step", o.detection_step);
 }
 
-FuelGas ResolvedGases::of(const FuelAnalysis& fuel) {
+const FuelGas& ResolvedGases::of(const FuelAnalysis& fuel) {
   const Concentration key[4] = {fuel.h2s, fuel.other_sulfur, fuel.chlorine, fuel.fluorine};
   static_assert(sizeof(Concentration) == sizeof(double) + 2 * sizeof(int), "no padding: compared byte by byte");
-  const auto* bytes = reinterpret_cast<const unsigned char*>(key);
-  std::uint64_t h = 1469598103934665603ull;  // FNV-1a
-  for (std::size_t b = 0; b < sizeof key; ++b) h = (h ^ bytes[b]) * 1099511628211ull;
-  Entry& e = table[h % table.size()];
-  const Concentration* held[4] = {&e.h2s, &e.other_sulfur, &e.chlorine, &e.fluorine};
-  bool same = e.used;
-  for (int k = 0; k < 4 && same; ++k) same = std::memcmp(held[k], &key[k], sizeof(Concentration)) == 0;
-  if (same) return e.gas;
-  const FuelGas gas = resolve(fuel);
+  static_assert(sizeof key % (2 * sizeof(std::uint64_t)) == 0, "hashed in pairs of words");
+  const auto same = [&](const Entry& e) {
+    return e.used && std::memcmp(&e.h2s, &key[0], sizeof(Concentration)) == 0 &&
+           std::memcmp(&e.other_sulfur, &key[1], sizeof(Concentration)) == 0 &&
+           std::memcmp(&e.chlorine, &key[2], sizeof(Concentration)) == 0 &&
+           std::memcmp(&e.fluorine, &key[3], sizeof(Concentration)) == 0;
+  };
+  if (same(table[last])) return table[last].gas;  // most rows keep the gas of the row before
+  // the slot pair: FNV-1a over the key's 8-byte words in two lanes, then the splitmix64 finaliser
+  // (a hash only picks where to look: a miss costs a resolve, never a wrong gas, since the key is
+  // compared in full)
+  std::uint64_t h0 = 1469598103934665603ull, h1 = 0x9E3779B97F4A7C15ull;
+  for (std::size_t b = 0; b < sizeof key; b += 2 * sizeof(std::uint64_t)) {
+    std::uint64_t w0, w1;
+    std::memcpy(&w0, reinterpret_cast<const unsigned char*>(key) + b, sizeof w0);
+    std::memcpy(&w1, reinterpret_cast<const unsigned char*>(key) + b + sizeof w0, sizeof w1);
+    h0 = (h0 ^ w0) * 1099511628211ull;
+    h1 = (h1 ^ w1) * 1099511628211ull;
+  }
+  std::uint64_t h = h0 ^ (h1 * 0x9E3779B97F4A7C15ull);
+  h = (h ^ (h >> 30)) * 0xBF58476D1CE4E5B9ull;
+  h = (h ^ (h >> 27)) * 0x94D049BB133111EBull;
+  const std::size_t a = static_cast<std::size_t>((h ^ (h >> 31)) % table.size()), b = a ^ 1;  // two ways
+  if (same(table[a])) return table[last = a].gas;
+  if (same(table[b])) return table[last = b].gas;
+  const FuelGas gas = resolve(fuel);  // may throw: the table is left as it was
+  const std::size_t put = !table[a].used ? a : !table[b].used ? b : (table[a].age <= table[b].age ? a : b);
+  Entry& e = table[put];
   e.h2s = key[0], e.other_sulfur = key[1], e.chlorine = key[2], e.fluorine = key[3], e.gas = gas, e.used = true;
-  return gas;
+  e.age = ++clock;
+  last = put;
+  return e.gas;
 }
 
 void read_segment(const Reader& r, const Node& row, Segment& s, const EngineInputs& eng, const OilCharge& ch,
@@ -494,7 +519,10 @@ void read_segment(const Reader& r, const Node& row, Segment& s, const EngineInpu
   conc("other-sulfur", fuel.other_sulfur);
   conc("chlorine", fuel.chlorine);
   conc("fluorine", fuel.fluorine);
-  if (fuel_changed) s.fuel = resolved ? resolved->of(fuel) : resolve(fuel);
+  if (fuel_changed) {
+    if (resolved) s.fuel = resolved->of(fuel);
+    else s.fuel = resolve(fuel);
+  }
   one_of(r, row, "power", "load");
   const Node* pw = row.find("power");
   const Node* ld = row.find("load");

@@ -40,8 +40,8 @@ std::string trim(std::string_view s) {
 
 class Parser {
  public:
-  Parser(std::string_view text, CsvTable& table, const detail::CsvRowSink* sink = nullptr)
-      : s_(text), t_(table), sink_(sink) {}
+  Parser(std::string_view text, CsvTable& table, const detail::CsvRowSink* sink = nullptr, bool form_only = false)
+      : s_(text), t_(table), sink_(sink), form_only_(form_only) {}
   std::size_t data_rows() const { return data_rows_; }
 
   void run() {
@@ -136,23 +136,70 @@ class Parser {
     return cell < t_.header.size() ? t_.header[cell] : "(extra cell)";
   }
 
+  // A data row's form checked without its cells (form_only_): the row's line passed when it is as
+  // read_record would take it (quotes closed, no quote inside an unquoted cell, no lone CR, the
+  // header's number of cells); false, with nothing consumed, when read_record must read it (and
+  // refuse it, with its message).
+  bool pass_form() {
+    std::size_t p = pos_, n = 0;
+    for (;;) {
+      while (p < s_.size() && is_space(s_[p])) ++p;
+      if (p < s_.size() && s_[p] == '"') {
+        ++p;
+        for (;;) {
+          if (at_line_end(p)) return false;
+          if (s_[p] == '"') {
+            if (p + 1 < s_.size() && s_[p + 1] == '"') {
+              p += 2;
+              continue;
+            }
+            ++p;
+            break;
+          }
+          ++p;
+        }
+        while (p < s_.size() && is_space(s_[p])) ++p;
+        if (!at_line_end(p) && s_[p] != ',') return false;
+      } else {
+        while (!at_line_end(p) && s_[p] != ',') {
+          if (s_[p] == '"' || s_[p] == '\r') return false;
+          ++p;
+        }
+      }
+      ++n;
+      if (p < s_.size() && s_[p] == ',') {
+        ++p;
+        continue;
+      }
+      break;
+    }
+    if (n != t_.header.size()) return false;
+    pos_ = p;
+    next_line();
+    ++data_rows_;
+    return true;
+  }
+
   // Reads one line's cells; true when they were a data row handed to the sink.
   bool read_record() {
+    if (form_only_ && !t_.header.empty() && pass_form()) return true;
     std::vector<std::string>& cells = cells_;  // kept from row to row: no allocation per row
     std::vector<int>& cols = cols_;
-    cells.clear();
+    std::size_t k = 0;  // the row's cells so far (cells_ keeps its strings from row to row: their room is reused)
     cols.clear();
     rec_start_ = line_start_;
     rec_line_ = line_;
     for (;;) {
       while (pos_ < s_.size() && is_space(s_[pos_])) ++pos_;
       const int col = column(pos_);
-      std::string cell;
+      std::string& cell = quoted_;
+      std::string_view text;
       if (pos_ < s_.size() && s_[pos_] == '"') {
+        cell.clear();
         const std::size_t open = pos_++;
         for (;;) {
           if (at_line_end(pos_))
-            throw error_here(open, key_for(cells.size()), std::string(s_.substr(open, pos_ - open)),
+            throw error_here(open, key_for(k), std::string(s_.substr(open, pos_ - open)),
                              "a closing quote on the same line for the quote opened here");
           if (s_[pos_] == '"') {
             if (pos_ + 1 < s_.size() && s_[pos_ + 1] == '"') {
@@ -167,21 +214,25 @@ class Parser {
         }
         while (pos_ < s_.size() && is_space(s_[pos_])) ++pos_;
         if (!at_line_end(pos_) && s_[pos_] != ',')
-          throw error_here(pos_, key_for(cells.size()), cell, "a comma or the line end after the closing quote");
+          throw error_here(pos_, key_for(k), cell, "a comma or the line end after the closing quote");
+        text = cell;
       } else {
         const std::size_t start = pos_;
         while (!at_line_end(pos_) && s_[pos_] != ',') {
           if (s_[pos_] == '"')
-            throw error_here(pos_, key_for(cells.size()), trim(s_.substr(start, pos_ - start + 1)),
+            throw error_here(pos_, key_for(k), trim(s_.substr(start, pos_ - start + 1)),
                              "a cell quoted as a whole when it holds a quote (\"say \"\"x\"\"\")");
           if (s_[pos_] == '\r')
-            throw error_here(pos_, key_for(cells.size()), trim(s_.substr(start, pos_ - start)),
+            throw error_here(pos_, key_for(k), trim(s_.substr(start, pos_ - start)),
                              "line ends LF or CR LF (a lone CR is here)");
           ++pos_;
         }
-        cell = std::string(s_.substr(start, pos_ - start));
+        text = s_.substr(start, pos_ - start);
       }
-      cells.push_back(trim(cell));
+      while (!text.empty() && is_space(text.front())) text.remove_prefix(1);  // trimmed, as trim() does
+      while (!text.empty() && is_space(text.back())) text.remove_suffix(1);
+      if (k == cells.size()) cells.emplace_back();
+      cells[k++].assign(text);
       cols.push_back(col);
       if (pos_ < s_.size() && s_[pos_] == ',') {
         ++pos_;
@@ -189,6 +240,7 @@ class Parser {
       }
       break;
     }
+    cells.resize(k);
     const int end_col = column(pos_);
     const int line = line_;
     const std::string_view line_text = s_.substr(line_start_, pos_ - line_start_);
@@ -235,9 +287,11 @@ class Parser {
   std::string_view s_;
   CsvTable& t_;
   const detail::CsvRowSink* sink_ = nullptr;
+  bool form_only_ = false;  //!< data rows checked for their form only, the sink not called
   std::size_t data_rows_ = 0;
   std::vector<std::string> cells_;
   std::vector<int> cols_;
+  std::string quoted_;  // a quoted cell's text, unquoted
   std::size_t pos_ = 0;
   std::size_t line_start_ = 0;
   int line_ = 1;
@@ -354,7 +408,8 @@ CsvFileFacts scan_csv_file(const std::string& path, std::size_t max_bytes) {
 }
 
 struct CsvFileReader::Impl {
-  Impl(std::string p, CsvTable& t, const CsvRowSink& s) : path(std::move(p)), table(t), sink(s), parser("", t, &sink) {}
+  Impl(std::string p, CsvTable& t, const CsvRowSink& s, bool form_only)
+      : path(std::move(p)), table(t), sink(s), parser("", t, &sink, form_only) {}
   std::string path;
   CsvTable& table;
   CsvRowSink sink;
@@ -399,8 +454,9 @@ struct CsvFileReader::Impl {
   }
 };
 
-CsvFileReader::CsvFileReader(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink)
-    : p_(std::make_unique<Impl>(path, header, sink)) {
+CsvFileReader::CsvFileReader(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink,
+                             bool form_only)
+    : p_(std::make_unique<Impl>(path, header, sink, form_only)) {
   header = CsvTable{};
   header.file = path;
   p_->fd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
@@ -424,8 +480,9 @@ bool CsvFileReader::next() {
   return false;
 }
 
-std::size_t stream_csv_file(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink) {
-  CsvFileReader r(path, facts, header, sink);
+std::size_t stream_csv_file(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink,
+                            bool form_only) {
+  CsvFileReader r(path, facts, header, sink, form_only);
   std::size_t rows = 0;
   while (r.next()) ++rows;
   return rows;

@@ -11,6 +11,7 @@
 #include <vector>
 
 #include "acidload/io/csv.hpp"
+#include "acidload/io/quantity.hpp"
 
 namespace acidload::io::detail {
 
@@ -39,7 +40,10 @@ CsvFileFacts scan_csv_file(const std::string& path, std::size_t max_bytes);
 //! file with no header or no data row is refused). The sink's own exceptions pass through.
 class CsvFileReader {
  public:
-  CsvFileReader(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink);
+  //! `form_only`: a data row whose form is right is passed over (counted, the sink not called); a
+  //! row with a mistake in its form is read and refused as always.
+  CsvFileReader(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink,
+                bool form_only = false);
   ~CsvFileReader();
   CsvFileReader(const CsvFileReader&) = delete;
   CsvFileReader& operator=(const CsvFileReader&) = delete;
@@ -51,9 +55,19 @@ class CsvFileReader {
 };
 
 //! Every data row of the file to `sink` (a CsvFileReader read to the end); returns their number.
-std::size_t stream_csv_file(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink);
+std::size_t stream_csv_file(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink,
+                            bool form_only = false);
 
 //! A cell's text as its node's scalar: a bare number gets the header's `unit` ("500" → "500 ppmv").
 void cell_scalar(const std::string& cell, const std::string& unit, std::string& out);
+
+//! The fast path's pieces of the quantity reader (quantity.cpp), each exactly the generic reader's
+//! arithmetic: a whole cell as a number (its syntax and magnitude checks; false where the reader
+//! refuses it); a header unit's factor and offset for a kind (false: not one of the kind's units,
+//! or no unit where the kind needs one); a number converted with them, false where the reader
+//! refuses the result (a temperature at or below 0 K, a negative pressure or count, beyond 1e300).
+bool plain_number(std::string_view s, double& out);
+bool unit_conversion(Kind k, std::string_view unit_text, double& factor, double& offset);
+bool converted(Kind k, double v, double factor, double offset, double& out);
 
 }  // namespace acidload::io::detail

@@ -301,6 +301,44 @@ bool parse_quantity_text(std::string_view text, Kind k, double& out, std::string
   return true;
 }
 
+namespace detail {
+
+bool plain_number(std::string_view s, double& out) {
+  std::string problem;  // filled only when the text is no number (no allocation otherwise)
+  return parse_number(s, out, problem);
+}
+
+bool unit_conversion(Kind k, std::string_view unit_text, double& factor, double& offset) {
+  const KindInfo& ki = info(k);
+  const std::string unit = normalize_unit(trim(unit_text));  // as split_value leaves the rest
+  if (unit.empty()) {
+    if (!ki.bare) return false;
+    factor = 1, offset = 0;
+    return true;
+  }
+  std::string name = unit;
+  for (const auto& [alias, canonical] : ki.aliases)
+    if (alias == unit) name = canonical;
+  for (const auto& u : ki.units)
+    if (u.name == name) {
+      factor = u.factor, offset = u.offset;
+      return true;
+    }
+  return false;
+}
+
+bool converted(Kind k, double v, double factor, double offset, double& out) {
+  const double value = v * factor + offset;  // as parse_quantity_text converts, with its checks
+  if (k == Kind::temperature && !(value > 0)) return false;
+  if (k == Kind::pressure && value < 0) return false;
+  if (k == Kind::count && value < 0) return false;
+  if (!std::isfinite(value) || std::fabs(value) > 1e300) return false;
+  out = value;
+  return true;
+}
+
+}  // namespace detail
+
 double from_core_unit(Kind k, std::string_view unit, double core_value) {
   std::string u = normalize_unit(unit);
   for (const auto& [alias, canonical] : info(k).aliases)

@@ -1,0 +1,336 @@
+// The fast path for CSV record rows (io/case_file.cpp: numbers parsed straight into the segment with
+// the header's units resolved once per column) against the generic reader (each row filled into a
+// node and read by read_segment), on generated records: random columns and units, plain numbers
+// in and out of range written in several forms, and now and then a cell the fast path must leave to
+// the generic reader (empty, a unit or quotes in the cell, no number, a short or long row). Both
+// must give the same segments bit for bit, or the same refusal (key, value, expected, file, line,
+// column, the line shown), held and streamed alike. The generic reader is the reference: it is the
+// path every value took before the fast path existed (and test_record_stream.cpp checks it against
+// the same rows written inline in YAML).
+#include <doctest/doctest.h>
+
+#include <cmath>
+#include <cstdio>
+#include <cstdlib>
+#include <cstring>
+#include <filesystem>
+#include <fstream>
+#include <random>
+#include <sstream>
+#include <string>
+#include <typeinfo>
+#include <vector>
+
+#include <unistd.h>
+
+#include "acidload/acidload.hpp"
+#include "acidload/io/case_file.hpp"
+#include "acidload/io/keys.hpp"
+#include "acidload/io/quantity.hpp"
+
+namespace acidload::io::detail {
+extern bool csv_generic_rows_only;  // io/case_reader.hpp (internal): the fast path left out
+}
+
+using namespace acidload;
+
+namespace {
+namespace fs = std::filesystem;
+
+template <class T>
+bool same_bits(const T& a, const T& b) {
+  return std::memcmp(&a, &b, sizeof(T)) == 0;
+}
+
+std::string slurp(const fs::path& p) {
+  std::ifstream f(p, std::ios::binary);
+  std::ostringstream s;
+  s << f.rdbuf();
+  return s.str();
+}
+
+// The demo site with its record replaced by `csv` (its variants, uncertainty and run dropped).
+std::string site_with_record(const std::string& csv) {
+  std::istringstream in(slurp(fs::path(ACIDLOAD_SOURCE_DIR) / "cases" / "demo-site.yaml"));
+  std::string out, line;
+  bool skip = false;
+  while (std::getline(in, line)) {
+    if (!line.empty() && line[0] != ' ' && line[0] != '#') {
+      const std::string key = line.substr(0, line.find(':'));
+      skip = key == "record" || key == "variants" || key == "uncertainty" || key == "run";
+    }
+    if (!skip) out += line + "\n";
+  }
+  return out + "record:\n  file: " + csv + "\n";
+}
+
+// Segments compared field by field (the structs have padding).
+void check_same_segment(const Segment& a, const Segment& b) {
+  CHECK(same_bits(a.hours, b.hours));
+  CHECK(same_bits(a.calendar_hours, b.calendar_hours));
+  CHECK(same_bits(a.starts, b.starts));
+  CHECK(same_bits(a.fuel.x, b.fuel.x));
+  CHECK(same_bits(a.fuel.other_sulfur, b.fuel.other_sulfur));
+  CHECK(same_bits(a.fuel.chlorine, b.fuel.chlorine));
+  CHECK(same_bits(a.fuel.fluorine, b.fuel.fluorine));
+  CHECK(same_bits(a.fuel.reference, b.fuel.reference));
+  CHECK(a.fuel.combustion == b.fuel.combustion);
+  const Operation &p = a.operation, &q = b.operation;
+  CHECK(same_bits(p.fuel_flow, q.fuel_flow));
+  CHECK(same_bits(p.electrical_power, q.electrical_power));
+  CHECK(same_bits(p.load, q.load));
+  CHECK(same_bits(p.air.excess_air_ratio, q.air.excess_air_ratio));
+  CHECK(same_bits(p.air.water_fraction, q.air.water_fraction));
+  CHECK(same_bits(p.blowby_share, q.blowby_share));
+  CHECK(same_bits(p.blowby_flow, q.blowby_flow));
+  CHECK(same_bits(p.jacket_water_out, q.jacket_water_out));
+  CHECK(same_bits(p.coldest_crankcase_surface, q.coldest_crankcase_surface));
+  CHECK(same_bits(p.crankcase_pressure, q.crankcase_pressure));
+  CHECK(same_bits(p.exhaust_pressure, q.exhaust_pressure));
+  CHECK(same_bits(p.starts_per_hour, q.starts_per_hour));
+  CHECK(same_bits(p.jacket_water_at_start, q.jacket_water_at_start));
+  CHECK(same_bits(p.nox.value, q.nox.value));
+  CHECK(same_bits(a.oil_temperature, b.oil_temperature));
+  CHECK(same_bits(a.oil_consumption, b.oil_consumption));
+  REQUIRE(a.events.size() == b.events.size());
+  for (std::size_t k = 0; k < a.events.size(); ++k) {
+    CHECK(a.events[k].kind == b.events[k].kind);
+    CHECK(same_bits(a.events[k].amount, b.events[k].amount));
+  }
+}
+static_assert(sizeof(Operation) == 13 * sizeof(double) + sizeof(NoxEmission),
+              "a field was added to Operation: compare it in check_same_segment");
+
+// What loading gave: the segments (held, or read from the stream) or the refusal, all of it.
+struct Outcome {
+  bool ok = false;
+  std::vector<Segment> segments;
+  std::string type, what, key, value, expected, file, line_text;
+  int line = 0, column = 0;
+};
+
+Outcome load(const std::string& text, io::RecordReading how, bool generic) {
+  io::detail::csv_generic_rows_only = generic;
+  Outcome o;
+  try {
+    const io::CaseFile c = io::load_case_text(text, "site.yaml", ".", {}, how);
+    const EngineCase& v = c.variants.front();
+    if (v.streamed) {
+      const SegmentSource next = v.streamed->open();
+      while (const Segment* s = next()) o.segments.push_back(*s);
+    } else {
+      o.segments = v.record;
+    }
+    o.ok = true;
+  } catch (const InputError& e) {
+    o.type = "InputError", o.what = e.what(), o.key = e.key(), o.value = e.value(), o.expected = e.expected();
+    o.file = e.where().file, o.line_text = e.where().line_text, o.line = e.where().line, o.column = e.where().column;
+  } catch (const std::exception& e) {
+    o.type = typeid(e).name(), o.what = e.what();
+  }
+  io::detail::csv_generic_rows_only = false;
+  return o;
+}
+
+struct Column {
+  std::string name;
+  std::vector<std::string> units;  // the header's, the first most often
+};
+
+// The segment columns with units the reader takes (and a few it refuses).
+const std::vector<Column>& columns() {
+  static const std::vector<Column> c = {
+      {"calendar-hours", {"h", "d", "min"}},
+      {"starts", {"", "h"}},
+      {"h2s", {"ppmv", "ppm", "mg/Nm3", "ppmv wet", "mg/m3 dry", "mg H2S/Nm3", "mg/MJ", "mg/kWh", "mg S/Nm3", ""}},
+      {"other-sulfur", {"mg/Nm3", "mg S/Nm3", "ppmv", "mg/Nm3 CH4"}},
+      {"chlorine", {"mg/Nm3", "mg Cl/Nm3", "mg/m3 CH4"}},
+      {"fluorine", {"mg/Nm3", "mg F/Nm3"}},
+      {"jacket-water-out", {"degC", "K", "\xC2\xB0" "C", "C", "F"}},
+      {"oil-temperature", {"degC", "K"}},
+      {"coldest-crankcase-surface", {"degC", "K"}},
+      {"blow-by", {"%", ""}},
+      {"excess-air-ratio", {"", "%"}},
+  };
+  return c;
+}
+
+std::string pick(std::mt19937_64& g, const std::vector<std::string>& v) {
+  // the first most often
+  std::uniform_int_distribution<std::size_t> d(0, v.size() * 2 - 1);
+  const std::size_t i = d(g);
+  return v[i < v.size() ? 0 : i - v.size()];
+}
+
+// A number as a user might write it: fixed, general, exponent, integral, with a '+'.
+std::string written(std::mt19937_64& g, double v) {
+  char buf[64];
+  switch (std::uniform_int_distribution<int>(0, 5)(g)) {
+    case 0: std::snprintf(buf, sizeof buf, "%.17g", v); break;
+    case 1: std::snprintf(buf, sizeof buf, "%.6g", v); break;
+    case 2: std::snprintf(buf, sizeof buf, "%.3f", v); break;
+    case 3: std::snprintf(buf, sizeof buf, "%.4e", v); break;
+    case 4: std::snprintf(buf, sizeof buf, "%.0f", v); break;
+    default: std::snprintf(buf, sizeof buf, "+%.5g", v); break;
+  }
+  return buf;
+}
+
+// A cell of column `name` in header unit `unit`: mostly a plain number in the key's range, at
+// times one the fast path must leave to the generic reader.
+std::string cell(std::mt19937_64& g, const std::string& name, const std::string& unit, double odd) {
+  std::uniform_real_distribution<double> u(0, 1);
+  double core = 0;
+  std::string out;
+  const io::CaseKey& k = io::case_key("segment." + name);
+  if (k.type == io::KeyType::contaminant) {
+    out = written(g, name == "h2s" ? 3000 * u(g) : 40 * u(g));
+  } else {
+    // within the key's range, and within what the demo engine (1.2 MW) and the model run
+    double lo = k.low, hi = std::fmin(k.high, std::fmax(k.low, 0.0) + 5000);
+    if (name == "power") lo = 0.1e6, hi = 1.3e6;
+    if (name == "starts") lo = 0, hi = 3;
+    if (name == "excess-air-ratio") lo = 1.4, hi = 2.2;
+    core = lo + (hi - lo) * u(g);
+    if (u(g) < 0.05) core = u(g) < 0.5 ? lo : hi;  // at an end (snapped when written in another unit)
+    out = written(g, io::from_core_unit(k.kind, unit, core));
+  }
+  if (u(g) < odd) {
+    switch (std::uniform_int_distribution<int>(0, 11)(g)) {
+      case 0: return "";
+      case 1: return out + " " + (unit.empty() ? "h" : unit);  // the unit in the cell
+      case 2: return "\"" + out + "\"";
+      case 3: return "-" + out;
+      case 4: return out + "0000";  // far out of range, for most keys
+      case 5: return "abc";
+      case 6: return "12x";
+      case 7: return "1e999";
+      case 8: return "-0";
+      case 9: return ".5";
+      case 10: return "  " + out + " ";
+      default: return "5.";
+    }
+  }
+  return out;
+}
+
+// A record file of random columns and rows; its path.
+fs::path record(std::mt19937_64& g, int n, const std::string& file) {
+  std::uniform_real_distribution<double> u(0, 1);
+  const double odd = u(g) < 0.3 ? 0 : u(g) < 0.5 ? 0.002 : 0.03;  // a share of cells for the generic reader
+  std::vector<std::pair<std::string, std::string>> cols = {{"hours", u(g) < 0.05 ? pick(g, {"", "hr"}) : pick(g, {"h", "d", "min"})}};
+  const double pw = u(g);
+  if (pw < 0.45) cols.emplace_back("load", pick(g, {"%", ""}));
+  else if (pw < 0.85) cols.emplace_back("power", pick(g, {"kW", "MW", "W", "kWe"}));
+  else if (pw < 0.88) cols.emplace_back("power", "kW"), cols.emplace_back("load", "%");  // both: refused
+  for (const Column& c : columns())
+    if (u(g) < 0.35) cols.emplace_back(c.name, pick(g, c.units));
+  if (u(g) < 0.05) cols.emplace_back("event", "");
+  std::shuffle(cols.begin(), cols.end(), g);
+  std::ofstream f(file, std::ios::binary);
+  for (std::size_t c = 0; c < cols.size(); ++c)
+    f << (c ? "," : "") << cols[c].first << (cols[c].second.empty() ? "" : " [" + cols[c].second + "]");
+  f << "\n";
+  for (int i = 0; i < n; ++i) {
+    std::vector<std::string> cells;
+    for (const auto& [name, unit] : cols) {
+      if (name == "event") cells.push_back(u(g) < 0.1 ? "oil-change" : "");
+      else if (name == "hours") cells.push_back(written(g, io::from_core_unit(io::Kind::duration, unit, 1 + 200 * u(g))));
+      else cells.push_back(cell(g, name, unit, odd));
+    }
+    if (u(g) < odd / 4) cells.pop_back();         // a short row
+    if (u(g) < odd / 4) cells.emplace_back("7");  // a long one
+    for (std::size_t c = 0; c < cells.size(); ++c) f << (c ? "," : "") << cells[c];
+    f << (u(g) < 0.1 ? "\r\n" : "\n");
+  }
+  return file;
+}
+}  // namespace
+
+TEST_CASE("generated records: the fast path gives the generic reader's segments and refusals, bit for bit") {
+  const fs::path file = fs::temp_directory_path() / (std::to_string(::getpid()) + "-acidload-fast-rows.csv");
+  std::mt19937_64 g(20261203);
+  int accepted = 0, refused = 0;
+  for (int round = 0; round < 400; ++round) {
+    CAPTURE(round);
+    const int n = 1 + static_cast<int>(g() % 60);
+    record(g, n, file.string());
+    const std::string text = site_with_record(file.string());
+    CAPTURE(slurp(file));
+    for (const io::RecordReading how : {io::RecordReading::hold, io::RecordReading::stream}) {
+      const Outcome fast = load(text, how, false), generic = load(text, how, true);
+      REQUIRE(fast.ok == generic.ok);
+      if (generic.ok) {
+        ++accepted;
+        REQUIRE(fast.segments.size() == generic.segments.size());
+        for (std::size_t i = 0; i < fast.segments.size(); ++i) {
+          CAPTURE(i);
+          check_same_segment(fast.segments[i], generic.segments[i]);
+        }
+      } else {
+        ++refused;
+        if (std::getenv("FAST_DEBUG")) std::fprintf(stderr, "%s | %s | %s\n", generic.key.c_str(), generic.value.c_str(), generic.expected.substr(0, 90).c_str());
+        CHECK(fast.type == generic.type);
+        CHECK(fast.what == generic.what);
+        CHECK(fast.key == generic.key);
+        CHECK(fast.value == generic.value);
+        CHECK(fast.expected == generic.expected);
+        CHECK(fast.file == generic.file);
+        CHECK(fast.line == generic.line);
+        CHECK(fast.column == generic.column);
+        CHECK(fast.line_text == generic.line_text);
+      }
+    }
+  }
+  fs::remove(file);
+  MESSAGE("accepted " << accepted << ", refused " << refused);
+  CHECK(accepted > 200);  // the generator's point: most records are read, many are refused
+  CHECK(refused > 100);
+}
+
+#include "../../libacidload/src/io/csv_stream.hpp"  // internal: the form pass against the full one
+
+TEST_CASE("generated CSV files: the form pass (no cells made) refuses what reading every cell refuses, at the same place") {
+  const fs::path file = fs::temp_directory_path() / (std::to_string(::getpid()) + "-acidload-form-pass.csv");
+  std::mt19937_64 g(3122026);
+  const std::vector<std::string> pieces = {"1", "2.5", " 3 ", "\"4\"", "\"a \"\"b\"\"\"", "x\"y", "\"open", "\"c\" d",
+                                           "", "\xC3\xA9t\xC3\xA9", "5\r6", "#7", "\"8\"  "};
+  int refused = 0, read = 0;
+  for (int round = 0; round < 2000; ++round) {
+    CAPTURE(round);
+    std::string text = g() % 10 == 0 ? "\xEF\xBB\xBF" : "";
+    const int cols = 1 + static_cast<int>(g() % 4);
+    for (int c = 0; c < cols; ++c) text += (c ? "," : "") + std::string("c") + std::to_string(c);
+    text += "\n";
+    const int rows = static_cast<int>(g() % 8);
+    for (int i = 0; i < rows; ++i) {
+      if (g() % 12 == 0) text += g() % 2 ? "\n" : "# note\n";
+      int n = cols;
+      if (g() % 15 == 0) n += g() % 2 ? 1 : -1;
+      for (int c = 0; c < n; ++c) {
+        const std::size_t k = g() % 40;
+        text += (c ? "," : "") + (k < pieces.size() ? pieces[k] : std::to_string(g() % 1000));
+      }
+      text += g() % 8 == 0 ? "\r\n" : "\n";
+    }
+    CAPTURE(text);
+    std::ofstream(file, std::ios::binary) << text;
+    const io::detail::CsvFileFacts facts = io::detail::scan_csv_file(file.string(), 1u << 20);
+    const io::detail::CsvRowSink none = [](const std::vector<std::string>&, const std::vector<int>&, int, std::string_view) {};
+    const auto outcome = [&](bool form_only) {
+      io::CsvTable header;
+      try {
+        return "rows " + std::to_string(io::detail::stream_csv_file(file.string(), facts, header, none, form_only));
+      } catch (const InputError& e) {
+        return std::string(e.what()) + " | " + e.key() + " | " + e.value() + " | " + e.expected() + " | " +
+               std::to_string(e.where().line) + ":" + std::to_string(e.where().column) + " | " + e.where().line_text;
+      }
+    };
+    const std::string full = outcome(false), form = outcome(true);
+    CHECK(form == full);
+    (full.rfind("rows ", 0) == 0 ? read : refused) += 1;
+  }
+  fs::remove(file);
+  CHECK(read > 300);
+  CHECK(refused > 300);
+}
