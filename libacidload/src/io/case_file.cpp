@@ -6,6 +6,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdint>
+#include <iterator>
 #include <cstring>
 #include <filesystem>
 #include <functional>
@@ -391,6 +392,20 @@ bool fast_segment(FastRows& f, const std::vector<std::string>& cells, const Segm
   return true;
 }
 
+// A row with fewer filled cells than the one before ends the trailing entries of the row node, and
+// the reader's `seen` may still point at them (an earlier row's cell of a key this row leaves empty):
+// a refusal relocated through `seen` would then read a destroyed node. Those pointers are dropped, so
+// such a refusal names the row or its fallback instead. The entries never move (room is reserved).
+void forget_dropped_cells(const Reader& r, const Node& row) {
+  const auto* data = row.entries.data();
+  const auto live = reinterpret_cast<std::uintptr_t>(data + row.entries.size());
+  const auto room = reinterpret_cast<std::uintptr_t>(data + row.entries.capacity());
+  for (auto it = r.seen.begin(); it != r.seen.end();) {
+    const auto at = reinterpret_cast<std::uintptr_t>(it->second);
+    it = at >= live && at < room ? r.seen.erase(it) : std::next(it);
+  }
+}
+
 // The next segment from a CSV row: the fast path's when it takes the row, else the generic reader's
 // (the row filled into the window node and read by read_segment). The reader's `seen` is left as
 // the generic reader would leave it: its quantity keys pointing at the window's nodes of the row.
@@ -410,7 +425,10 @@ Segment csv_segment(const Reader& r, FastRows& f, Document& window, const NamedC
   }
   f.seen_set = false;
   f.gas = 0;  // the generic reader's gas is not known to the fast path's table of powers
-  return next_segment(r, fill_row(window, cols, source, i, cells, columns, line, text), prev, x, gases);
+  const std::size_t cells_before = window.root.entries.size();
+  const Node& row = fill_row(window, cols, source, i, cells, columns, line, text);
+  if (row.entries.size() < cells_before) forget_dropped_cells(r, row);
+  return next_segment(r, row, prev, x, gases);
 }
 
 // Streams the record's rows as segments to `take(i, segment)`, each after `prev` (updated).
