@@ -1,11 +1,7 @@
 #include "acidload/core/oil.hpp"
 
 #include <cmath>
-#include <cstddef>
 #include <limits>
-#if defined(__SSE2__)
-#include <emmintrin.h>
-#endif
 
 #include "acidload/core/constants.hpp"
 #include "acidload/core/error.hpp"
@@ -81,31 +77,10 @@ bool finite_non_negative(double v) { return v >= 0 && v <= std::numeric_limits<d
 // Every rate fine: the common case, checked without a call per field; otherwise the named checks below
 // find the first bad field and say so, as before.
 bool rates_fine(const OilRates& r) {
-#if defined(__SSE2__)
-  // The same comparisons, two neighbouring fields at a time (ordered: NaN fails, as in the scalar form).
-  static_assert(offsetof(OilRates, sulfurous_fresh) == offsetof(OilRates, strong_acid) + 8 &&
-                offsetof(OilRates, oxidation) == offsetof(OilRates, nitration) + 8 &&
-                offsetof(OilRates, antioxidant_depletion) == offsetof(OilRates, organic_acid) + 8 &&
-                offsetof(OilRates, consumption) == offsetof(OilRates, depleted_factor) + 8 &&
-                offsetof(OilRates, nitration) == offsetof(OilRates, strong_acid) + 16 &&
-                offsetof(OilRates, organic_acid) == offsetof(OilRates, strong_acid) + 32 &&
-                offsetof(OilRates, depleted_factor) == offsetof(OilRates, strong_acid) + 48);
-  const double* p = &r.strong_acid;
-  const __m128d zero = _mm_setzero_pd(), top = _mm_set1_pd(std::numeric_limits<double>::max());
-  const __m128d a = _mm_loadu_pd(p), b = _mm_loadu_pd(p + 2), c = _mm_loadu_pd(p + 4), d = _mm_loadu_pd(p + 6);
-  const __m128d ok_a = _mm_and_pd(_mm_cmpge_pd(a, zero), _mm_cmple_pd(a, top));
-  const __m128d ok_b = _mm_and_pd(_mm_cmpge_pd(b, zero), _mm_cmple_pd(b, top));
-  const __m128d ok_c = _mm_and_pd(_mm_cmpge_pd(c, zero), _mm_cmple_pd(c, top));
-  // d: (depleted_factor, consumption) against [1, 100] and [0, max]
-  const __m128d ok_d = _mm_and_pd(_mm_cmpge_pd(d, _mm_set_pd(0.0, 1.0)),
-                                  _mm_cmple_pd(d, _mm_set_pd(std::numeric_limits<double>::max(), 100.0)));
-  return _mm_movemask_pd(_mm_and_pd(_mm_and_pd(ok_a, ok_b), _mm_and_pd(ok_c, ok_d))) == 3;
-#else
   return finite_non_negative(r.strong_acid) && finite_non_negative(r.sulfurous_fresh) &&
          finite_non_negative(r.nitration) && finite_non_negative(r.oxidation) && finite_non_negative(r.organic_acid) &&
          finite_non_negative(r.consumption) && finite_non_negative(r.antioxidant_depletion) &&
          r.depleted_factor >= 1.0 && r.depleted_factor <= 100.0;
-#endif
 }
 }  // namespace
 
