@@ -5,7 +5,9 @@
 
 #include <cmath>
 #include <cstring>
+#include <limits>
 #include <random>
+#include <string>
 
 #include "acidload/core/error.hpp"
 #include "acidload/core/oil.hpp"
@@ -108,4 +110,50 @@ TEST_CASE("advance refuses a bad rate by its name, in a common segment and in on
   r.sulfurous_fresh = -1;
   CHECK_THROWS_WITH_AS(advance(x, k, r, 1.0, l), doctest::Contains("rates.sulfurous"), InputError);
   CHECK_THROWS_WITH_AS(advance(x, k, r, 0.0, l), doctest::Contains("rates.sulfurous"), InputError);
+}
+
+TEST_CASE("advance refuses exactly the rates the named checks refuse: every field, every kind of bad value") {
+  // The rates are screened at once (one predicate for all) before the named checks run; each field takes
+  // each value below, and advance must refuse it exactly when the field's own rule (finite and not
+  // negative; the depleted factor within [1, 100]) does, naming that field.
+  const OilBalance k{10, 2, 1, 1e-3, 0.5};
+  OilState s;
+  s.mass = 500, s.base = 8, s.antioxidant = 1;
+  const double inf = std::numeric_limits<double>::infinity(), nan = std::numeric_limits<double>::quiet_NaN();
+  const double big = std::numeric_limits<double>::max();
+  const double values[] = {0.0, -0.0, 1e-300, 1.0, 99.999, 100.0, std::nextafter(100.0, 200.0), 0.5,
+                           std::nextafter(1.0, 0.0), big, inf, -inf, nan, -1e-300, -1.0};
+  struct Field {
+    double OilRates::*p;
+    const char* key;
+    bool factor;
+  };
+  const Field fields[] = {{&OilRates::strong_acid, "rates.strong-acid", false},
+                          {&OilRates::sulfurous_fresh, "rates.sulfurous", false},
+                          {&OilRates::nitration, "rates.nitration", false},
+                          {&OilRates::oxidation, "rates.oxidation", false},
+                          {&OilRates::organic_acid, "rates.organic-acid", false},
+                          {&OilRates::antioxidant_depletion, "rates.antioxidant-depletion", false},
+                          {&OilRates::depleted_factor, "rates.depleted-factor", true},
+                          {&OilRates::consumption, "oil consumption", false}};
+  for (const Field& f : fields)
+    for (double v : values) {
+      OilRates r;
+      r.consumption = 0.1, r.depleted_factor = 2;
+      r.*f.p = v;
+      const bool bad = f.factor ? !(v >= 1.0 && v <= 100.0) : !(v >= 0 && v <= big);
+      OilState x = s;
+      OilLedger l;
+      INFO(f.key << " = " << v);
+      if (bad) {
+        CHECK_THROWS_WITH_AS(advance(x, k, r, 1.0, l), doctest::Contains(f.key), InputError);
+      } else {
+        // a huge rate may be refused later for what it does to the oil, never for being a bad rate
+        try {
+          advance(x, k, r, 1.0, l);
+        } catch (const std::exception& e) {
+          CHECK(std::string(e.what()).find(f.key) == std::string::npos);
+        }
+      }
+    }
 }

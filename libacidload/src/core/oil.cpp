@@ -369,9 +369,6 @@ void advance_piece(OilState& s, Regime g, const Context& c, const Equations& e, 
 // written out so that each of the three distinct exponentials is evaluated once and the crossing
 // tests reuse the end values: the same operations in the same order, so bit for bit the results of
 // the general path. Returns false, changing nothing, where a switch may fall inside the segment.
-// expm1_over_x, inline here: the same expression, without the call's spills.
-inline double E_inline(double x) { return x == 0 ? 1.0 : std::expm1(x) / x; }
-
 bool advance_steady(OilState& s, const OilBalance& k, const OilRates& r, double t, OilLedger& ledger) {
   // make_context() and equations() written out for this case (c = 0, no piece memo set up, only the
   // coefficients used): each value is the same expression of the same operands as there.
@@ -394,10 +391,10 @@ bool advance_steady(OilState& s, const OilBalance& k, const OilRates& r, double 
   const double Ab = (-phi * organic + km * k.fresh_base) + (-r.strong_acid + so2_coeff * k.base_floor) / m0;
   const double Lb = km + so2_coeff / m0;
   const double slope_b = Ab - Lb * s.base;
-  const double yb = s.base + slope_b * t * E_inline(-Lb * t);
+  const double yb = s.base + slope_b * t * expm1_over_x(-Lb * t);
   if (!((s.base - k.base_floor) * (yb - k.base_floor) > 0 || s.base == k.base_floor)) return false;
   // every equation with the makeup rate alone as Λ shares E(−Λt)
-  const double Lk = km + z, Ek = E_inline(-Lk * t);
+  const double Lk = km + z, Ek = expm1_over_x(-Lk * t);
   double anti = 0;
   if (!spent) {
     const double Aa = (km - r.antioxidant_depletion) + z;
@@ -428,7 +425,7 @@ bool advance_steady(OilState& s, const OilBalance& k, const OilRates& r, double 
   s.salts = u - yb;
   s.oxidation = s.oxidation + (Ao - Lk * s.oxidation) * t * Ek;
   s.nitration = s.nitration + (An - Lk * s.nitration) * t * Ek;
-  s.additive_acidity = s.additive_acidity + (Ad - Ld * s.additive_acidity) * t * E_inline(-Ld * t);
+  s.additive_acidity = s.additive_acidity + (Ad - Ld * s.additive_acidity) * t * expm1_over_x(-Ld * t);
   s.antioxidant = anti;
   if (s.base < k.base_floor) {  // rounding at the very end
     s.salts += s.base - k.base_floor;
