@@ -370,41 +370,56 @@ void advance_piece(OilState& s, Regime g, const Context& c, const Equations& e, 
 // tests reuse the end values: the same operations in the same order, so bit for bit the results of
 // the general path. Returns false, changing nothing, where a switch may fall inside the segment.
 bool advance_steady(OilState& s, const OilBalance& k, const OilRates& r, double t, OilLedger& ledger) {
-  const Context c = make_context(s, k, r);
-  if (regime_at(s, c) != Regime::above_floor) return false;
-  const Equations e = equations(Regime::above_floor, c);
-  const double m0 = c.mass.m0, z = 0.0 / m0;  // z: a1/M0 and l1/M0 of the equations without a 1/M term
+  // make_context() and equations() written out for this case (c = 0, no piece memo set up, only the
+  // coefficients used): each value is the same expression of the same operands as there.
+  // z: a1/M0 and l1/M0 of the equations without a 1/M term, 0/M0 there: +0 exactly for the mass
+  // advance() accepts (finite, > 0), so the division is not done; the additions of z stay.
+  const double m0 = s.mass, z = 0.0;
+  const double km = r.consumption / m0;  // c.makeup_rate
+  const double makeup_base = r.consumption * (k.fresh_base - k.base_floor);
+  const double so2_coeff = r.sulfurous_fresh / (k.fresh_base - k.base_floor);
+  const bool spent = s.antioxidant <= 0 && r.antioxidant_depletion > km;  // spent_at()
+  const double f = spent ? depleted_oxidation_factor(r.depleted_factor, km, r.antioxidant_depletion) : 1.0;
+  const double oxidation = r.oxidation * f, organic = r.organic_acid * f;
+  // regime_at(): above the floor, or at it with the makeup lifting the base again
+  if (!(s.base > k.base_floor)) {
+    if (s.strong_acid > 0 || r.strong_acid > makeup_base) return false;
+    if (makeup_base - r.strong_acid < k.organic_neutralised_share * organic * s.mass) return false;
+  }
+  const double phi = k.organic_neutralised_share;
   // the base, and its crossing of the floor (as crossing(): none if both ends lie on one side)
-  const double Ab = e.base.a0 + e.base.a1 / m0, Lb = e.base.l0 + e.base.l1 / m0;
+  const double Ab = (-phi * organic + km * k.fresh_base) + (-r.strong_acid + so2_coeff * k.base_floor) / m0;
+  const double Lb = km + so2_coeff / m0;
   const double slope_b = Ab - Lb * s.base;
   const double yb = s.base + slope_b * t * expm1_over_x(-Lb * t);
   if (!((s.base - k.base_floor) * (yb - k.base_floor) > 0 || s.base == k.base_floor)) return false;
   // every equation with the makeup rate alone as Λ shares E(−Λt)
-  const double Lk = e.weak.l0 + z, Ek = expm1_over_x(-Lk * t);
+  const double Lk = km + z, Ek = expm1_over_x(-Lk * t);
   double anti = 0;
-  if (!e.antioxidant_fixed) {
-    const double Aa = e.antioxidant.a0 + z;
+  if (!spent) {
+    const double Aa = (km - r.antioxidant_depletion) + z;
     anti = s.antioxidant + (Aa - Lk * s.antioxidant) * t * Ek;
-    const bool watched = !c.spent && s.antioxidant > 0 && r.antioxidant_depletion > c.makeup_rate;
+    const bool watched = s.antioxidant > 0 && r.antioxidant_depletion > km;
     if (watched && !(s.antioxidant * anti > 0 || s.antioxidant == 0)) return false;
     anti = std::fmax(0.0, std::fmin(1.0, anti));
   }
   const double b_int = s.base * t + slope_b * t * t * phi2(Lb * t);
-  const double Aw = e.weak.a0 + z, slope_w = Aw - Lk * s.weak_acid;
+  const double Aw = (1 - phi) * organic + z, slope_w = Aw - Lk * s.weak_acid;
   const double yw = s.weak_acid + slope_w * t * Ek, w_int = s.weak_acid * t + slope_w * t * t * phi2(Lk * t);
-  const double Au = e.base_plus_salts.a0 + z, u0 = s.base + s.salts;
+  const double Au = km * k.fresh_base + z, u0 = s.base + s.salts;
   const double u = u0 + (Au - Lk * u0) * t * Ek;
-  const double R = c.r.strong_acid, IM = c.mass.integral(t), cons = c.r.consumption;
-  const double so2 = c.so2_coeff * (b_int - c.k.base_floor * t);
-  if (c.r.continuous_makeup) ledger.base_added += cons * c.k.fresh_base * t;
+  // Mass::integral with c = 0 is m0·t − 0.5·0·t·t = m0·t exactly (t > 0 finite: the product is +0)
+  const double R = r.strong_acid, IM = m0 * t, cons = r.consumption;
+  const double so2 = so2_coeff * (b_int - k.base_floor * t);
+  ledger.base_added += cons * k.fresh_base * t;
   ledger.base_removed += cons * b_int;
-  ledger.base_consumed += R * t + c.k.organic_neutralised_share * c.organic * IM + so2;
-  ledger.acid_entered += R * t + c.organic * IM + so2;
+  ledger.base_consumed += R * t + phi * organic * IM + so2;
+  ledger.acid_entered += R * t + organic * IM + so2;
   ledger.sulfurous_taken_up += so2;
   ledger.acid_removed += cons * (s.strong_acid * t + w_int);
-  const double Ao = e.oxidation.a0 + z, An = e.nitration.a0 + e.nitration.a1 / m0;
-  const double Ad = e.additive.a0 + z, Ld = e.additive.l0 + z;
-  s.mass = c.mass.at(t);
+  const double Ao = oxidation + z, An = 0.0 + r.nitration / m0;
+  const double Ad = km * k.fresh_additive + z, Ld = (km + k.additive_depletion) + z;
+  s.mass = m0;  // Mass::at with c = 0: m0 − 0·t = m0 exactly
   s.base = yb;
   s.weak_acid = yw;
   s.salts = u - yb;
@@ -449,8 +464,14 @@ SegmentOutcome advance(OilState& s, const OilBalance& k, const OilRates& r, doub
     throw InputError("segment hours", format_value(hours) + " h",
                      "a stretch without top-up that burns less than 90 % of the oil (" +
                          format_value(0.9 * s.mass / r.consumption) + " h at this consumption)");
+  if (r.continuous_makeup && hours > 0 && advance_steady(s, k, r, hours, ledger)) return {};  // end_regime: above_floor
+  return detail::advance_by_pieces(s, k, r, hours, ledger);
+}
+
+// Kept out of line: advance()'s fast path then sets up no frame for the pieces.
+[[gnu::noinline]] SegmentOutcome detail::advance_by_pieces(OilState& s, const OilBalance& k, const OilRates& r,
+                                                          double hours, OilLedger& ledger) {
   SegmentOutcome out;
-  if (r.continuous_makeup && hours > 0 && advance_steady(s, k, r, hours, ledger)) return out;  // end_regime: above_floor
   double done = 0;
   for (int piece = 0; piece < 16 && done < hours; ++piece) {
     const Context c = make_context(s, k, r);

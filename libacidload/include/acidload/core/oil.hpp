@@ -169,6 +169,10 @@ void oil_change(OilState& s, const OilProperties& oil, double residual_share, do
 namespace detail {
 double expm1_over_x(double x);                   //!< (eˣ − 1)/x, 1 at 0
 double divided_expm1_over_x(double x, double y); //!< (E(x) − E(y))/(x − y) for E = expm1_over_x, stable as x → y
+//! advance() without its one-piece path for the common segment: every segment by pieces (the state checks
+//! are advance()'s; call it with a state and rates that advance() accepts). For the test that holds the
+//! one-piece path to it bit for bit.
+SegmentOutcome advance_by_pieces(OilState& state, const OilBalance& k, const OilRates& r, double hours, OilLedger& ledger);
 }  // namespace detail
 
 }  // namespace acidload
