@@ -523,3 +523,15 @@ TEST_CASE("a fit whose optimum lies on a parameter's range limit: one-sided diff
   CHECK(std::isfinite(g.parameters[0].standard_error));
   CHECK(g.parameters[0].standard_error > 0);
 }
+
+TEST_CASE("the fit's finite differences: central, one-sided where a step is refused, zero where both are") {
+  // f(x) = 3x^2 + 1 at x = 2, h = 1e-3 (hand values, the difference quotients of any numerical-analysis
+  // text, from memory): central (f(2+h) - f(2-h)) / 2h = 12 exactly for a quadratic; forward
+  // (f(2+h) - f(2)) / h = 12 + 3h; backward (f(2) - f(2-h)) / h = 12 - 3h.
+  const auto f = [](double x) { return 3 * x * x + 1; };
+  const double h = 1e-3, at = f(2), up = f(2 + h), down = f(2 - h);
+  CHECK(detail::finite_difference(&up, &down, at, h) == doctest::Approx(12).epsilon(1e-9));
+  CHECK(detail::finite_difference(&up, nullptr, at, h) == doctest::Approx(12 + 3 * h).epsilon(1e-9));
+  CHECK(detail::finite_difference(nullptr, &down, at, h) == doctest::Approx(12 - 3 * h).epsilon(1e-9));
+  CHECK(detail::finite_difference(nullptr, nullptr, at, h) == 0);
+}

@@ -211,9 +211,8 @@ struct Problem {
       std::optional<Eigen::VectorXd> ru, rd;
       try { ru = f(up); } catch (const InputError&) {}
       try { rd = f(down); } catch (const InputError&) {}
-      if (ru && rd) J.col(j) = (*ru - *rd) / (2 * h);
-      else if (ru) J.col(j) = (*ru - r0) / h;
-      else if (rd) J.col(j) = (r0 - *rd) / h;
+      for (Eigen::Index i = 0; i < n; ++i)
+        J(i, j) = detail::finite_difference(ru ? &(*ru)[i] : nullptr, rd ? &(*rd)[i] : nullptr, r0[i], h);
     }
     return J;
   }

@@ -151,4 +151,16 @@ std::vector<SampleResidual> predict(const EngineCase& c, const std::vector<LabSa
 //! tell apart is flagged (the prior keeps it defined).
 FitResult calibrate(const EngineCase& c, const std::vector<LabSample>& samples, const FitSettings& s);
 
+namespace detail {
+//! One element of a Jacobian column by finite differences of step h around `at`: central where the
+//! model accepted both steps, one-sided where it refused one (null), zero where it refused both
+//! (the difference quotients of any numerical-analysis text).
+inline double finite_difference(const double* up, const double* down, double at, double h) {
+  if (up && down) return (*up - *down) / (2 * h);
+  if (up) return (*up - at) / h;  // one-sided where the model refuses the step below (a fit on a range limit)
+  if (down) return (at - *down) / h;
+  return 0;
+}
+}  // namespace detail
+
 }  // namespace acidload
