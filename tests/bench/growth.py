@@ -115,7 +115,8 @@ def lab_samples(tmp):
         where = [(c, 2500 * (j + 1) / (per + 1)) for c in range(4) for j in range(per)]
         lab = pathlib.Path(tmp) / f"lab-{n}.csv"
         lab.write_text("\n".join([header] + [f"{c + 1},{h:.4f},0,0,0" for c, h in where]) + "\n")
-        pred = acidload._core.predict(truth, acidload.read_lab(lab))
+        samples = acidload.read_lab_samples(lab)  # read_lab gives a table now; predict takes the samples
+        pred = acidload._core.predict(truth, getattr(samples, "_samples", samples))
         vals = np.asarray(pred["predicted"]) + np.asarray(pred["sigma"]) * 0.5 * rng.standard_normal(len(pred["predicted"]))
         vals = np.maximum(vals, 0.0)  # readings are never negative
         lab.write_text("\n".join([header] + [f"{c + 1},{h:.4f},{vals[3 * i]:.5f},{vals[3 * i + 1]:.5f},{vals[3 * i + 2]:.5f}"
