@@ -111,8 +111,8 @@ def lab_samples(tmp):
     rng = np.random.default_rng(3)
     header = "charge,oil-hours,tbn [mg KOH/g],tan [mg KOH/g],oxidation [A/cm]"
     for n in [10, 100, 1000] + ([] if quick else [10_000]):
-        per = n // 4
-        where = [(c, 2500 * (j + 1) / (per + 1)) for c in range(4) for j in range(per)]
+        per = -(-n // 4)  # samples per charge, rounded up: n samples in all, the last charges one fewer where n is not a multiple of 4
+        where = sorted((i % 4, 2500 * (i // 4 + 1) / (per + 1)) for i in range(n))
         lab = pathlib.Path(tmp) / f"lab-{n}.csv"
         lab.write_text("\n".join([header] + [f"{c + 1},{h:.4f},0,0,0" for c, h in where]) + "\n")
         samples = acidload.read_lab_samples(lab)  # read_lab gives a table now; predict takes the samples
