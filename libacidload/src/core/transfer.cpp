@@ -111,6 +111,12 @@ double warmup_liner_wall(double t, double js, double jr, double tw, double rise,
   return jacket + rise * std::pow(load * share, e);
 }
 
+int warmup_panels(double wall_start, double wall_end, double scale) {
+  // g changes over ΔT_s of wall temperature: a panel per ΔT_s of the wall's (monotone) rise over the piece,
+  // at least 16 (the rule's accuracy on the usual scales), at most 1024 (bounded work for a tiny ΔT_s)
+  return static_cast<int>(std::fmin(1024.0, std::fmax(16.0, std::ceil(std::fabs(wall_end - wall_start) / scale))));
+}
+
 double warmup_liner_extra(double dew, double js, double jr, double tw, double rise, double e, double load, double sigma,
                           double tr, double scale) {
   // 5-point Gauss–Legendre nodes and weights on [−1, 1] (Abramowitz & Stegun, Table 25.4)
@@ -124,10 +130,11 @@ double warmup_liner_extra(double dew, double js, double jr, double tw, double ri
   };
   // two smooth pieces: up to the earlier ramp end, then to the later one
   const double a = std::fmin(tw, tr), b = std::fmax(tw, tr);
-  constexpr int panels = 16;
   double sum = 0;
   for (const auto& [lo, hi] : {std::pair{0.0, a}, std::pair{a, b}}) {
     if (hi <= lo) continue;
+    const int panels = warmup_panels(warmup_liner_wall(lo, js, jr, tw, rise, e, load, sigma, tr),
+                                     warmup_liner_wall(hi, js, jr, tw, rise, e, load, sigma, tr), scale);
     const double h = (hi - lo) / panels;
     for (int k = 0; k < panels; ++k)
       for (int j = 0; j < 5; ++j) sum += 0.5 * h * w[j] * integrand(lo + h * (k + 0.5 + 0.5 * x[j]));

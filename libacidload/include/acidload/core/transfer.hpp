@@ -115,10 +115,14 @@ double crankcase_wetness(double blowby_dew_point, double coldest_surface, double
 //! start to its running value over t_w, load l(t) = l·min(1, σ + (1 − σ)·t/t_r) over the load ramp t_r.
 double warmup_liner_wall(double t, double jacket_start, double jacket_running, double warmup_hours, double rise,
                          double exponent, double load, double start_load_share, double ramp_hours);
+//! Panels of the warm-up quadrature for a ramp piece whose liner wall goes from `wall_start` to `wall_end` [K]:
+//! one per ΔT_s (`scale`) of the wall's rise, from 16 to 1024 — the softplus changes over ΔT_s, so a fixed 16
+//! missed a small ΔT_s by up to 85 % (tests/reference/test_cold_running.cpp).
+int warmup_panels(double wall_start, double wall_end, double scale);
 //! Extra liner uptake of one start over the same time running [h of the liner uptake factor]:
 //! E = ∫₀^max(t_w,t_r) [l(t)/l · g(T_dp − T_w(t)) − g(T_dp − T_w,run)] dt, g the softplus liner factor and the
 //! sulfur flow following the load; λ_L·ṅ_S·E is the extra sulfur per start [mol]. Gauss–Legendre, 5 points
-//! on each of 16 panels per ramp piece.
+//! on each of warmup_panels() panels per ramp piece.
 double warmup_liner_extra(double cylinder_dew_point, double jacket_start, double jacket_running, double warmup_hours,
                           double rise, double exponent, double load, double start_load_share, double ramp_hours,
                           double scale);
