@@ -51,7 +51,8 @@ FuelGas resolve(const FuelAnalysis& a) {
   double sum_main = 0;
   for (Gas g : main_species) {
     const double v = a.main[static_cast<std::size_t>(g)];
-    check::fraction(("fuel.composition." + std::string(formula_text(g))).c_str(), v);
+    if (!(v >= 0 && v <= 1))  // the key's name is made only to refuse (a record resolves a gas per new row)
+      check::fraction(("fuel.composition." + std::string(formula_text(g))).c_str(), v);
     sum_main += v;
   }
   // Main components are normalised to fill what the water and the H2S leave (on either basis the
@@ -68,6 +69,8 @@ FuelGas resolve(const FuelAnalysis& a) {
   f.combustion = a.combustion;
   f.x[static_cast<std::size_t>(Gas::H2O)] = a.water_fraction;
   double h2s = 0;  // wet mole fraction of H2S
+  std::vector<const Formula*> halocarbon_formulas;  // looked up in the first pass only, where they always were
+  halocarbon_formulas.reserve(a.halocarbons.size());
   for (int pass = 0; pass < 50; ++pass) {
     const double scale = (1.0 - a.water_fraction - h2s) / sum_main;
     for (Gas g : main_species) f.x[static_cast<std::size_t>(g)] = a.main[static_cast<std::size_t>(g)] * scale;
@@ -77,8 +80,10 @@ FuelGas resolve(const FuelAnalysis& a) {
     f.other_sulfur = to_wet_mole_fraction(a.other_sulfur, atomic_weight(Element::S) * 1e-3, c);
     f.chlorine = to_wet_mole_fraction(a.chlorine, atomic_weight(Element::Cl) * 1e-3, c);
     f.fluorine = to_wet_mole_fraction(a.fluorine, atomic_weight(Element::F) * 1e-3, c);
-    for (const auto& h : a.halocarbons) {  // per compound, by formula: x_Cl += x_i n_Cl,i
-      const Formula fm = parse_formula(find_halocarbon(h.compound).formula);
+    for (std::size_t k = 0; k < a.halocarbons.size(); ++k) {  // per compound, by formula: x_Cl += x_i n_Cl,i
+      const auto& h = a.halocarbons[k];
+      if (pass == 0) halocarbon_formulas.push_back(&halocarbon_formula(find_halocarbon(h.compound)));
+      const Formula& fm = *halocarbon_formulas[k];
       const double xc = to_wet_mole_fraction(h.amount, molar_mass(fm), c);
       f.chlorine += xc * fm[Element::Cl];
       f.fluorine += xc * fm[Element::F];

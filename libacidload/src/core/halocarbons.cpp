@@ -48,10 +48,22 @@ const Halocarbon& find_halocarbon(std::string_view key) {
   throw InputError("compound", std::string(key), "a halocarbon name or formula: " + known);
 }
 
+const Formula& halocarbon_formula(const Halocarbon& entry) {
+  static const std::vector<Formula> parsed = [] {
+    std::vector<Formula> f;
+    for (const auto& h : halocarbon_table()) f.push_back(parse_formula(h.formula));
+    return f;
+  }();
+  const auto& t = halocarbon_table();
+  const auto k = static_cast<std::size_t>(&entry - t.data());
+  if (k >= t.size()) throw Error("internal: a halocarbon that is not an entry of the table");
+  return parsed[k];
+}
+
 HalogenTotals halogen_totals(const std::vector<CompoundFraction>& compounds) {
   HalogenTotals t;
   for (const auto& c : compounds) {
-    const Formula f = parse_formula(find_halocarbon(c.compound).formula);
+    const Formula& f = halocarbon_formula(find_halocarbon(c.compound));
     check::fraction("compound mole fraction", c.mole_fraction);
     t.chlorine += c.mole_fraction * f[Element::Cl];  // x_Cl = Σ x_i n_Cl,i
     t.fluorine += c.mole_fraction * f[Element::F];

@@ -17,6 +17,9 @@ struct Halocarbon {
 const std::vector<Halocarbon>& halocarbon_table();
 //! Looks up a halocarbon by name or formula; throws InputError listing the known names.
 const Halocarbon& find_halocarbon(std::string_view name_or_formula);
+//! The parsed formula of an entry of halocarbon_table() (parsed once per process: a gas is resolved
+//! for every new row of a record).
+const Formula& halocarbon_formula(const Halocarbon& entry);
 
 //! Elemental chlorine and fluorine carried by a set of compounds.
 struct HalogenTotals {
