@@ -724,8 +724,7 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
       slot = !checked[a].used ? &checked[a] : !checked[b2].used ? &checked[b2] : &checked[(flip ^= 1) ? a : b2];
     }
     try {
-      Transfer t;
-      segment_rates(s, c.charge, c.model, &t);
+      check_segment(s, c.charge, c.model);
     } catch (const InputError&) {
       bad_operation = i, bad_operation_error = std::current_exception();
       return;

@@ -23,6 +23,14 @@ OilRates segment_rates(const Segment& s, const OilCharge& charge, const ModelPar
   return oil_rates(t, model.oxidation, s.oil_temperature, s.oil_consumption, charge.continuous_makeup);
 }
 
+void check_segment(const Segment& s, const OilCharge& charge, const ModelParameters& model) {
+  Operation op = s.operation;
+  op.starts_per_hour = s.hours > 0 ? s.starts / s.hours : 0;
+  // oil_rates refuses by the operation, oil temperature and consumption alone, never by the transfer's figures
+  oil_rates(transfer_checks(s.fuel, op, model.transfer), model.oxidation, s.oil_temperature, s.oil_consumption,
+            charge.continuous_makeup);
+}
+
 namespace {
 
 // Operating states compared by value, field by field, each double by its bits (equal bits give equal

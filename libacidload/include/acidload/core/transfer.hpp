@@ -126,9 +126,18 @@ int warmup_panels(double wall_start, double wall_end, double scale);
 double warmup_liner_extra(double cylinder_dew_point, double jacket_start, double jacket_running, double warmup_hours,
                           double rise, double exponent, double load, double start_load_share, double ramp_hours,
                           double scale);
+//! An upper bound of warmup_liner_extra() (same arguments): S·g(T_dp − T_w(0)) − T·g(T_dp − T_w,run),
+//! T = max(t_w, t_r), S = ∫₀ᵀ l(t)/l dt = T − t_r(1 − σ)/2 — the wall is never colder than at the start.
+double warmup_liner_extra_bound(double cylinder_dew_point, double jacket_start, double jacket_running,
+                                double warmup_hours, double rise, double exponent, double load, double start_load_share,
+                                double ramp_hours, double scale);
 
 //! The transfer of one operating state. `check_parameters` false skips validate(p), for a caller
 //! that has validated the parameters once for a whole record (the operation is always validated).
 Transfer transfer(const FuelGas& fuel, const Operation& op, const TransferParameters& p, bool check_parameters = true);
+//! transfer()'s refusals alone: throws exactly where transfer() throws, with the same error, but its
+//! figures are not for use — the warm-up liner integral is replaced by an upper bound wherever the bound
+//! already keeps the liner-uptake check passing (a record's check of every row's operation).
+Transfer transfer_checks(const FuelGas& fuel, const Operation& op, const TransferParameters& p);
 
 }  // namespace acidload

@@ -122,5 +122,8 @@ RunResult simulate(const OilCharge& charge, const ModelParameters& model, const 
 
 //! The rates of a segment (its transfer and oil rates).
 OilRates segment_rates(const Segment& s, const OilCharge& charge, const ModelParameters& model, Transfer* transfer = nullptr);
+//! segment_rates()'s refusals alone (throws where it throws, with the same error; computes no figure it
+//! does not need to decide that): a record's check of every row's operation.
+void check_segment(const Segment& s, const OilCharge& charge, const ModelParameters& model);
 
 }  // namespace acidload
