@@ -364,16 +364,25 @@ def run_peak(cmd):
         return dt, float(pathlib.Path(rss.name).read_text().split()[-1]) / 1024, rc
 
 
-def record_files(tmp, rows):
-    csv_path = pathlib.Path(tmp) / f"record-{rows}.csv"
+def record_files(tmp, rows, distinct=False):
+    """A record of hourly rows (hours, H2S, load) on a daily cycle, and its case. The cycle's values to one
+    decimal repeat every day (24 distinct rows: readings quantised by the instrument); with `distinct` a
+    seeded noise of a few ppmv and tenths of a percent, written to three decimals, makes every row new."""
+    csv_path = pathlib.Path(tmp) / f"record-{rows}{'-distinct' if distinct else ''}.csv"
     hour = np.arange(rows)
     h2s = 300 + 120 * np.sin(hour / 24 * 2 * np.pi)
     load = 85 + 15 * np.sin(hour / 24 * 2 * np.pi + 1)
     with open(csv_path, "w") as f:
         f.write("hours [h],h2s [ppmv],load [%]\n")
-        f.writelines(f"1,{a:.1f},{b:.1f}\n" for a, b in zip(h2s, load))
+        if distinct:
+            rng = np.random.default_rng(7)
+            h2s = h2s + rng.uniform(-5, 5, rows)
+            load = np.clip(load + rng.uniform(-0.5, 0.5, rows), 1, 100)
+            f.writelines(f"1,{a:.3f},{b:.3f}\n" for a, b in zip(h2s, load))
+        else:
+            f.writelines(f"1,{a:.1f},{b:.1f}\n" for a, b in zip(h2s, load))
     case = (root / "cases" / "demo-site.yaml").read_text()
-    case_path = pathlib.Path(tmp) / f"record-{rows}.yaml"
+    case_path = csv_path.with_suffix(".yaml")
     case_path.write_text(case_with_record(case, csv_path))
     return csv_path, case_path
 
@@ -405,8 +414,13 @@ def python_peak_mb(case_path):
 
 def part4(bench_program, program):
     rows = 200_000
+    for distinct in (False, True):
+        part4_record(bench_program, program, rows, distinct)
+
+
+def part4_record(bench_program, program, rows, distinct):
     with tempfile.TemporaryDirectory() as tmp:
-        csv_path, case_path = record_files(tmp, rows)
+        csv_path, case_path = record_files(tmp, rows, distinct)
 
         def with_csv():
             with open(csv_path, newline="") as f:
@@ -440,7 +454,10 @@ def part4(bench_program, program):
         ref = np.array(with_csv())
         df = res["pandas"].to_numpy()
         ulps = np.abs(df - ref) / np.spacing(np.abs(ref))
-        print(f"4. reading a record of {rows} rows ({mb:.1f} MB: hours, H2S, load) into what each side computes with")
+        kind = ("every row distinct (H2S and load to three decimals, seeded noise)" if distinct else
+                "a daily cycle to one decimal: 24 distinct rows, repeating")
+        print(f"4{'b' if distinct else 'a'}. reading a record of {rows} rows ({mb:.1f} MB: hours, H2S, load; {kind}) "
+              "into what each side computes with")
         print(f"   {'side':52s} {'thousand rows/s':>22s}")
         for name, label in (("cpp", "acidload io::load_case (C++, CPU time of its thread)"),
                             ("acidload", "acidload.load_case (Python)"), ("check", "acidload check (the program)"),
