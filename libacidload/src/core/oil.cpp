@@ -105,8 +105,41 @@ OilBalance balance_constants(const OilProperties& oil) {
 // ---------------------------------------------------------------------------------------------
 // Closed forms of dy/dt = a0 + a1/M(t) − (l0 + l1/M(t))·y with M(t) = M0 − c·t.
 
+namespace {
+// Away from 0 the direct forms, kept out of line: the common small arguments below then need no call,
+// and so the closed forms around them keep their values in registers.
+[[gnu::noinline]] double expm1_over_x_direct(double x) { return std::expm1(x) / x; }
+[[gnu::noinline]] double phi2_direct(double x) { return (x - 1 + std::exp(-x)) / (x * x); }
+
+// E(x) = (eˣ − 1)/x = Σ xᵏ/(k + 1)!. For |x| < 2⁻⁶ (an hour of makeup, SO2 uptake or additive loss:
+// |x| ≈ 1e-4–1e-2) the series to x⁶ by Horner: the first term left out, x⁷/8!, is below 5.6e-18 (a
+// twentieth of an ulp of 1), so the sum is within about half an ulp, closer than expm1(x)/x's two
+// roundings, and costs no call and no division. Elsewhere expm1(x)/x.
+inline double E_of(double x) {
+  if (std::fabs(x) < 0x1p-6)
+    return 1 + x * (1.0 / 2 + x * (1.0 / 6 + x * (1.0 / 24 + x * (1.0 / 120 + x * (1.0 / 720 + x * (1.0 / 5040))))));
+  return expm1_over_x_direct(x);
+}
+
+// φ2(x) = (x − 1 + e^{−x})/x² = E[0, −x] = Σ (−x)ᵏ/(k + 2)!: the series where the direct form would
+// cancel, by Horner — to x⁶ for |x| < 2⁻⁶ (the first term left out, x⁷/9!, below 6.2e-19), to x¹⁰ for
+// |x| < 0.1 (below 1e-18); the direct form elsewhere.
+inline double phi2_of(double x) {
+  if (std::fabs(x) < 0x1p-6)
+    return 1.0 / 2 - x * (1.0 / 6 - x * (1.0 / 24 - x * (1.0 / 120 - x * (1.0 / 720 - x * (1.0 / 5040 - x * (1.0 / 40320))))));
+  if (std::fabs(x) < 0.1) {
+    static constexpr double c[11] = {1.0 / 2, 1.0 / 6, 1.0 / 24, 1.0 / 120, 1.0 / 720, 1.0 / 5040, 1.0 / 40320, 1.0 / 362880, 1.0 / 3628800, 1.0 / 39916800, 1.0 / 479001600};
+    double sum = c[10];
+    for (int k = 9; k >= 0; --k) sum = c[k] - x * sum;
+    return sum;
+  }
+  return phi2_direct(x);
+}
+}  // namespace
+
 namespace detail {
-double expm1_over_x(double x) { return x == 0 ? 1.0 : std::expm1(x) / x; }
+double expm1_over_x(double x) { return E_of(x); }
+double phi2(double x) { return phi2_of(x); }
 
 namespace {
 // I_n(m) = ∫₀¹ uⁿ e^{m u} du, the n-th derivative of expm1_over_x at m.
@@ -137,12 +170,12 @@ double divided_expm1_over_x(double x, double y) {
 
 namespace {
 using detail::divided_expm1_over_x;
-using detail::expm1_over_x;
+inline double expm1_over_x(double x) { return E_of(x); }
 
 struct Linear {
   double a0 = 0, a1 = 0, l0 = 0, l1 = 0;
 };
-double phi2(double x);
+inline double phi2(double x) { return phi2_of(x); }
 
 // E(x) and φ2(x), remembered for the last few arguments: within a piece of a segment most states
 // share one exponent (−k·t of the makeup), so of the ~10 evaluations only ~3 differ. Pure: the same
@@ -180,17 +213,6 @@ struct Mass {
 struct Solution {
   double y, integral;
 };
-
-// φ2(x) = (x − 1 + e^{−x})/x² = E[0, −x]: series where the direct form would cancel.
-double phi2(double x) {
-  if (std::fabs(x) < 0.1) {  // Σ (−x)^k / (k + 2)!, to x^10 (error < 1e-18 at |x| = 0.1), by Horner
-    static constexpr double c[11] = {1.0 / 2, 1.0 / 6, 1.0 / 24, 1.0 / 120, 1.0 / 720, 1.0 / 5040, 1.0 / 40320, 1.0 / 362880, 1.0 / 3628800, 1.0 / 39916800, 1.0 / 479001600};
-    double sum = c[10];
-    for (int k = 9; k >= 0; --k) sum = c[k] - x * sum;
-    return sum;
-  }
-  return (x - 1 + std::exp(-x)) / (x * x);
-}
 
 // y(t) alone, where the integral is not needed (the crossing search).
 double value(const Linear& e, double y0, const Mass& m, double t);
