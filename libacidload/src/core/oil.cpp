@@ -201,6 +201,7 @@ struct Memo {
 struct Mass {
   double m0 = 0;  // [kg] at the start of the piece
   double c = 0;   // decline [kg/h]; 0 with continuous makeup
+  double inv = 0; // 1/m0 [1/kg]: every a1/M0 and l1/M0 at constant mass is a1·inv, one division a piece
   mutable Memo<4> E_memo{};     // E(x) of this piece's closed forms
   mutable Memo<3> phi2_memo{};  // φ2(x) of this piece's closed forms
   double E(double x) const { return E_memo(x, expm1_over_x); }
@@ -221,8 +222,8 @@ Solution solve(const Linear& e, double y0, const Mass& m, double t) {
   if (t == 0) return {y0, 0};
   if (m.c == 0 || (e.a0 == 0 && e.a1 == 0 && e.l1 == 0)) {
     // constant coefficients: y = y0 + (A − Λ y0)·t·E(−Λt), ∫y = y0 t + (A − Λ y0)·t²·E[0, −Λt]
-    const double A = m.c == 0 ? e.a0 + e.a1 / m.m0 : e.a0;
-    const double L = m.c == 0 ? e.l0 + e.l1 / m.m0 : e.l0;
+    const double A = m.c == 0 ? e.a0 + e.a1 * m.inv : e.a0;
+    const double L = m.c == 0 ? e.l0 + e.l1 * m.inv : e.l0;
     const double slope = A - L * y0;
     return {y0 + slope * t * m.E(-L * t), y0 * t + slope * t * t * m.phi2_of(L * t)};
   }
@@ -243,7 +244,7 @@ Solution solve(const Linear& e, double y0, const Mass& m, double t) {
 
 double value(const Linear& e, double y0, const Mass& m, double t) {
   if (m.c == 0) {
-    const double A = e.a0 + e.a1 / m.m0, L = e.l0 + e.l1 / m.m0;
+    const double A = e.a0 + e.a1 * m.inv, L = e.l0 + e.l1 * m.inv;
     return y0 + (A - L * y0) * t * m.E(-L * t);
   }
   return solve(e, y0, m, t).y;
@@ -256,7 +257,7 @@ double crossing(const Linear& e, double y0, const Mass& m, double target, double
   if (m.c == 0) {
     // y∞ + (y0 − y∞) e^{−Λt} = target  ⇒  t = −log1p(−u)/Λ = (target − y0)/(A − Λ y0) · (−log1p(−u)/u),
     // u = Λ (target − y0)/(A − Λ y0) < 1 since target lies between y0 and y(t_max)
-    const double A = e.a0 + e.a1 / m.m0, L = e.l0 + e.l1 / m.m0;
+    const double A = e.a0 + e.a1 * m.inv, L = e.l0 + e.l1 * m.inv;
     const double slope = A - L * y0;
     const double u = L * (target - y0) / slope;
     const double t = (target - y0) / slope * (u == 0 ? 1.0 : -std::log1p(-u) / u);
@@ -301,19 +302,24 @@ struct Context {
   double organic = 0;   // organic acid formed in this piece [mg KOH/g per h]
 };
 
-double makeup_rate_of(const OilState& s, const OilRates& r) { return r.continuous_makeup ? r.consumption / s.mass : 0; }
+// k = c·(1/M) and l1 = SO2 uptake·(1/(b_fresh − b_min)), as the one-piece path computes them: one
+// division by the mass and one by the base span, each used for all the terms it divides.
+double makeup_rate_of(const OilState& s, const OilRates& r) { return r.continuous_makeup ? r.consumption * (1 / s.mass) : 0; }
+double so2_coefficient(const OilBalance& k, const OilRates& r) { return r.sulfurous_fresh * (1 / (k.fresh_base - k.base_floor)); }
+// fmax(0, fmin(1, x)) without the two library calls (NaN gives 1 as there)
+double clamp01(double x) { return !(x <= 1) ? 1.0 : x > 0 ? x : 0.0; }
 
 bool spent_at(const OilState& s, const OilRates& r) {
   return s.antioxidant <= 0 && r.antioxidant_depletion > makeup_rate_of(s, r);
 }
 
 Context make_context(const OilState& s, const OilBalance& k, const OilRates& r) {
-  Context c{k, r, {s.mass, r.continuous_makeup ? 0.0 : r.consumption}, 0, 0, 0};
+  Context c{k, r, {s.mass, r.continuous_makeup ? 0.0 : r.consumption, 1 / s.mass}, 0, 0, 0};
   if (r.continuous_makeup) {
-    c.makeup_rate = r.consumption / s.mass;
+    c.makeup_rate = r.consumption * c.mass.inv;
     c.makeup_base = r.consumption * (k.fresh_base - k.base_floor);
   }
-  c.so2_coeff = r.sulfurous_fresh / (k.fresh_base - k.base_floor);
+  c.so2_coeff = so2_coefficient(k, r);
   c.spent = spent_at(s, r);
   const double f = c.spent ? depleted_oxidation_factor(r.depleted_factor, c.makeup_rate, r.antioxidant_depletion) : 1.0;
   c.oxidation = r.oxidation * f;
@@ -382,7 +388,7 @@ void advance_piece(OilState& s, Regime g, const Context& c, const Equations& e, 
   s.oxidation = value(e.oxidation, s.oxidation, c.mass, t);
   s.nitration = value(e.nitration, s.nitration, c.mass, t);
   s.additive_acidity = value(e.additive, s.additive_acidity, c.mass, t);
-  s.antioxidant = e.antioxidant_fixed ? 0.0 : std::fmax(0.0, std::fmin(1.0, value(e.antioxidant, s.antioxidant, c.mass, t)));
+  s.antioxidant = e.antioxidant_fixed ? 0.0 : clamp01(value(e.antioxidant, s.antioxidant, c.mass, t));
 }
 
 // The common case of a segment: continuous makeup (constant mass), above the base floor throughout,
@@ -394,12 +400,13 @@ void advance_piece(OilState& s, Regime g, const Context& c, const Equations& e, 
 bool advance_steady(OilState& s, const OilBalance& k, const OilRates& r, double t, OilLedger& ledger) {
   // make_context() and equations() written out for this case (c = 0, no piece memo set up, only the
   // coefficients used): each value is the same expression of the same operands as there.
-  // z: a1/M0 and l1/M0 of the equations without a 1/M term, 0/M0 there: +0 exactly for the mass
-  // advance() accepts (finite, > 0), so the division is not done; the additions of z stay.
+  // z: a1·(1/M0) and l1·(1/M0) of the equations without a 1/M term, 0·(1/M0) there: +0 exactly for
+  // any mass whose inverse is finite (above 5.6e-309 kg), so the product is not formed; the additions of z stay.
   const double m0 = s.mass, z = 0.0;
-  const double km = r.consumption / m0;  // c.makeup_rate
+  const double inv_m0 = 1 / m0;  // c.mass.inv
+  const double km = r.consumption * inv_m0;  // c.makeup_rate
   const double makeup_base = r.consumption * (k.fresh_base - k.base_floor);
-  const double so2_coeff = r.sulfurous_fresh / (k.fresh_base - k.base_floor);
+  const double so2_coeff = so2_coefficient(k, r);
   const bool spent = s.antioxidant <= 0 && r.antioxidant_depletion > km;  // spent_at()
   const double f = spent ? depleted_oxidation_factor(r.depleted_factor, km, r.antioxidant_depletion) : 1.0;
   const double oxidation = r.oxidation * f, organic = r.organic_acid * f;
@@ -410,8 +417,8 @@ bool advance_steady(OilState& s, const OilBalance& k, const OilRates& r, double 
   }
   const double phi = k.organic_neutralised_share;
   // the base, and its crossing of the floor (as crossing(): none if both ends lie on one side)
-  const double Ab = (-phi * organic + km * k.fresh_base) + (-r.strong_acid + so2_coeff * k.base_floor) / m0;
-  const double Lb = km + so2_coeff / m0;
+  const double Ab = (-phi * organic + km * k.fresh_base) + (-r.strong_acid + so2_coeff * k.base_floor) * inv_m0;
+  const double Lb = km + so2_coeff * inv_m0;
   const double slope_b = Ab - Lb * s.base;
   const double yb = s.base + slope_b * t * expm1_over_x(-Lb * t);
   if (!((s.base - k.base_floor) * (yb - k.base_floor) > 0 || s.base == k.base_floor)) return false;
@@ -423,7 +430,7 @@ bool advance_steady(OilState& s, const OilBalance& k, const OilRates& r, double 
     anti = s.antioxidant + (Aa - Lk * s.antioxidant) * t * Ek;
     const bool watched = s.antioxidant > 0 && r.antioxidant_depletion > km;
     if (watched && !(s.antioxidant * anti > 0 || s.antioxidant == 0)) return false;
-    anti = std::fmax(0.0, std::fmin(1.0, anti));
+    anti = clamp01(anti);
   }
   const double b_int = s.base * t + slope_b * t * t * phi2(Lb * t);
   const double Aw = (1 - phi) * organic + z, slope_w = Aw - Lk * s.weak_acid;
@@ -439,7 +446,7 @@ bool advance_steady(OilState& s, const OilBalance& k, const OilRates& r, double 
   ledger.acid_entered += R * t + organic * IM + so2;
   ledger.sulfurous_taken_up += so2;
   ledger.acid_removed += cons * (s.strong_acid * t + w_int);
-  const double Ao = oxidation + z, An = 0.0 + r.nitration / m0;
+  const double Ao = oxidation + z, An = 0.0 + r.nitration * inv_m0;
   const double Ad = km * k.fresh_additive + z, Ld = (km + k.additive_depletion) + z;
   s.mass = m0;  // Mass::at with c = 0: m0 − 0·t = m0 exactly
   s.base = yb;
