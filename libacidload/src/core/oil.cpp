@@ -55,10 +55,17 @@ double antioxidant_depletion_rate(const OxidationLaw& l, double T) {
   return oxidation_temperature_factor(l, T) / l.induction_hours;
 }
 
-double depleted_oxidation_factor(double m, double makeup, double depletion) {
+namespace {
+// f = m − (m − 1)·min(1, k/k_A), inline for the one-piece path; q < 1 ? q : 1 is fmin(1, q) for every
+// q (NaN gives 1 as there) without the library call.
+inline double depleted_factor_of(double m, double makeup, double depletion) {
   if (depletion <= 0) return 1;
-  return m - (m - 1) * std::fmin(1.0, makeup / depletion);
+  const double q = makeup / depletion;
+  return m - (m - 1) * (q < 1 ? q : 1.0);
 }
+}  // namespace
+
+double depleted_oxidation_factor(double m, double makeup, double depletion) { return depleted_factor_of(m, makeup, depletion); }
 
 OilState fresh_oil(const OilProperties& oil, double mass) {
   check::positive("oil mass", mass);
@@ -111,22 +118,28 @@ namespace {
 [[gnu::noinline]] double expm1_over_x_direct(double x) { return std::expm1(x) / x; }
 [[gnu::noinline]] double phi2_direct(double x) { return (x - 1 + std::exp(-x)) / (x * x); }
 
-// E(x) = (eˣ − 1)/x = Σ xᵏ/(k + 1)!. For |x| < 2⁻⁶ (an hour of makeup, SO2 uptake or additive loss:
-// |x| ≈ 1e-4–1e-2) the series to x⁶ by Horner: the first term left out, x⁷/8!, is below 5.6e-18 (a
-// twentieth of an ulp of 1), so the sum is within about half an ulp, closer than expm1(x)/x's two
-// roundings, and costs no call and no division. Elsewhere expm1(x)/x.
+// φ2(x) = (x − 1 + e^{−x})/x² = E[0, −x] = Σ (−x)ᵏ/(k + 2)! for |x| < 2⁻⁶ (an hour of makeup, SO2
+// uptake or additive loss: |x| ≈ 1e-4–1e-2): to x⁶ by Horner, the first term left out, x⁷/9!, below
+// 6.2e-19 (a ninetieth of an ulp of 1/2).
+inline double phi2_short(double x) {
+  return 1.0 / 2 - x * (1.0 / 6 - x * (1.0 / 24 - x * (1.0 / 120 - x * (1.0 / 720 - x * (1.0 / 5040 - x * (1.0 / 40320))))));
+}
+
+// E(x) = (eˣ − 1)/x = Σ xᵏ/(k + 1)! = 1 + x·φ2(−x). For |x| < 2⁻⁶ so, by the short series of φ2: the
+// first term left out, x⁸/9!, is below 1e-20, and x·φ2(−x) is below 2⁻⁷, so its rounding is far below
+// an ulp of 1 and the sum is within about half an ulp — closer than expm1(x)/x's two roundings — with no
+// call and no division. Where a closed form needs both E(−x) and φ2(x), one series serves both
+// (E_phi2 below). Elsewhere expm1(x)/x.
 inline double E_of(double x) {
-  if (std::fabs(x) < 0x1p-6)
-    return 1 + x * (1.0 / 2 + x * (1.0 / 6 + x * (1.0 / 24 + x * (1.0 / 120 + x * (1.0 / 720 + x * (1.0 / 5040))))));
+  if (std::fabs(x) < 0x1p-6) return 1 + x * phi2_short(-x);
   return expm1_over_x_direct(x);
 }
 
-// φ2(x) = (x − 1 + e^{−x})/x² = E[0, −x] = Σ (−x)ᵏ/(k + 2)!: the series where the direct form would
-// cancel, by Horner — to x⁶ for |x| < 2⁻⁶ (the first term left out, x⁷/9!, below 6.2e-19), to x¹⁰ for
-// |x| < 0.1 (below 1e-18); the direct form elsewhere.
+// φ2(x) = (x − 1 + e^{−x})/x² = E[0, −x]: the series where the direct form would cancel, by Horner — to
+// x⁶ for |x| < 2⁻⁶ (above), to x¹⁰ for |x| < 0.1 (the first term left out below 1e-18); the direct
+// form elsewhere.
 inline double phi2_of(double x) {
-  if (std::fabs(x) < 0x1p-6)
-    return 1.0 / 2 - x * (1.0 / 6 - x * (1.0 / 24 - x * (1.0 / 120 - x * (1.0 / 720 - x * (1.0 / 5040 - x * (1.0 / 40320))))));
+  if (std::fabs(x) < 0x1p-6) return phi2_short(x);
   if (std::fabs(x) < 0.1) {
     static constexpr double c[11] = {1.0 / 2, 1.0 / 6, 1.0 / 24, 1.0 / 120, 1.0 / 720, 1.0 / 5040, 1.0 / 40320, 1.0 / 362880, 1.0 / 3628800, 1.0 / 39916800, 1.0 / 479001600};
     double sum = c[10];
@@ -134,6 +147,19 @@ inline double phi2_of(double x) {
     return sum;
   }
   return phi2_direct(x);
+}
+
+// E(−x) and φ2(x) with the bits of E_of(−x) and phi2_of(x): on the short series' range E(−x) =
+// 1 + (−x)·φ2(x) is E_of's own expression, so the series is summed once for both.
+struct EPhi2 {
+  double E, phi2;
+};
+inline EPhi2 E_phi2(double x) {
+  if (std::fabs(x) < 0x1p-6) {
+    const double p = phi2_short(x);
+    return {1 + (-x) * p, p};
+  }
+  return {E_of(-x), phi2_of(x)};
 }
 }  // namespace
 
@@ -321,7 +347,7 @@ Context make_context(const OilState& s, const OilBalance& k, const OilRates& r) 
   }
   c.so2_coeff = so2_coefficient(k, r);
   c.spent = spent_at(s, r);
-  const double f = c.spent ? depleted_oxidation_factor(r.depleted_factor, c.makeup_rate, r.antioxidant_depletion) : 1.0;
+  const double f = c.spent ? depleted_factor_of(r.depleted_factor, c.makeup_rate, r.antioxidant_depletion) : 1.0;
   c.oxidation = r.oxidation * f;
   c.organic = r.organic_acid * f;
   return c;
@@ -408,7 +434,7 @@ bool advance_steady(OilState& s, const OilBalance& k, const OilRates& r, double 
   const double makeup_base = r.consumption * (k.fresh_base - k.base_floor);
   const double so2_coeff = so2_coefficient(k, r);
   const bool spent = s.antioxidant <= 0 && r.antioxidant_depletion > km;  // spent_at()
-  const double f = spent ? depleted_oxidation_factor(r.depleted_factor, km, r.antioxidant_depletion) : 1.0;
+  const double f = spent ? depleted_factor_of(r.depleted_factor, km, r.antioxidant_depletion) : 1.0;
   const double oxidation = r.oxidation * f, organic = r.organic_acid * f;
   // regime_at(): above the floor, or at it with the makeup lifting the base again
   if (!(s.base > k.base_floor)) {
@@ -420,10 +446,13 @@ bool advance_steady(OilState& s, const OilBalance& k, const OilRates& r, double 
   const double Ab = (-phi * organic + km * k.fresh_base) + (-r.strong_acid + so2_coeff * k.base_floor) * inv_m0;
   const double Lb = km + so2_coeff * inv_m0;
   const double slope_b = Ab - Lb * s.base;
-  const double yb = s.base + slope_b * t * expm1_over_x(-Lb * t);
+  const EPhi2 eb = E_phi2(Lb * t);  // E(−Λ_b t), and φ2(Λ_b t) for the base's integral
+  const double yb = s.base + slope_b * t * eb.E;
   if (!((s.base - k.base_floor) * (yb - k.base_floor) > 0 || s.base == k.base_floor)) return false;
   // every equation with the makeup rate alone as Λ shares E(−Λt)
-  const double Lk = km + z, Ek = expm1_over_x(-Lk * t);
+  const double Lk = km + z;
+  const EPhi2 ek = E_phi2(Lk * t);
+  const double Ek = ek.E;
   double anti = 0;
   if (!spent) {
     const double Aa = (km - r.antioxidant_depletion) + z;
@@ -432,9 +461,9 @@ bool advance_steady(OilState& s, const OilBalance& k, const OilRates& r, double 
     if (watched && !(s.antioxidant * anti > 0 || s.antioxidant == 0)) return false;
     anti = clamp01(anti);
   }
-  const double b_int = s.base * t + slope_b * t * t * phi2(Lb * t);
+  const double b_int = s.base * t + slope_b * t * t * eb.phi2;
   const double Aw = (1 - phi) * organic + z, slope_w = Aw - Lk * s.weak_acid;
-  const double yw = s.weak_acid + slope_w * t * Ek, w_int = s.weak_acid * t + slope_w * t * t * phi2(Lk * t);
+  const double yw = s.weak_acid + slope_w * t * Ek, w_int = s.weak_acid * t + slope_w * t * t * ek.phi2;
   const double Au = km * k.fresh_base + z, u0 = s.base + s.salts;
   const double u = u0 + (Au - Lk * u0) * t * Ek;
   // Mass::integral with c = 0 is m0·t − 0.5·0·t·t = m0·t exactly (t > 0 finite: the product is +0)
