@@ -1,7 +1,12 @@
 #include "acidload/core/oil.hpp"
 
 #include <cmath>
+#include <cstddef>
+#include <cstring>
 #include <limits>
+#if defined(__SSE2__)
+#include <emmintrin.h>
+#endif
 
 #include "acidload/core/constants.hpp"
 #include "acidload/core/error.hpp"
@@ -55,10 +60,17 @@ double antioxidant_depletion_rate(const OxidationLaw& l, double T) {
   return oxidation_temperature_factor(l, T) / l.induction_hours;
 }
 
-double depleted_oxidation_factor(double m, double makeup, double depletion) {
+namespace {
+// f = m − (m − 1)·min(1, k/k_A), inline for the one-piece path; q < 1 ? q : 1 is fmin(1, q) for every
+// q (NaN gives 1 as there) without the library call.
+inline double depleted_factor_of(double m, double makeup, double depletion) {
   if (depletion <= 0) return 1;
-  return m - (m - 1) * std::fmin(1.0, makeup / depletion);
+  const double q = makeup / depletion;
+  return m - (m - 1) * (q < 1 ? q : 1.0);
 }
+}  // namespace
+
+double depleted_oxidation_factor(double m, double makeup, double depletion) { return depleted_factor_of(m, makeup, depletion); }
 
 OilState fresh_oil(const OilProperties& oil, double mass) {
   check::positive("oil mass", mass);
@@ -76,12 +88,32 @@ namespace {
 bool finite_non_negative(double v) { return v >= 0 && v <= std::numeric_limits<double>::max(); }
 // Every rate fine: the common case, checked without a call per field; otherwise the named checks below
 // find the first bad field and say so, as before.
+#if defined(__SSE2__)
+// The eight rates lie in declaration order at the struct's start; two compared per instruction: each
+// within [0, DBL_MAX] (so NaN and ±inf fail), the depleted factor within [1, 100].
+static_assert(offsetof(OilRates, strong_acid) == 0 && offsetof(OilRates, sulfurous_fresh) == 8 &&
+                  offsetof(OilRates, nitration) == 16 && offsetof(OilRates, oxidation) == 24 &&
+                  offsetof(OilRates, organic_acid) == 32 && offsetof(OilRates, antioxidant_depletion) == 40 &&
+                  offsetof(OilRates, depleted_factor) == 48 && offsetof(OilRates, consumption) == 56,
+              "rates_fine reads the rates as eight doubles in this order");
+bool rates_fine(const OilRates& r) {
+  double v[8];
+  std::memcpy(v, &r, sizeof v);
+  const __m128d zero = _mm_setzero_pd(), big = _mm_set1_pd(std::numeric_limits<double>::max());
+  const auto in = [](__m128d x, __m128d lo, __m128d hi) { return _mm_and_pd(_mm_cmpge_pd(x, lo), _mm_cmple_pd(x, hi)); };
+  const __m128d ok = _mm_and_pd(_mm_and_pd(in(_mm_loadu_pd(v), zero, big), in(_mm_loadu_pd(v + 2), zero, big)),
+                                _mm_and_pd(in(_mm_loadu_pd(v + 4), zero, big),
+                                           in(_mm_loadu_pd(v + 6), _mm_set_pd(0.0, 1.0), _mm_set_pd(std::numeric_limits<double>::max(), 100.0))));
+  return _mm_movemask_pd(ok) == 3;
+}
+#else
 bool rates_fine(const OilRates& r) {
   return finite_non_negative(r.strong_acid) && finite_non_negative(r.sulfurous_fresh) &&
          finite_non_negative(r.nitration) && finite_non_negative(r.oxidation) && finite_non_negative(r.organic_acid) &&
          finite_non_negative(r.consumption) && finite_non_negative(r.antioxidant_depletion) &&
          r.depleted_factor >= 1.0 && r.depleted_factor <= 100.0;
 }
+#endif
 }  // namespace
 
 void validate(const OilRates& r) {
@@ -105,8 +137,60 @@ OilBalance balance_constants(const OilProperties& oil) {
 // ---------------------------------------------------------------------------------------------
 // Closed forms of dy/dt = a0 + a1/M(t) − (l0 + l1/M(t))·y with M(t) = M0 − c·t.
 
+namespace {
+// Away from 0 the direct forms, kept out of line: the common small arguments below then need no call,
+// and so the closed forms around them keep their values in registers.
+[[gnu::noinline]] double expm1_over_x_direct(double x) { return std::expm1(x) / x; }
+[[gnu::noinline]] double phi2_direct(double x) { return (x - 1 + std::exp(-x)) / (x * x); }
+
+// φ2(x) = (x − 1 + e^{−x})/x² = E[0, −x] = Σ (−x)ᵏ/(k + 2)! for |x| < 2⁻⁶ (an hour of makeup, SO2
+// uptake or additive loss: |x| ≈ 1e-4–1e-2): to x⁶ by Horner, the first term left out, x⁷/9!, below
+// 6.2e-19 (a ninetieth of an ulp of 1/2).
+inline double phi2_short(double x) {
+  return 1.0 / 2 - x * (1.0 / 6 - x * (1.0 / 24 - x * (1.0 / 120 - x * (1.0 / 720 - x * (1.0 / 5040 - x * (1.0 / 40320))))));
+}
+
+// E(x) = (eˣ − 1)/x = Σ xᵏ/(k + 1)! = 1 + x·φ2(−x). For |x| < 2⁻⁶ so, by the short series of φ2: the
+// first term left out, x⁸/9!, is below 1e-20, and x·φ2(−x) is below 2⁻⁷, so its rounding is far below
+// an ulp of 1 and the sum is within about half an ulp — closer than expm1(x)/x's two roundings — with no
+// call and no division. Where a closed form needs both E(−x) and φ2(x), one series serves both
+// (E_phi2 below). Elsewhere expm1(x)/x.
+inline double E_of(double x) {
+  if (std::fabs(x) < 0x1p-6) return 1 + x * phi2_short(-x);
+  return expm1_over_x_direct(x);
+}
+
+// φ2(x) = (x − 1 + e^{−x})/x² = E[0, −x]: the series where the direct form would cancel, by Horner — to
+// x⁶ for |x| < 2⁻⁶ (above), to x¹⁰ for |x| < 0.1 (the first term left out below 1e-18); the direct
+// form elsewhere.
+inline double phi2_of(double x) {
+  if (std::fabs(x) < 0x1p-6) return phi2_short(x);
+  if (std::fabs(x) < 0.1) {
+    static constexpr double c[11] = {1.0 / 2, 1.0 / 6, 1.0 / 24, 1.0 / 120, 1.0 / 720, 1.0 / 5040, 1.0 / 40320, 1.0 / 362880, 1.0 / 3628800, 1.0 / 39916800, 1.0 / 479001600};
+    double sum = c[10];
+    for (int k = 9; k >= 0; --k) sum = c[k] - x * sum;
+    return sum;
+  }
+  return phi2_direct(x);
+}
+
+// E(−x) and φ2(x) with the bits of E_of(−x) and phi2_of(x): on the short series' range E(−x) =
+// 1 + (−x)·φ2(x) is E_of's own expression, so the series is summed once for both.
+struct EPhi2 {
+  double E, phi2;
+};
+inline EPhi2 E_phi2(double x) {
+  if (std::fabs(x) < 0x1p-6) {
+    const double p = phi2_short(x);
+    return {1 + (-x) * p, p};
+  }
+  return {E_of(-x), phi2_of(x)};
+}
+}  // namespace
+
 namespace detail {
-double expm1_over_x(double x) { return x == 0 ? 1.0 : std::expm1(x) / x; }
+double expm1_over_x(double x) { return E_of(x); }
+double phi2(double x) { return phi2_of(x); }
 
 namespace {
 // I_n(m) = ∫₀¹ uⁿ e^{m u} du, the n-th derivative of expm1_over_x at m.
@@ -137,12 +221,12 @@ double divided_expm1_over_x(double x, double y) {
 
 namespace {
 using detail::divided_expm1_over_x;
-using detail::expm1_over_x;
+inline double expm1_over_x(double x) { return E_of(x); }
 
 struct Linear {
   double a0 = 0, a1 = 0, l0 = 0, l1 = 0;
 };
-double phi2(double x);
+inline double phi2(double x) { return phi2_of(x); }
 
 // E(x) and φ2(x), remembered for the last few arguments: within a piece of a segment most states
 // share one exponent (−k·t of the makeup), so of the ~10 evaluations only ~3 differ. Pure: the same
@@ -168,6 +252,7 @@ struct Memo {
 struct Mass {
   double m0 = 0;  // [kg] at the start of the piece
   double c = 0;   // decline [kg/h]; 0 with continuous makeup
+  double inv = 0; // 1/m0 [1/kg]: every a1/M0 and l1/M0 at constant mass is a1·inv, one division a piece
   mutable Memo<4> E_memo{};     // E(x) of this piece's closed forms
   mutable Memo<3> phi2_memo{};  // φ2(x) of this piece's closed forms
   double E(double x) const { return E_memo(x, expm1_over_x); }
@@ -181,17 +266,6 @@ struct Solution {
   double y, integral;
 };
 
-// φ2(x) = (x − 1 + e^{−x})/x² = E[0, −x]: series where the direct form would cancel.
-double phi2(double x) {
-  if (std::fabs(x) < 0.1) {  // Σ (−x)^k / (k + 2)!, to x^10 (error < 1e-18 at |x| = 0.1), by Horner
-    static constexpr double c[11] = {1.0 / 2, 1.0 / 6, 1.0 / 24, 1.0 / 120, 1.0 / 720, 1.0 / 5040, 1.0 / 40320, 1.0 / 362880, 1.0 / 3628800, 1.0 / 39916800, 1.0 / 479001600};
-    double sum = c[10];
-    for (int k = 9; k >= 0; --k) sum = c[k] - x * sum;
-    return sum;
-  }
-  return (x - 1 + std::exp(-x)) / (x * x);
-}
-
 // y(t) alone, where the integral is not needed (the crossing search).
 double value(const Linear& e, double y0, const Mass& m, double t);
 
@@ -199,8 +273,8 @@ Solution solve(const Linear& e, double y0, const Mass& m, double t) {
   if (t == 0) return {y0, 0};
   if (m.c == 0 || (e.a0 == 0 && e.a1 == 0 && e.l1 == 0)) {
     // constant coefficients: y = y0 + (A − Λ y0)·t·E(−Λt), ∫y = y0 t + (A − Λ y0)·t²·E[0, −Λt]
-    const double A = m.c == 0 ? e.a0 + e.a1 / m.m0 : e.a0;
-    const double L = m.c == 0 ? e.l0 + e.l1 / m.m0 : e.l0;
+    const double A = m.c == 0 ? e.a0 + e.a1 * m.inv : e.a0;
+    const double L = m.c == 0 ? e.l0 + e.l1 * m.inv : e.l0;
     const double slope = A - L * y0;
     return {y0 + slope * t * m.E(-L * t), y0 * t + slope * t * t * m.phi2_of(L * t)};
   }
@@ -221,7 +295,7 @@ Solution solve(const Linear& e, double y0, const Mass& m, double t) {
 
 double value(const Linear& e, double y0, const Mass& m, double t) {
   if (m.c == 0) {
-    const double A = e.a0 + e.a1 / m.m0, L = e.l0 + e.l1 / m.m0;
+    const double A = e.a0 + e.a1 * m.inv, L = e.l0 + e.l1 * m.inv;
     return y0 + (A - L * y0) * t * m.E(-L * t);
   }
   return solve(e, y0, m, t).y;
@@ -234,7 +308,7 @@ double crossing(const Linear& e, double y0, const Mass& m, double target, double
   if (m.c == 0) {
     // y∞ + (y0 − y∞) e^{−Λt} = target  ⇒  t = −log1p(−u)/Λ = (target − y0)/(A − Λ y0) · (−log1p(−u)/u),
     // u = Λ (target − y0)/(A − Λ y0) < 1 since target lies between y0 and y(t_max)
-    const double A = e.a0 + e.a1 / m.m0, L = e.l0 + e.l1 / m.m0;
+    const double A = e.a0 + e.a1 * m.inv, L = e.l0 + e.l1 * m.inv;
     const double slope = A - L * y0;
     const double u = L * (target - y0) / slope;
     const double t = (target - y0) / slope * (u == 0 ? 1.0 : -std::log1p(-u) / u);
@@ -279,21 +353,26 @@ struct Context {
   double organic = 0;   // organic acid formed in this piece [mg KOH/g per h]
 };
 
-double makeup_rate_of(const OilState& s, const OilRates& r) { return r.continuous_makeup ? r.consumption / s.mass : 0; }
+// k = c·(1/M) and l1 = SO2 uptake·(1/(b_fresh − b_min)), as the one-piece path computes them: one
+// division by the mass and one by the base span, each used for all the terms it divides.
+double makeup_rate_of(const OilState& s, const OilRates& r) { return r.continuous_makeup ? r.consumption * (1 / s.mass) : 0; }
+double so2_coefficient(const OilBalance& k, const OilRates& r) { return r.sulfurous_fresh * (1 / (k.fresh_base - k.base_floor)); }
+// fmax(0, fmin(1, x)) without the two library calls (NaN gives 1 as there)
+double clamp01(double x) { return !(x <= 1) ? 1.0 : x > 0 ? x : 0.0; }
 
 bool spent_at(const OilState& s, const OilRates& r) {
   return s.antioxidant <= 0 && r.antioxidant_depletion > makeup_rate_of(s, r);
 }
 
 Context make_context(const OilState& s, const OilBalance& k, const OilRates& r) {
-  Context c{k, r, {s.mass, r.continuous_makeup ? 0.0 : r.consumption}, 0, 0, 0};
+  Context c{k, r, {s.mass, r.continuous_makeup ? 0.0 : r.consumption, 1 / s.mass}, 0, 0, 0};
   if (r.continuous_makeup) {
-    c.makeup_rate = r.consumption / s.mass;
+    c.makeup_rate = r.consumption * c.mass.inv;
     c.makeup_base = r.consumption * (k.fresh_base - k.base_floor);
   }
-  c.so2_coeff = r.sulfurous_fresh / (k.fresh_base - k.base_floor);
+  c.so2_coeff = so2_coefficient(k, r);
   c.spent = spent_at(s, r);
-  const double f = c.spent ? depleted_oxidation_factor(r.depleted_factor, c.makeup_rate, r.antioxidant_depletion) : 1.0;
+  const double f = c.spent ? depleted_factor_of(r.depleted_factor, c.makeup_rate, r.antioxidant_depletion) : 1.0;
   c.oxidation = r.oxidation * f;
   c.organic = r.organic_acid * f;
   return c;
@@ -360,7 +439,7 @@ void advance_piece(OilState& s, Regime g, const Context& c, const Equations& e, 
   s.oxidation = value(e.oxidation, s.oxidation, c.mass, t);
   s.nitration = value(e.nitration, s.nitration, c.mass, t);
   s.additive_acidity = value(e.additive, s.additive_acidity, c.mass, t);
-  s.antioxidant = e.antioxidant_fixed ? 0.0 : std::fmax(0.0, std::fmin(1.0, value(e.antioxidant, s.antioxidant, c.mass, t)));
+  s.antioxidant = e.antioxidant_fixed ? 0.0 : clamp01(value(e.antioxidant, s.antioxidant, c.mass, t));
 }
 
 // The common case of a segment: continuous makeup (constant mass), above the base floor throughout,
@@ -372,14 +451,15 @@ void advance_piece(OilState& s, Regime g, const Context& c, const Equations& e, 
 bool advance_steady(OilState& s, const OilBalance& k, const OilRates& r, double t, OilLedger& ledger) {
   // make_context() and equations() written out for this case (c = 0, no piece memo set up, only the
   // coefficients used): each value is the same expression of the same operands as there.
-  // z: a1/M0 and l1/M0 of the equations without a 1/M term, 0/M0 there: +0 exactly for the mass
-  // advance() accepts (finite, > 0), so the division is not done; the additions of z stay.
+  // z: a1·(1/M0) and l1·(1/M0) of the equations without a 1/M term, 0·(1/M0) there: +0 exactly for
+  // any mass whose inverse is finite (above 5.6e-309 kg), so the product is not formed; the additions of z stay.
   const double m0 = s.mass, z = 0.0;
-  const double km = r.consumption / m0;  // c.makeup_rate
+  const double inv_m0 = 1 / m0;  // c.mass.inv
+  const double km = r.consumption * inv_m0;  // c.makeup_rate
   const double makeup_base = r.consumption * (k.fresh_base - k.base_floor);
-  const double so2_coeff = r.sulfurous_fresh / (k.fresh_base - k.base_floor);
+  const double so2_coeff = so2_coefficient(k, r);
   const bool spent = s.antioxidant <= 0 && r.antioxidant_depletion > km;  // spent_at()
-  const double f = spent ? depleted_oxidation_factor(r.depleted_factor, km, r.antioxidant_depletion) : 1.0;
+  const double f = spent ? depleted_factor_of(r.depleted_factor, km, r.antioxidant_depletion) : 1.0;
   const double oxidation = r.oxidation * f, organic = r.organic_acid * f;
   // regime_at(): above the floor, or at it with the makeup lifting the base again
   if (!(s.base > k.base_floor)) {
@@ -388,24 +468,27 @@ bool advance_steady(OilState& s, const OilBalance& k, const OilRates& r, double 
   }
   const double phi = k.organic_neutralised_share;
   // the base, and its crossing of the floor (as crossing(): none if both ends lie on one side)
-  const double Ab = (-phi * organic + km * k.fresh_base) + (-r.strong_acid + so2_coeff * k.base_floor) / m0;
-  const double Lb = km + so2_coeff / m0;
+  const double Ab = (-phi * organic + km * k.fresh_base) + (-r.strong_acid + so2_coeff * k.base_floor) * inv_m0;
+  const double Lb = km + so2_coeff * inv_m0;
   const double slope_b = Ab - Lb * s.base;
-  const double yb = s.base + slope_b * t * expm1_over_x(-Lb * t);
+  const EPhi2 eb = E_phi2(Lb * t);  // E(−Λ_b t), and φ2(Λ_b t) for the base's integral
+  const double yb = s.base + slope_b * t * eb.E;
   if (!((s.base - k.base_floor) * (yb - k.base_floor) > 0 || s.base == k.base_floor)) return false;
   // every equation with the makeup rate alone as Λ shares E(−Λt)
-  const double Lk = km + z, Ek = expm1_over_x(-Lk * t);
+  const double Lk = km + z;
+  const EPhi2 ek = E_phi2(Lk * t);
+  const double Ek = ek.E;
   double anti = 0;
   if (!spent) {
     const double Aa = (km - r.antioxidant_depletion) + z;
     anti = s.antioxidant + (Aa - Lk * s.antioxidant) * t * Ek;
     const bool watched = s.antioxidant > 0 && r.antioxidant_depletion > km;
     if (watched && !(s.antioxidant * anti > 0 || s.antioxidant == 0)) return false;
-    anti = std::fmax(0.0, std::fmin(1.0, anti));
+    anti = clamp01(anti);
   }
-  const double b_int = s.base * t + slope_b * t * t * phi2(Lb * t);
+  const double b_int = s.base * t + slope_b * t * t * eb.phi2;
   const double Aw = (1 - phi) * organic + z, slope_w = Aw - Lk * s.weak_acid;
-  const double yw = s.weak_acid + slope_w * t * Ek, w_int = s.weak_acid * t + slope_w * t * t * phi2(Lk * t);
+  const double yw = s.weak_acid + slope_w * t * Ek, w_int = s.weak_acid * t + slope_w * t * t * ek.phi2;
   const double Au = km * k.fresh_base + z, u0 = s.base + s.salts;
   const double u = u0 + (Au - Lk * u0) * t * Ek;
   // Mass::integral with c = 0 is m0·t − 0.5·0·t·t = m0·t exactly (t > 0 finite: the product is +0)
@@ -417,7 +500,7 @@ bool advance_steady(OilState& s, const OilBalance& k, const OilRates& r, double 
   ledger.acid_entered += R * t + organic * IM + so2;
   ledger.sulfurous_taken_up += so2;
   ledger.acid_removed += cons * (s.strong_acid * t + w_int);
-  const double Ao = oxidation + z, An = 0.0 + r.nitration / m0;
+  const double Ao = oxidation + z, An = 0.0 + r.nitration * inv_m0;
   const double Ad = km * k.fresh_additive + z, Ld = (km + k.additive_depletion) + z;
   s.mass = m0;  // Mass::at with c = 0: m0 − 0·t = m0 exactly
   s.base = yb;

@@ -167,7 +167,8 @@ void oil_change(OilState& s, const OilProperties& oil, double residual_share, do
 
 //! Numerical helpers of the closed forms (exposed for tests).
 namespace detail {
-double expm1_over_x(double x);                   //!< (eˣ − 1)/x, 1 at 0
+double expm1_over_x(double x);                   //!< E(x) = (eˣ − 1)/x, 1 at 0 (a short series for |x| < 2⁻⁶)
+double phi2(double x);                           //!< φ2(x) = (x − 1 + e^{−x})/x² = E[0, −x], 1/2 at 0 (series for |x| < 0.1)
 double divided_expm1_over_x(double x, double y); //!< (E(x) − E(y))/(x − y) for E = expm1_over_x, stable as x → y
 //! advance() without its one-piece path for the common segment: every segment by pieces (the state checks
 //! are advance()'s; call it with a state and rates that advance() accepts). For the test that holds the
