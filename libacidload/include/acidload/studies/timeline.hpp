@@ -123,4 +123,11 @@ RunResult simulate(const OilCharge& charge, const ModelParameters& model, const 
 //! The rates of a segment (its transfer and oil rates).
 OilRates segment_rates(const Segment& s, const OilCharge& charge, const ModelParameters& model, Transfer* transfer = nullptr);
 
+namespace detail {
+//! Whether simulate's cache of rates takes b's operating state for a's (and reuses a's transfer and
+//! rates for it): every field segment_rates reads, each double by its bits, the starts per hour from
+//! the starts and hours. For the tests.
+bool same_operating_state(const Segment& a, const Segment& b);
+}  // namespace detail
+
 }  // namespace acidload
