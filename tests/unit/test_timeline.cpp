@@ -398,6 +398,37 @@ TEST_CASE("a run's totals of hours and starts are the sums of its segments'") {
   CHECK(d.starts == doctest::Approx(starts).epsilon(1e-12));
 }
 
+TEST_CASE("every trajectory point holds its state's readings and the run's counts at that point") {
+  // the readings of each point against the reading functions of its own state (docs/model.md §9's
+  // lab readings), bit for bit; hours and starts at the point against the sums over the segments before it
+  std::vector<Segment> rec;
+  for (int i = 0; i < 300; ++i) {
+    Segment s = hours(1.0 + i % 3, 200 + 2 * i);
+    s.starts = i % 5 == 0 ? 1 : 0;
+    if (i == 150) s.events.push_back(OilEvent{OilEvent::Kind::oil_change, -1});
+    rec.push_back(s);
+  }
+  const OilCharge c = sanity_charge();
+  RunOptions o;
+  o.detection_step = 0;
+  const RunResult r = simulate(c, {}, rec, o);
+  REQUIRE(r.trajectory.size() == rec.size() + 2);  // the start, an oil change, every segment end
+  double engine = 0, starts = 0;
+  int charge = 0;
+  std::size_t p = 1, wrong = 0;
+  for (const Segment& s : rec) {
+    if (!s.events.empty()) ++charge, ++p;  // the point at the change
+    engine += s.hours, starts += s.starts;
+    const TrajectoryPoint& t = r.trajectory[p++];
+    wrong += t.engine_hours != engine || t.calendar_hours != engine || t.starts != starts || t.charge != charge ||
+             t.tbn_d2896 != tbn(t.state, c.oil, BaseNumberMethod::d2896) ||
+             t.tbn_d4739 != tbn(t.state, c.oil, BaseNumberMethod::d4739) || t.tan != acidload::tan(t.state, c.oil) ||
+             t.san != san(t.state) || t.viscosity_rise != viscosity_rise(t.state, c.oil);
+  }
+  CHECK(wrong == 0);
+  CHECK(r.trajectory.front().tbn_d4739 == tbn(r.initial, c.oil, BaseNumberMethod::d4739));
+}
+
 TEST_CASE("simulate's limit mask: reached_limits reads every limit as read_limit does") {
   // random states about each threshold (some exactly on it, where >= and > differ), random settings and
   // both TBN methods, an oil with and without additive acidity: bit l of the mask against

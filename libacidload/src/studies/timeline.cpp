@@ -223,20 +223,13 @@ struct Runner {
     oil_h = oil_hours;
   }
 
+  // Every field given at once (emplace_back() and then each field would store every field twice: zero, value)
   void record_point() {
     since_output = 0;
-    TrajectoryPoint& p = result.trajectory.emplace_back();  // filled in place
-    p.engine_hours = engine_h;
-    p.oil_hours = oil_h;
-    p.calendar_hours = calendar_h;
-    p.starts = starts;
-    p.charge = charge_index;
-    p.state = state;
-    p.tbn_d2896 = tbn(state, charge.oil, BaseNumberMethod::d2896);
-    p.tbn_d4739 = tbn(state, charge.oil, BaseNumberMethod::d4739);
-    p.tan = acidload::tan(state, charge.oil);
-    p.san = san(state);
-    p.viscosity_rise = acidload::viscosity_rise(state, charge.oil);
+    const OilProperties& oil = charge.oil;
+    result.trajectory.push_back(TrajectoryPoint{engine_h, oil_h, calendar_h, starts, charge_index, state,
+                                                tbn(state, oil, BaseNumberMethod::d2896), tbn(state, oil, BaseNumberMethod::d4739),
+                                                acidload::tan(state, oil), san(state), acidload::viscosity_rise(state, oil)});
   }
 
   void close_charge() {
