@@ -71,9 +71,8 @@ static_assert(op_starts == 11 * sizeof(double) && offsetof(Operation, jacket_wat
                   sizeof(Operation) == 17 * sizeof(double),
               "a field was added to Operation: compare it here");
 
-// What the rates of a segment depend on besides the run's constant parameters (aligned: the compiler
-// then reads the key's word pairs straight from memory in the comparison).
-struct alignas(16) OperatingState {
+// What the rates of a segment depend on besides the run's constant parameters.
+struct OperatingState {
   FuelGas fuel;
   Operation op;  // starts_per_hour from the segment's starts and hours
   double oil_temperature = 0, oil_consumption = 0;
@@ -88,16 +87,20 @@ double starts_per_hour(const Segment& s) {
 // b's starts per hour is b_starts_per_hour (a segment holds its starts and hours instead). Zero when equal.
 std::uint64_t differ(const OperatingState& a, const Segment& b, double b_starts_per_hour) {
   // the mole fractions, fuel flow, power and load, the oil's temperature and consumption, the starts
-  const std::uint64_t d = differ_words<0, fuel_doubles_end>(a.fuel, b.fuel) | differ_words<0, op_starts>(a.op, b.operation) |
+  constexpr std::size_t fractions_end = gas_count * sizeof(double), op_load_end = offsetof(Operation, air);
+  static_assert(offsetof(FuelGas, x) == 0 && op_load_end == 3 * sizeof(double), "the first group's words moved");
+  const std::uint64_t d = differ_words<0, fractions_end>(a.fuel, b.fuel) | differ_words<0, op_load_end>(a.op, b.operation) |
                           differ(a.oil_temperature, b.oil_temperature) | differ(a.oil_consumption, b.oil_consumption) |
                           differ(a.op.starts_per_hour, b_starts_per_hour);
   if (d != 0) return d;
-  // jacket water at start, NOx value; its O2 figures; the enums
-  return differ_words<op_starts + sizeof(double), op_nox + offsetof(NoxEmission, unit)>(a.op, b.operation) |
+  // the traces and reference state; air … exhaust pressure; jacket water at start, NOx value; its O2 figures; the enums
+  return differ_words<fractions_end, fuel_doubles_end>(a.fuel, b.fuel) | differ_words<op_load_end, op_starts>(a.op, b.operation) |
+         differ_words<op_starts + sizeof(double), op_nox + offsetof(NoxEmission, unit)>(a.op, b.operation) |
          differ_words<op_nox + offsetof(NoxEmission, o2_reference), sizeof(Operation)>(a.op, b.operation) |
          static_cast<std::uint64_t>(a.op.nox.unit != b.operation.nox.unit) |
          static_cast<std::uint64_t>(a.fuel.combustion != b.fuel.combustion);
 }
+
 OperatingState operating_state(const Segment& s, double starts_per_hour) {
   OperatingState k;
   k.fuel = s.fuel, k.op = s.operation, k.op.starts_per_hour = starts_per_hour;
