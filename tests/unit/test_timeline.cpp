@@ -2,6 +2,10 @@
 #include <doctest/doctest.h>
 
 #include <cmath>
+#include <cstddef>
+#include <functional>
+#include <string>
+#include <utility>
 #include <cstdint>
 #include <random>
 #include <vector>
@@ -276,6 +280,154 @@ TEST_CASE("states recurring out of order: the rates reused from the cache of rec
     CHECK(r.ledger.acid_entered == ledger.acid_entered);
     CHECK(r.ledger.sulfurous_taken_up == ledger.sulfurous_taken_up);
   }
+}
+
+namespace {
+void nudge(double& v) { v = v == 0 ? 1e-9 : v * (1 + 1e-9); }  // a change small enough to stay valid
+}  // namespace
+
+TEST_CASE("the cache's comparison tells apart every field the rates read, and nothing else; reuse gives a fresh computation's bits") {
+  // Each field segment_rates reads (every double of the fuel and the operation, the two enums, the oil's
+  // temperature and consumption, the starts per hour from starts and hours) changed alone in a copy of a
+  // segment: the comparison (detail::same_operating_state, the one simulate's cache uses) must take the
+  // copy for a new state, and simulate over a record mixing the two, back to back and alternating, must
+  // give the plain path's segment ends bit for bit (each segment's rates computed afresh by
+  // segment_rates). What segment_rates does not read (the operation's own starts per hour, which the
+  // segment's starts and hours set; calendar hours; events; padding bytes) must not tell them apart, nor
+  // the hours when there are no starts, nor starts and hours giving the same starts per hour.
+  const Segment base = hours(1.0, 400);
+  std::vector<std::pair<std::string, std::function<void(Segment&)>>> changes;
+  for (std::size_t i = 0; i < gas_count; ++i)
+    changes.emplace_back("fuel.x[" + std::to_string(i) + "]", [i](Segment& s) { nudge(s.fuel.x[i]); });
+  changes.emplace_back("other_sulfur", [](Segment& s) { nudge(s.fuel.other_sulfur); });
+  changes.emplace_back("chlorine", [](Segment& s) { nudge(s.fuel.chlorine); });
+  changes.emplace_back("fluorine", [](Segment& s) { nudge(s.fuel.fluorine); });
+  changes.emplace_back("reference.temperature", [](Segment& s) { nudge(s.fuel.reference.temperature); });
+  changes.emplace_back("reference.pressure", [](Segment& s) { nudge(s.fuel.reference.pressure); });
+  changes.emplace_back("combustion", [](Segment& s) { s.fuel.combustion = CombustionReference::t25; });
+  changes.emplace_back("fuel_flow", [](Segment& s) { nudge(s.operation.fuel_flow); });
+  changes.emplace_back("electrical_power", [](Segment& s) { nudge(s.operation.electrical_power); });
+  changes.emplace_back("load", [](Segment& s) { s.operation.load *= 0.9; });
+  changes.emplace_back("excess_air_ratio", [](Segment& s) { nudge(s.operation.air.excess_air_ratio); });
+  changes.emplace_back("water_fraction", [](Segment& s) { nudge(s.operation.air.water_fraction); });
+  changes.emplace_back("blowby_share", [](Segment& s) { nudge(s.operation.blowby_share); });
+  changes.emplace_back("blowby_flow", [](Segment& s) { nudge(s.operation.blowby_flow); });
+  changes.emplace_back("jacket_water_out", [](Segment& s) { nudge(s.operation.jacket_water_out); });
+  changes.emplace_back("coldest_crankcase_surface", [](Segment& s) { nudge(s.operation.coldest_crankcase_surface); });
+  changes.emplace_back("crankcase_pressure", [](Segment& s) { nudge(s.operation.crankcase_pressure); });
+  changes.emplace_back("exhaust_pressure", [](Segment& s) { nudge(s.operation.exhaust_pressure); });
+  changes.emplace_back("jacket_water_at_start", [](Segment& s) { nudge(s.operation.jacket_water_at_start); });
+  changes.emplace_back("nox.value", [](Segment& s) { nudge(s.operation.nox.value); });
+  changes.emplace_back("nox.unit", [](Segment& s) { s.operation.nox.unit = NoxEmission::Unit::g_per_kWh; });
+  changes.emplace_back("nox.o2_reference", [](Segment& s) { nudge(s.operation.nox.o2_reference); });
+  changes.emplace_back("nox.o2_air", [](Segment& s) { s.operation.nox.o2_air = 0.209; });
+  changes.emplace_back("oil_temperature", [](Segment& s) { nudge(s.oil_temperature); });
+  changes.emplace_back("oil_consumption", [](Segment& s) { nudge(s.oil_consumption); });
+  changes.emplace_back("starts", [](Segment& s) { s.starts = 1; });
+  changes.emplace_back("hours, with starts", [](Segment& s) { s.starts = 1, s.hours = 2; });  // starts per hour 1 against 0.5
+  const OilCharge c = sanity_charge();
+  const ModelParameters m;
+  RunOptions o;
+  o.detection_step = 0;
+  const OilBalance k = balance_constants(c.oil);
+  for (const auto& named : changes) {  // not a structured binding: clang++-14 refuses one in INFO's lambda
+    const std::string field = named.first;
+    Segment a = base;
+    if (field == "hours, with starts") a.starts = 1;  // 1 start an hour: only the hours differ
+    Segment b = a;
+    named.second(b);
+    INFO("field " << field);
+    CHECK(!detail::same_operating_state(a, b));
+    CHECK(!detail::same_operating_state(b, a));
+    const std::vector<Segment> rec{a, a, b, a, b, b, a, b};
+    const RunResult r = simulate(c, m, rec, o);
+    REQUIRE(r.trajectory.size() == rec.size() + 1);
+    OilState x = fresh_oil(c.oil, c.mass);
+    OilLedger ledger;
+    std::size_t unequal = 0;
+    for (std::size_t i = 0; i < rec.size(); ++i) {
+      advance(x, k, segment_rates(rec[i], c, m), rec[i].hours, ledger);
+      if (!same_state(r.trajectory[i + 1].state, x)) ++unequal;
+    }
+    CHECK(unequal == 0);
+  }
+  // what the rates do not read
+  Segment same = base;
+  same.operation.starts_per_hour = 7;  // set from starts and hours, not read
+  same.calendar_hours = 5;
+  same.events.push_back(OilEvent{});
+  auto* bytes = reinterpret_cast<unsigned char*>(&same.fuel);  // the padding after the enum
+  for (std::size_t i = sizeof(CombustionReference); i < sizeof(double); ++i) bytes[offsetof(FuelGas, combustion) + i] = 0xa5;
+  CHECK(detail::same_operating_state(base, same));
+  Segment longer = base;
+  longer.hours = 3;  // no starts: 0 starts per hour either way
+  CHECK(detail::same_operating_state(base, longer));
+  Segment two = base, four = base;
+  two.starts = 2, two.hours = 1, four.starts = 4, four.hours = 2;  // 2 starts an hour both
+  CHECK(detail::same_operating_state(two, four));
+  Segment idle = base;
+  idle.hours = 0, idle.starts = 3;  // no running hours: 0 starts per hour, as segment_rates takes it
+  CHECK(detail::same_operating_state(base, idle));
+}
+
+TEST_CASE("a run's totals of hours and starts are the sums of its segments'") {
+  // segments run in one step each (no detection steps, no output interval): the totals are the plain
+  // sums in record order, bit for bit (calendar hours default to the running hours)
+  std::mt19937_64 rng(77);
+  std::uniform_real_distribution<double> u(0, 1);
+  std::vector<Segment> rec;
+  double engine = 0, calendar = 0, starts = 0;
+  for (int i = 0; i < 500; ++i) {
+    Segment s = hours(0.1 + 3 * u(rng));
+    if (i % 3 == 0) s.calendar_hours = s.hours * (1 + u(rng));
+    if (i % 4 == 0) s.starts = std::floor(2 * s.hours * u(rng));  // at most 2 an hour
+    rec.push_back(s);
+    engine += s.hours;
+    calendar += s.calendar_hours < 0 ? s.hours : s.calendar_hours;
+    starts += s.starts;
+  }
+  RunOptions o;
+  o.detection_step = 0;
+  const RunResult r = simulate(sanity_charge(), {}, rec, o);
+  CHECK(r.engine_hours == engine);
+  CHECK(r.calendar_hours == calendar);
+  CHECK(r.starts == starts);
+  // in detection steps of 0.7 h the same totals to rounding (each step adds its share)
+  o.detection_step = 0.7;
+  const RunResult d = simulate(sanity_charge(), {}, rec, o);
+  CHECK(d.calendar_hours == doctest::Approx(calendar).epsilon(1e-12));
+  CHECK(d.starts == doctest::Approx(starts).epsilon(1e-12));
+}
+
+TEST_CASE("every trajectory point holds its state's readings and the run's counts at that point") {
+  // the readings of each point against the reading functions of its own state (docs/model.md §9's
+  // lab readings), bit for bit; hours and starts at the point against the sums over the segments before it
+  std::vector<Segment> rec;
+  for (int i = 0; i < 300; ++i) {
+    Segment s = hours(1.0 + i % 3, 200 + 2 * i);
+    s.starts = i % 5 == 0 ? 1 : 0;
+    if (i == 150) s.events.push_back(OilEvent{OilEvent::Kind::oil_change, -1});
+    rec.push_back(s);
+  }
+  const OilCharge c = sanity_charge();
+  RunOptions o;
+  o.detection_step = 0;
+  const RunResult r = simulate(c, {}, rec, o);
+  REQUIRE(r.trajectory.size() == rec.size() + 2);  // the start, an oil change, every segment end
+  double engine = 0, starts = 0;
+  int charge = 0;
+  std::size_t p = 1, wrong = 0;
+  for (const Segment& s : rec) {
+    if (!s.events.empty()) ++charge, ++p;  // the point at the change
+    engine += s.hours, starts += s.starts;
+    const TrajectoryPoint& t = r.trajectory[p++];
+    wrong += t.engine_hours != engine || t.calendar_hours != engine || t.starts != starts || t.charge != charge ||
+             t.tbn_d2896 != tbn(t.state, c.oil, BaseNumberMethod::d2896) ||
+             t.tbn_d4739 != tbn(t.state, c.oil, BaseNumberMethod::d4739) || t.tan != acidload::tan(t.state, c.oil) ||
+             t.san != san(t.state) || t.viscosity_rise != viscosity_rise(t.state, c.oil);
+  }
+  CHECK(wrong == 0);
+  CHECK(r.trajectory.front().tbn_d4739 == tbn(r.initial, c.oil, BaseNumberMethod::d4739));
 }
 
 TEST_CASE("simulate's limit mask: reached_limits reads every limit as read_limit does") {

@@ -2,6 +2,7 @@
 
 #include <array>
 #include <cmath>
+#include <cstddef>
 #include <cstdint>
 #include <cstring>
 #include <algorithm>
@@ -33,13 +34,15 @@ void check_segment(const Segment& s, const OilCharge& charge, const ModelParamet
 
 namespace {
 
-// Operating states compared by value, field by field, each double by its bits (equal bits give equal
-// results, so a recurring state may reuse them; -0 against +0 only costs a recomputation). Not memcmp
-// of whole structs: the padding after an enum (NoxEmission::unit, FuelGas::combustion) holds whatever
-// the stack held, so equal states compared unequal at random. The differences of the fields are or-ed
-// together without a branch per field, in two groups: those that vary from row to row first, so that a
-// new state is told apart after about half of them, a repeat reading every field anyway. The size
-// assertions fail when a field is added: compare it too.
+// Operating states compared by value, each double by its bits (equal bits give equal results, so a
+// recurring state may reuse them; -0 against +0 only costs a recomputation). Not memcmp of whole
+// structs: the padding after an enum (NoxEmission::unit, FuelGas::combustion) holds whatever the stack
+// held, so equal states compared unequal at random. The doubles that lie back to back in FuelGas and
+// Operation are compared as runs of 64-bit words (their bytes are their bits; the compiler compares two
+// words at a time), the enums and the starts per hour one by one, the differences or-ed together
+// without a branch per field, in two groups: the runs holding the fields that vary from row to row
+// first, so that a new state is told apart after those, a repeat reading every field anyway. The
+// layout assertions fail when a field is added or moved: compare it too.
 std::uint64_t bits(double v) {
   std::uint64_t u;
   std::memcpy(&u, &v, sizeof u);
@@ -47,26 +50,34 @@ std::uint64_t bits(double v) {
 }
 std::uint64_t differ(double a, double b) { return bits(a) ^ bits(b); }
 
-// b with its starts per hour replaced by b_starts_per_hour (a segment holds its starts and hours instead)
-// (fuel flow, power, load and the starts per hour are in the first group, compared by differ(OperatingState, ...))
-std::uint64_t differ_rest(const Operation& a, const Operation& b) {
-  static_assert(sizeof(Operation) == 17 * sizeof(double), "a field was added to Operation: compare it here");
-  return differ(a.air.excess_air_ratio, b.air.excess_air_ratio) | differ(a.air.water_fraction, b.air.water_fraction) |
-         differ(a.blowby_share, b.blowby_share) | differ(a.blowby_flow, b.blowby_flow) |
-         differ(a.jacket_water_out, b.jacket_water_out) | differ(a.coldest_crankcase_surface, b.coldest_crankcase_surface) |
-         differ(a.crankcase_pressure, b.crankcase_pressure) | differ(a.exhaust_pressure, b.exhaust_pressure) |
-         differ(a.jacket_water_at_start, b.jacket_water_at_start) |
-         differ(a.nox.value, b.nox.value) | static_cast<std::uint64_t>(a.nox.unit != b.nox.unit) |
-         differ(a.nox.o2_reference, b.nox.o2_reference) | differ(a.nox.o2_air, b.nox.o2_air);
+// The bytes [from, to) of a and b as 64-bit words, or-ed differences: zero when the bits agree.
+template <std::size_t from, std::size_t to, class T>
+std::uint64_t differ_words(const T& a, const T& b) {
+  static_assert(from % sizeof(std::uint64_t) == 0 && to % sizeof(std::uint64_t) == 0 && to <= sizeof(T), "whole words");
+  const auto* pa = reinterpret_cast<const unsigned char*>(&a);
+  const auto* pb = reinterpret_cast<const unsigned char*>(&b);
+  std::uint64_t d = 0;
+  for (std::size_t i = from; i < to; i += sizeof(std::uint64_t)) {
+    std::uint64_t x, y;
+    std::memcpy(&x, pa + i, sizeof x);
+    std::memcpy(&y, pb + i, sizeof y);
+    d |= x ^ y;
+  }
+  return d;
 }
 
-// (the mole fractions are in the first group)
-std::uint64_t differ_rest(const FuelGas& a, const FuelGas& b) {
-  static_assert(sizeof(FuelGas) == (gas_count + 6) * sizeof(double), "a field was added to FuelGas: compare it here");
-  return differ(a.other_sulfur, b.other_sulfur) | differ(a.chlorine, b.chlorine) | differ(a.fluorine, b.fluorine) |
-         differ(a.reference.temperature, b.reference.temperature) | differ(a.reference.pressure, b.reference.pressure) |
-         static_cast<std::uint64_t>(a.combustion != b.combustion);
-}
+// Where the runs of doubles lie (offsetof: both are standard-layout aggregates of doubles and enums).
+static_assert(std::is_standard_layout_v<FuelGas> && std::is_standard_layout_v<Operation>, "offsetof");
+constexpr std::size_t fuel_doubles_end = offsetof(FuelGas, combustion);  // x, other S, Cl, F, reference
+static_assert(fuel_doubles_end == (gas_count + 5) * sizeof(double) && sizeof(FuelGas) == (gas_count + 6) * sizeof(double),
+              "a field was added to FuelGas: compare it here");
+constexpr std::size_t op_starts = offsetof(Operation, starts_per_hour);  // fuel flow … exhaust pressure before it
+constexpr std::size_t op_nox = offsetof(Operation, nox);
+static_assert(op_starts == 11 * sizeof(double) && offsetof(Operation, jacket_water_at_start) == op_starts + sizeof(double) &&
+                  op_nox == op_starts + 2 * sizeof(double) && offsetof(NoxEmission, unit) == sizeof(double) &&
+                  offsetof(NoxEmission, o2_reference) == 2 * sizeof(double) && sizeof(NoxEmission) == 4 * sizeof(double) &&
+                  sizeof(Operation) == 17 * sizeof(double),
+              "a field was added to Operation: compare it here");
 
 // What the rates of a segment depend on besides the run's constant parameters.
 struct OperatingState {
@@ -74,16 +85,37 @@ struct OperatingState {
   Operation op;  // starts_per_hour from the segment's starts and hours
   double oil_temperature = 0, oil_consumption = 0;
 };
+// A segment's starts per hour, as segment_rates sets it: the division only when there are starts (+0
+// starts give +0 either way: 0 / h = +0 for h > 0).
+double starts_per_hour(const Segment& s) {
+  if (bits(s.starts) == 0) return 0;
+  return s.hours > 0 ? s.starts / s.hours : 0;
+}
 // a against a segment's state, without copying the segment's fields into an OperatingState first
 // b's starts per hour is b_starts_per_hour (a segment holds its starts and hours instead). Zero when equal.
 std::uint64_t differ(const OperatingState& a, const Segment& b, double b_starts_per_hour) {
-  std::uint64_t d = differ(a.op.fuel_flow, b.operation.fuel_flow) | differ(a.op.electrical_power, b.operation.electrical_power) |
-                    differ(a.op.load, b.operation.load) | differ(a.op.starts_per_hour, b_starts_per_hour) |
-                    differ(a.oil_temperature, b.oil_temperature) | differ(a.oil_consumption, b.oil_consumption);
-  for (std::size_t i = 0; i < gas_count; ++i) d |= differ(a.fuel.x[i], b.fuel.x[i]);
+  // the mole fractions, fuel flow, power and load, the oil's temperature and consumption, the starts
+  constexpr std::size_t fractions_end = gas_count * sizeof(double), op_load_end = offsetof(Operation, air);
+  static_assert(offsetof(FuelGas, x) == 0 && op_load_end == 3 * sizeof(double), "the first group's words moved");
+  const std::uint64_t d = differ_words<0, fractions_end>(a.fuel, b.fuel) | differ_words<0, op_load_end>(a.op, b.operation) |
+                          differ(a.oil_temperature, b.oil_temperature) | differ(a.oil_consumption, b.oil_consumption) |
+                          differ(a.op.starts_per_hour, b_starts_per_hour);
   if (d != 0) return d;
-  return differ_rest(a.op, b.operation) | differ_rest(a.fuel, b.fuel);
+  // the traces and reference state; air … exhaust pressure; jacket water at start, NOx value; its O2 figures; the enums
+  return differ_words<fractions_end, fuel_doubles_end>(a.fuel, b.fuel) | differ_words<op_load_end, op_starts>(a.op, b.operation) |
+         differ_words<op_starts + sizeof(double), op_nox + offsetof(NoxEmission, unit)>(a.op, b.operation) |
+         differ_words<op_nox + offsetof(NoxEmission, o2_reference), sizeof(Operation)>(a.op, b.operation) |
+         static_cast<std::uint64_t>(a.op.nox.unit != b.operation.nox.unit) |
+         static_cast<std::uint64_t>(a.fuel.combustion != b.fuel.combustion);
 }
+
+OperatingState operating_state(const Segment& s, double starts_per_hour) {
+  OperatingState k;
+  k.fuel = s.fuel, k.op = s.operation, k.op.starts_per_hour = starts_per_hour;
+  k.oil_temperature = s.oil_temperature, k.oil_consumption = s.oil_consumption;
+  return k;
+}
+
 // A hash of the fields that usually vary from row to row; it only picks the set, the comparison decides.
 // Their bit patterns summed (one add each: the miss path of an all-distinct record pays for it), then
 // mixed (the 64-bit finaliser of MurmurHash3) so that the top bits depend on every field.
@@ -116,7 +148,7 @@ class RateCache {
   double oil_consumption() const { return entries_[last_].key.oil_consumption; }
 
   const OilRates& of(const Segment& s, const OilCharge& charge, const ModelParameters& model) {
-    const double starts_per_hour = s.hours > 0 ? s.starts / s.hours : 0;
+    const double starts_per_hour = acidload::starts_per_hour(s);
     if (!entries_.empty() && differ(entries_[last_].key, s, starts_per_hour) == 0) return entries_[last_].rates;  // a repeat
     const std::uint64_t h = hash(s, starts_per_hour);
     const std::size_t set = static_cast<std::size_t>(h >> 59) % sets;  // the hash's top bits
@@ -139,8 +171,7 @@ class RateCache {
     t.hash[w] = h, t.used[w] = clock_;
     last_ = static_cast<std::size_t>(t.entry[w]);
     Entry& e = entries_[last_];
-    e.key.fuel = s.fuel, e.key.op = s.operation, e.key.op.starts_per_hour = starts_per_hour;
-    e.key.oil_temperature = s.oil_temperature, e.key.oil_consumption = s.oil_consumption;
+    e.key = operating_state(s, starts_per_hour);
     e.transfer = acidload::transfer(e.key.fuel, e.key.op, model.transfer, false);
     e.rates = oil_rates(e.transfer, model.oxidation, s.oil_temperature, s.oil_consumption, charge.continuous_makeup, false);
     return e.rates;
@@ -203,20 +234,13 @@ struct Runner {
     oil_h = oil_hours;
   }
 
+  // Every field given at once (emplace_back() and then each field would store every field twice: zero, value)
   void record_point() {
     since_output = 0;
-    TrajectoryPoint& p = result.trajectory.emplace_back();  // filled in place
-    p.engine_hours = engine_h;
-    p.oil_hours = oil_h;
-    p.calendar_hours = calendar_h;
-    p.starts = starts;
-    p.charge = charge_index;
-    p.state = state;
-    p.tbn_d2896 = tbn(state, charge.oil, BaseNumberMethod::d2896);
-    p.tbn_d4739 = tbn(state, charge.oil, BaseNumberMethod::d4739);
-    p.tan = acidload::tan(state, charge.oil);
-    p.san = san(state);
-    p.viscosity_rise = acidload::viscosity_rise(state, charge.oil);
+    const OilProperties& oil = charge.oil;
+    result.trajectory.push_back(TrajectoryPoint{engine_h, oil_h, calendar_h, starts, charge_index, state,
+                                                tbn(state, oil, BaseNumberMethod::d2896), tbn(state, oil, BaseNumberMethod::d4739),
+                                                acidload::tan(state, oil), san(state), acidload::viscosity_rise(state, oil)});
   }
 
   void close_charge() {
@@ -228,10 +252,15 @@ struct Runner {
   }
 
   // Marks limits reached at the end of a step of length dt from `before`; locates each exactly. `t` is the
-  // step's transfer, for the charge averages up to the first limit.
-  void check_limits(const OilState& before, const OilRates& r, double dt, const Transfer& t) {
+  // step's transfer, for the charge averages up to the first limit. Inline: the mask is the common step's
+  // only work; the locating is out of line.
+  [[gnu::always_inline]] inline void check_limits(const OilState& before, const OilRates& r, double dt, const Transfer& t) {
     const std::uint32_t now = reached_limits(limits, state, oil_h) & watched_mask;
-    if (now == 0) return;  // no watched limit reached: nothing to locate, the first limit still unknown (the common step)
+    if (now != 0) locate_limits(now, before, r, dt, t);  // else nothing to locate, the first limit still unknown (the common step)
+  }
+
+  // The limits of `now` (watched, reached at the end of this step) located, and the first limit's readings.
+  [[gnu::noinline]] void locate_limits(std::uint32_t now, const OilState& before, const OilRates& r, double dt, const Transfer& t) {
     const bool had_first = current().first.has_value();
     ChargeSummary& c = current();
     std::size_t kept = 0;  // the watched limits not reached in this step, in their order
@@ -334,11 +363,12 @@ struct Runner {
            state.strong_acid == 0;
   }
 
-  void run_segment(const Segment& s, bool first) {
+  // inline into each run_record instance: the call's prologue and epilogue cost more than the loop's own bookkeeping
+  [[gnu::always_inline]] inline void run_segment(const Segment& s, bool first) {
     if (!finite_non_negative(s.hours)) check::non_negative("segment.hours", s.hours);
     if (!finite_non_negative(s.starts)) check::non_negative("segment.starts", s.starts);
     for (const OilEvent& e : s.events) apply(e);
-    const OilRates r = cache.of(s, charge, model);
+    const OilRates& r = cache.of(s, charge, model);  // the cache's entry, not a copy: valid until the next segment's lookup
     if (first) result.first_transfer = cache.transfer(), result.first_rates = r;
     const Transfer& t = cache.transfer();  // this segment's, for the charge averages
     any_segment = true;
@@ -346,8 +376,9 @@ struct Runner {
     if (cal < s.hours) throw InputError("segment.calendar-hours", format_value(cal), "at least the running hours " + format_value(s.hours));
     double done = 0;
     while (done < s.hours) {
-      double dt = s.hours - done;
-      if (opt.detection_step > 0) dt = std::fmin(dt, opt.detection_step);
+      double dt = s.hours - done;  // > 0 (done < s.hours, both finite)
+      // fmin of two positive numbers (not a call to libm's fmin, which must also handle NaN and zeros)
+      if (opt.detection_step > 0 && opt.detection_step < dt) dt = opt.detection_step;
       if (opt.output_interval > 0) dt = std::fmin(dt, std::fmax(opt.output_interval - since_output, 0.0));
       if (dt <= 0) dt = std::fmin(s.hours - done, opt.output_interval);
       const OilState before = state;
@@ -370,8 +401,13 @@ struct Runner {
       done += dt;
       engine_h += dt;
       oil_h += dt;
-      calendar_h += dt / s.hours * cal;
-      starts += dt / s.hours * s.starts;
+      if (dt == s.hours) {  // the whole segment in one step: dt / s.hours is exactly 1, so the same sums
+        calendar_h += cal;
+        starts += s.starts;
+      } else {
+        calendar_h += dt / s.hours * cal;
+        starts += dt / s.hours * s.starts;
+      }
       check_limits(before, r, dt, t);
       if (counting && !current().first) {  // the whole step counts toward the charge averages
         fuel_s += t.sulfur_flow * dt;
@@ -390,11 +426,18 @@ struct Runner {
 
 }  // namespace
 
+namespace detail {
+bool same_operating_state(const Segment& a, const Segment& b) {
+  return differ(operating_state(a, acidload::starts_per_hour(a)), b, acidload::starts_per_hour(b)) == 0;
+}
+}  // namespace detail
+
 namespace {
 // simulate() with room for `points` trajectory points made at once where the record's length is
 // known: a point per segment grown by doubling cost more than the oil balance itself (copies and
 // first touches of the new blocks).
-RunResult run_record(const OilCharge& charge, const ModelParameters& model, const SegmentSource& next,
+template <class Next>  // a held record's own loop, or a SegmentSource (no std::function call per segment for the former)
+RunResult run_record(const OilCharge& charge, const ModelParameters& model, Next&& next,
                      const RunOptions& options, const std::optional<OilState>& start, double start_oil_hours,
                      std::size_t points) {
   validate(charge.oil);

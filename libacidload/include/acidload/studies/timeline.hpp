@@ -126,4 +126,11 @@ OilRates segment_rates(const Segment& s, const OilCharge& charge, const ModelPar
 //! does not need to decide that): a record's check of every row's operation.
 void check_segment(const Segment& s, const OilCharge& charge, const ModelParameters& model);
 
+namespace detail {
+//! Whether simulate's cache of rates takes b's operating state for a's (and reuses a's transfer and
+//! rates for it): every field segment_rates reads, each double by its bits, the starts per hour from
+//! the starts and hours. For the tests.
+bool same_operating_state(const Segment& a, const Segment& b);
+}  // namespace detail
+
 }  // namespace acidload
