@@ -1,5 +1,6 @@
 #include "acidload/core/fuel.hpp"
 
+#include <array>
 #include <cstdio>
 #include <cmath>
 
@@ -12,8 +13,17 @@ namespace acidload {
 double FuelGas::sulfur() const { return x[static_cast<std::size_t>(Gas::H2S)] + other_sulfur; }
 
 double lower_heating_value(const FuelGas& f) {
+  // H_i of every gas at the four references, made once from net_molar_heating_value (the same values:
+  // a record resolves a gas, several passes each, for every new row)
+  static const auto H = [] {
+    std::array<std::array<double, gas_count>, 4> t{};
+    for (int r = 0; r < 4; ++r)
+      for (Gas g : all_gases) t[r][static_cast<std::size_t>(g)] = net_molar_heating_value(g, static_cast<CombustionReference>(r));
+    return t;
+  }();
+  const auto& Hr = H[static_cast<std::size_t>(f.combustion)];
   double h = 0;
-  for (Gas g : all_gases) h += f[g] * net_molar_heating_value(g, f.combustion);  // Σ x_i H_i
+  for (Gas g : all_gases) h += f[g] * Hr[static_cast<std::size_t>(g)];  // Σ x_i H_i
   return h;
 }
 
@@ -69,8 +79,12 @@ FuelGas resolve(const FuelAnalysis& a) {
   f.combustion = a.combustion;
   f.x[static_cast<std::size_t>(Gas::H2O)] = a.water_fraction;
   double h2s = 0;  // wet mole fraction of H2S
-  std::vector<const Formula*> halocarbon_formulas;  // looked up in the first pass only, where they always were
-  halocarbon_formulas.reserve(a.halocarbons.size());
+  struct Compound {
+    const Formula* formula;
+    double molar_mass;
+  };
+  std::vector<Compound> compounds;  // looked up (and their molar masses summed) in the first pass only
+  compounds.reserve(a.halocarbons.size());
   for (int pass = 0; pass < 50; ++pass) {
     const double scale = (1.0 - a.water_fraction - h2s) / sum_main;
     for (Gas g : main_species) f.x[static_cast<std::size_t>(g)] = a.main[static_cast<std::size_t>(g)] * scale;
@@ -82,9 +96,12 @@ FuelGas resolve(const FuelAnalysis& a) {
     f.fluorine = to_wet_mole_fraction(a.fluorine, atomic_weight(Element::F) * 1e-3, c);
     for (std::size_t k = 0; k < a.halocarbons.size(); ++k) {  // per compound, by formula: x_Cl += x_i n_Cl,i
       const auto& h = a.halocarbons[k];
-      if (pass == 0) halocarbon_formulas.push_back(&halocarbon_formula(find_halocarbon(h.compound)));
-      const Formula& fm = *halocarbon_formulas[k];
-      const double xc = to_wet_mole_fraction(h.amount, molar_mass(fm), c);
+      if (pass == 0) {
+        const Formula& f0 = halocarbon_formula(find_halocarbon(h.compound));
+        compounds.push_back({&f0, molar_mass(f0)});
+      }
+      const Formula& fm = *compounds[k].formula;
+      const double xc = to_wet_mole_fraction(h.amount, compounds[k].molar_mass, c);
       f.chlorine += xc * fm[Element::Cl];
       f.fluorine += xc * fm[Element::F];
     }
