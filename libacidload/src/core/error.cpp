@@ -74,35 +74,17 @@ std::string format_value(double v) {
   return r.ec == std::errc() ? std::string(buf, r.ptr) : std::to_string(v);
 }
 
-namespace check {
-double finite(const char* field, double v) {
-  if (!std::isfinite(v)) throw InputError(field, format_value(v), "a finite number");
-  return v;
+namespace check::detail {
+void refuse_finite(const char* field, double v) { throw InputError(field, format_value(v), "a finite number"); }
+void refuse_non_negative(const char* field, double v) { throw InputError(field, format_value(v), "a finite number >= 0"); }
+void refuse_positive(const char* field, double v) { throw InputError(field, format_value(v), "a finite number > 0"); }
+void refuse_fraction(const char* field, double v) { throw InputError(field, format_value(v), "a fraction from 0 to 1"); }
+void refuse_in_range(const char* field, double v, double lo, double hi, const char* unit) {
+  throw InputError(field, format_value(v), "a value from " + format_value(lo) + " to " + format_value(hi) + " " + unit);
 }
-double non_negative(const char* field, double v) {
-  if (!(std::isfinite(v) && v >= 0)) throw InputError(field, format_value(v), "a finite number >= 0");
-  return v;
+void refuse_temperature(const char* field, double v) {
+  throw InputError(field, format_value(v), "a temperature above absolute zero (0 K)");
 }
-double positive(const char* field, double v) {
-  if (!(std::isfinite(v) && v > 0)) throw InputError(field, format_value(v), "a finite number > 0");
-  return v;
-}
-double fraction(const char* field, double v) {
-  if (!(std::isfinite(v) && v >= 0 && v <= 1))
-    throw InputError(field, format_value(v), "a fraction from 0 to 1");
-  return v;
-}
-double in_range(const char* field, double v, double lo, double hi, const char* unit) {
-  if (!(std::isfinite(v) && v >= lo && v <= hi))
-    throw InputError(field, format_value(v),
-                     "a value from " + format_value(lo) + " to " + format_value(hi) + " " + unit);
-  return v;
-}
-double temperature(const char* field, double v) {
-  if (!(std::isfinite(v) && v > 0))
-    throw InputError(field, format_value(v), "a temperature above absolute zero (0 K)");
-  return v;
-}
-}  // namespace check
+}  // namespace check::detail
 
 }  // namespace acidload

@@ -6,6 +6,7 @@
 //   ├── acidload::NoAnswerError     an inverse question with no answer in the given range
 //   └── acidload::FitRefusedError   a calibration that the data cannot identify, with the reason
 #include <stdexcept>
+#include <cmath>
 #include <string>
 
 namespace acidload {
@@ -60,18 +61,47 @@ class FitRefusedError : public Error {
 std::string format_value(double v);
 
 namespace check {
+// The tests inline (they run for every field of every segment); the refusals, which build the
+// message, out of line in error.cpp.
+namespace detail {
+[[noreturn]] void refuse_finite(const char* field, double v);
+[[noreturn]] void refuse_non_negative(const char* field, double v);
+[[noreturn]] void refuse_positive(const char* field, double v);
+[[noreturn]] void refuse_fraction(const char* field, double v);
+[[noreturn]] void refuse_in_range(const char* field, double v, double lo, double hi, const char* unit);
+[[noreturn]] void refuse_temperature(const char* field, double v);
+inline bool finite(double v) { return std::isfinite(v); }
+}  // namespace detail
 //! Throws InputError unless v is finite. Returns v.
-double finite(const char* field, double v);
+inline double finite(const char* field, double v) {
+  if (!detail::finite(v)) detail::refuse_finite(field, v);
+  return v;
+}
 //! Throws unless v is finite and v >= 0.
-double non_negative(const char* field, double v);
+inline double non_negative(const char* field, double v) {
+  if (!(detail::finite(v) && v >= 0)) detail::refuse_non_negative(field, v);
+  return v;
+}
 //! Throws unless v is finite and v > 0.
-double positive(const char* field, double v);
+inline double positive(const char* field, double v) {
+  if (!(detail::finite(v) && v > 0)) detail::refuse_positive(field, v);
+  return v;
+}
 //! Throws unless 0 <= v <= 1 (a fraction or share).
-double fraction(const char* field, double v);
+inline double fraction(const char* field, double v) {
+  if (!(v >= 0 && v <= 1)) detail::refuse_fraction(field, v);  // within [0, 1]: finite
+  return v;
+}
 //! Throws unless lo <= v <= hi; unit names the unit of lo and hi in the message.
-double in_range(const char* field, double v, double lo, double hi, const char* unit);
+inline double in_range(const char* field, double v, double lo, double hi, const char* unit) {
+  if (!(detail::finite(v) && v >= lo && v <= hi)) detail::refuse_in_range(field, v, lo, hi, unit);
+  return v;
+}
 //! Throws unless v is a thermodynamic temperature above absolute zero [K].
-double temperature(const char* field, double v);
+inline double temperature(const char* field, double v) {
+  if (!(detail::finite(v) && v > 0)) detail::refuse_temperature(field, v);
+  return v;
+}
 }  // namespace check
 
 }  // namespace acidload
