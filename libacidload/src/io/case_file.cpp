@@ -4,6 +4,7 @@
 #include "acidload/io/case_file.hpp"
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <cstdint>
 #include <iterator>
@@ -232,6 +233,27 @@ struct FastRows {
   std::vector<Powered> powered = std::vector<Powered>(64);
   std::uint64_t gas = 0;  //!< the gas of the segment last made by the fast path (0: unknown)
   unsigned flip = 0;
+  //! Rows made before, by their values: within one generation (the stretch of rows since the last
+  //! row the generic reader made, or since the record's start) a fast row's segment, and what it
+  //! leaves in the row context, depend on its values alone — every column is set by every fast row
+  //! and everything else is carried unchanged from the segment the generation started from — so a
+  //! row whose values have the same bits as one made before in the same generation gets that one's
+  //! segment (the same bits the fast path would compute again) and, when that state passed the
+  //! operation checks, is not checked again. Two ways of 128 slots; a miss makes the row.
+  struct Made {
+    std::uint64_t generation = 0;  //!< 0: empty
+    std::array<double, 16> values{};
+    Segment segment;
+    Concentration conc[4];  //!< the context's H2S, other sulfur, chlorine and fluorine after it
+    double power = 0;       //!< the context's power after it
+    std::uint64_t gas = 0;  //!< `gas` after it
+    bool checked = false;   //!< its state passed the operation checks
+  };
+  std::vector<Made> made;
+  std::uint64_t generation = 1;
+  Made* last_made = nullptr;  //!< the entry of the row made last (null: the row was not kept)
+  unsigned made_flip = 0;
+  Segment scratch;  //!< a row being made
 };
 
 FastRows fast_rows(const NamedColumns& cols, const EngineInputs& eng) {
@@ -284,28 +306,89 @@ FastRows fast_rows(const NamedColumns& cols, const EngineInputs& eng) {
   // on every row, by the generic reader
   if (!hours || (power && load) || ((power || load) && eng.rating.fixed_fuel_flow > 0)) return f;
   f.values.resize(f.cols.size());
+  f.made.resize(256);
   f.usable = true;
   return f;
 }
 
-// Row `cells` as the segment after `prev` (next_segment's result), or false (nothing changed) when
-// the fast path leaves the row to the generic reader.
-bool fast_segment(FastRows& f, const std::vector<std::string>& cells, const Segment& prev, RowContext& x,
-                  ResolvedGases& gases, Segment& s) {
-  using F = FastColumn::Field;
+// A cell's number `v` (as written) in the column's core unit, checked against its key's range (a
+// contaminant: not negative); false where the generic reader would refuse it.
+bool column_value(const FastColumn& fc, double& v) {
+  if (fc.key) return detail::converted(fc.key->kind, v, fc.factor, fc.offset, v) && detail::snapped_in_range(*fc.key, v);
+  if (v < 0) return false;
+  v *= fc.factor;
+  return true;
+}
+
+// The row's cells as the fast path's values (f.values); false when it leaves the row to the generic reader.
+bool cell_values(FastRows& f, const std::vector<std::string>& cells) {
   if (!f.usable || cells.size() != f.cols.size()) return false;
   for (std::size_t c = 0; c < cells.size(); ++c) {
-    const FastColumn& fc = f.cols[c];
     double v = 0;
-    if (!detail::plain_number(cells[c], v)) return false;
-    if (fc.key) {
-      if (!detail::converted(fc.key->kind, v, fc.factor, fc.offset, v) || !detail::snapped_in_range(*fc.key, v)) return false;
-    } else {
-      if (v < 0) return false;
-      v *= fc.factor;
-    }
+    if (!detail::plain_number(cells[c], v) || !column_value(f.cols[c], v)) return false;
     f.values[c] = v;
   }
+  return true;
+}
+
+// One cell of a plain line, from `p` to the next comma or the line's end (where `p` is left): its
+// number as detail::plain_number reads it. A plain decimal of at most 15 digits ("85.0", "-3",
+// "+12.75") is read here in one pass: its digits as an integer m (exact: below 2^53) over 10^f
+// (exact for f <= 22), one IEEE division, rounded correctly as from_chars rounds, so the same bits;
+// any other cell (an exponent, more digits, no digit before or after the point, anything but a
+// number) goes to plain_number, which reads it or refuses it as the generic reader does.
+bool cell_number(const char*& p, const char* e, double& out) {
+  static const double tens[16] = {1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15};
+  const char* const start = p;
+  const char* q = p;
+  const bool negative = q < e && *q == '-';
+  if (q < e && (*q == '-' || *q == '+')) ++q;
+  std::uint64_t m = 0;
+  const char* const first = q;
+  while (q < e && static_cast<unsigned>(*q - '0') < 10) m = m * 10 + static_cast<unsigned>(*q++ - '0');
+  bool plain = q > first;
+  std::ptrdiff_t fraction = 0;
+  if (plain && q < e && *q == '.') {
+    const char* const point = ++q;
+    while (q < e && static_cast<unsigned>(*q - '0') < 10) m = m * 10 + static_cast<unsigned>(*q++ - '0');
+    fraction = q - point;
+    plain = fraction > 0;
+  }
+  if (plain && (q == e || *q == ',') && (q - first) - (fraction > 0 ? 1 : 0) <= 15) {
+    const double v = static_cast<double>(m) / tens[fraction];
+    out = m == 0 ? 0.0 : negative ? -v : v;  // no negative zero, as plain_number
+    p = q;
+    return true;
+  }
+  const void* comma = std::memchr(start, ',', static_cast<std::size_t>(e - start));
+  p = comma ? static_cast<const char*>(comma) : e;
+  return detail::plain_number(std::string_view(start, static_cast<std::size_t>(p - start)), out);
+}
+
+// A plain line's cells as the fast path's values (f.values), read straight from its bytes; false
+// when it leaves the row to the parser and the generic reader (a cell that is no plain number,
+// quotes, spaces, the wrong number of cells, a value out of range).
+bool line_values(FastRows& f, std::string_view line) {
+  const char* p = line.data();
+  const char* const e = p + line.size();
+  const std::size_t n = f.cols.size();
+  for (std::size_t c = 0; c < n; ++c) {
+    if (c > 0) {
+      if (p == e) return false;  // fewer cells than the header has
+      ++p;                       // the comma
+    }
+    double v = 0;
+    if (!cell_number(p, e, v) || !column_value(f.cols[c], v)) return false;
+    f.values[c] = v;
+  }
+  return p == e;  // else more cells than the header has
+}
+
+// The row of values f.values as the segment after `prev`, or false (nothing changed) when the fast
+// path leaves the row to the generic reader.
+bool fast_segment(FastRows& f, const Segment& prev, RowContext& x, ResolvedGases& gases, Segment& s) {
+  using F = FastColumn::Field;
+  const std::size_t n = f.cols.size();
   // the row's changes, in read_segment's order, on copies of what a refusal must leave as it was
   Concentration conc[4] = {x.fuel.h2s, x.fuel.other_sulfur, x.fuel.chlorine, x.fuel.fluorine};
   double power = x.power;
@@ -314,7 +397,7 @@ bool fast_segment(FastRows& f, const std::vector<std::string>& cells, const Segm
   s.events.clear();
   s.calendar_hours = -1;
   s.starts = 0;
-  for (std::size_t c = 0; c < cells.size(); ++c) {
+  for (std::size_t c = 0; c < n; ++c) {
     const FastColumn& fc = f.cols[c];
     const double v = f.values[c];
     switch (fc.field) {
@@ -377,7 +460,7 @@ bool fast_segment(FastRows& f, const std::vector<std::string>& cells, const Segm
     return false;
   }
   x.power = power;
-  for (std::size_t c = 0; c < cells.size(); ++c) {
+  for (std::size_t c = 0; c < n; ++c) {
     const double v = f.values[c];
     switch (f.cols[c].field) {
       case F::jacket_water_out: s.operation.jacket_water_out = v; break;
@@ -389,6 +472,48 @@ bool fast_segment(FastRows& f, const std::vector<std::string>& cells, const Segm
     }
   }
   if (!starts_given && x.eng.start_every > 0) s.starts = s.hours / x.eng.start_every;
+  return true;
+}
+
+// The row of values f.values as the segment after `prev` (into `s`, which may be `prev` itself):
+// the segment made before from the same values in this generation, else fast_segment's (then kept).
+// False, nothing changed, when the fast path leaves the row to the generic reader.
+bool made_segment(FastRows& f, const Segment& prev, RowContext& x, ResolvedGases& gases, Segment& s) {
+  const std::size_t n = f.cols.size();
+  std::uint64_t h = f.generation * 0x9E3779B97F4A7C15ull;
+  for (std::size_t c = 0; c < n; ++c) {
+    std::uint64_t w;
+    std::memcpy(&w, &f.values[c], sizeof w);
+    h = (h ^ w) * 0xBF58476D1CE4E5B9ull;
+    h ^= h >> 31;
+  }
+  h = (h ^ (h >> 30)) * 0x94D049BB133111EBull;  // the splitmix64 finaliser: every bit to every bit
+  const std::size_t a = static_cast<std::size_t>((h ^ (h >> 29)) % f.made.size()) & ~std::size_t{1};
+  for (std::size_t k = a; k < a + 2; ++k) {
+    FastRows::Made& e = f.made[k];
+    if (e.generation == f.generation && std::memcmp(e.values.data(), f.values.data(), n * sizeof(double)) == 0) {
+      s = e.segment;
+      x.fuel.h2s = e.conc[0], x.fuel.other_sulfur = e.conc[1], x.fuel.chlorine = e.conc[2], x.fuel.fluorine = e.conc[3];
+      x.power = e.power;
+      f.gas = e.gas;
+      f.last_made = &e;
+      return true;
+    }
+  }
+  f.last_made = nullptr;
+  if (!fast_segment(f, prev, x, gases, f.scratch)) return false;
+  FastRows::Made& e = f.made[f.made[a].generation != f.generation ? a
+                             : f.made[a + 1].generation != f.generation ? a + 1
+                                                                         : a + ((f.made_flip ^= 1u) & 1u)];
+  e.generation = f.generation;
+  std::copy(f.values.begin(), f.values.end(), e.values.begin());
+  e.segment = f.scratch;
+  e.conc[0] = x.fuel.h2s, e.conc[1] = x.fuel.other_sulfur, e.conc[2] = x.fuel.chlorine, e.conc[3] = x.fuel.fluorine;
+  e.power = x.power;
+  e.gas = f.gas;
+  e.checked = false;
+  f.last_made = &e;
+  s = f.scratch;
   return true;
 }
 
@@ -406,6 +531,16 @@ void forget_dropped_cells(const Reader& r, const Node& row) {
   }
 }
 
+// After a row the fast path made: the reader's `seen` as the generic reader leaves it.
+void fast_seen(const Reader& r, FastRows& f, Document& window) {
+  if (f.seen_set) return;
+  Node& row = window.root;  // every cell is set, so column c is the row node's entry c (room for them is reserved)
+  if (row.entries.size() < f.cols.size()) row.entries.resize(f.cols.size()), row.key_marks.resize(f.cols.size());
+  for (std::size_t c = 0; c < f.cols.size(); ++c)
+    if (f.cols[c].key) r.seen[f.cols[c].key->path] = &row.entries[c].second;
+  f.seen_set = true;
+}
+
 // The next segment from a CSV row: the fast path's when it takes the row, else the generic reader's
 // (the row filled into the window node and read by read_segment). The reader's `seen` is left as
 // the generic reader would leave it: its quantity keys pointing at the window's nodes of the row.
@@ -413,17 +548,13 @@ Segment csv_segment(const Reader& r, FastRows& f, Document& window, const NamedC
                     const std::vector<std::string>& cells, const std::vector<int>& columns, int line,
                     std::string_view text, const Segment& prev, RowContext& x, ResolvedGases& gases) {
   Segment s;
-  if (!detail::csv_generic_rows_only && fast_segment(f, cells, prev, x, gases, s)) {
-    if (!f.seen_set) {  // every cell is set, so column c is the row node's entry c (room for them is reserved)
-      Node& row = window.root;
-      if (row.entries.size() < f.cols.size()) row.entries.resize(f.cols.size()), row.key_marks.resize(f.cols.size());
-      for (std::size_t c = 0; c < f.cols.size(); ++c)
-        if (f.cols[c].key) r.seen[f.cols[c].key->path] = &row.entries[c].second;
-      f.seen_set = true;
-    }
+  if (!detail::csv_generic_rows_only && cell_values(f, cells) && made_segment(f, prev, x, gases, s)) {
+    fast_seen(r, f, window);
     return s;
   }
   f.seen_set = false;
+  f.last_made = nullptr;
+  ++f.generation;  // what the rows after carry from is the generic reader's
   f.gas = 0;  // the generic reader's gas is not known to the fast path's table of powers
   const std::size_t cells_before = window.root.entries.size();
   const Node& row = fill_row(window, cols, source, i, cells, columns, line, text);
@@ -431,19 +562,50 @@ Segment csv_segment(const Reader& r, FastRows& f, Document& window, const NamedC
   return next_segment(r, row, prev, x, gases);
 }
 
-// Streams the record's rows as segments to `take(i, segment)`, each after `prev` (updated).
+//! Takes segment i: `known_good` when its state is known to pass the operation checks; returns true
+//! when it is known to pass them now (checked, or known before), false when not (refused, or not checked).
+using SegmentTaker = std::function<bool(std::size_t, const Segment&, bool known_good)>;
+
+// Streams the record's rows as segments to `take`, each after `prev` (updated). A plain line goes
+// straight from its bytes to the fast path (line_values, made_segment: no cells made); any other
+// line, and any the fast path leaves, is read by the parser and made by csv_segment.
 void stream_rows(const Reader& r, CsvRecord& rec, Segment& prev, RowContext& x, ResolvedGases& gases,
-                 const std::function<void(std::size_t, const Segment&)>& take) {
+                 const SegmentTaker& take) {
   std::size_t i = 0;
   CsvTable header;
   FastRows fast = fast_rows(rec.cols, x.eng);
+  const auto taken = [&](std::size_t at) {
+    FastRows::Made* m = fast.last_made;
+    if (take(at, prev, m && m->checked) && m) m->checked = true;
+  };
   const detail::CsvRowSink sink = [&](const std::vector<std::string>& cells, const std::vector<int>& columns, int line,
                                       std::string_view text) {
     const std::size_t at = i++;
     prev = csv_segment(r, fast, *rec.window, rec.cols, rec.source, at, cells, columns, line, text, prev, x, gases);
-    take(at, prev);
+    taken(at);
   };
-  detail::stream_csv_file(rec.file, rec.facts, header, sink);
+  struct Plain {
+    const Reader& r;
+    CsvRecord& rec;
+    Segment& prev;
+    RowContext& x;
+    ResolvedGases& gases;
+    FastRows& fast;
+    std::size_t& i;
+    const decltype(taken)& took;
+  } plain{r, rec, prev, x, gases, fast, i, taken};
+  detail::CsvLineHook hook;
+  if (fast.usable && !detail::csv_generic_rows_only) {
+    hook.context = &plain;
+    hook.take = [](void* context, std::string_view line, int) {
+      Plain& p = *static_cast<Plain*>(context);
+      if (!line_values(p.fast, line) || !made_segment(p.fast, p.prev, p.x, p.gases, p.prev)) return false;
+      fast_seen(p.r, p.fast, *p.rec.window);
+      p.took(p.i++);
+      return true;
+    };
+  }
+  detail::stream_csv_file(rec.file, rec.facts, header, sink, false, hook);
 }
 
 // A CSV record read again for each run (EngineCase::streamed): rows made into segments exactly as
@@ -692,8 +854,10 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
   std::optional<std::size_t> bad_operation;  // the first segment whose operation is refused
   std::exception_ptr bad_operation_error;
   unsigned flip = 0;  // which of a full slot pair a new state replaces, in turn
-  const auto check_operation = [&](std::size_t i, const Segment& s) {
-    if (bad_operation) return;
+  // true when the state is known to pass (checked now, or before), false when refused or not checked
+  const auto check_operation = [&](std::size_t i, const Segment& s, bool known_good) {
+    if (bad_operation) return false;
+    if (known_good) return true;
     CheckedState* slot = nullptr;
     if (!checked.empty()) {
       const CheckedState k = state_of(s);
@@ -720,7 +884,7 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
       const auto same = [&](const CheckedState& c) {
         return c.used && std::memcmp(static_cast<const void*>(&c), static_cast<const void*>(&k), sizeof k) == 0;
       };
-      if (same(checked[a]) || same(checked[b2])) return;
+      if (same(checked[a]) || same(checked[b2])) return true;
       slot = !checked[a].used ? &checked[a] : !checked[b2].used ? &checked[b2] : &checked[(flip ^= 1) ? a : b2];
     }
     try {
@@ -728,12 +892,13 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
       segment_rates(s, c.charge, c.model, &t);
     } catch (const InputError&) {
       bad_operation = i, bad_operation_error = std::current_exception();
-      return;
+      return false;
     } catch (const NotModelledError&) {
       bad_operation = i, bad_operation_error = std::current_exception();
-      return;
+      return false;
     }
     if (slot) *slot = state_of(s);
+    return true;
   };
   double hours = 0, over_hours = 0;
   std::optional<std::size_t> over;  // the row where the hours pass the cap
@@ -743,18 +908,19 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
     c.record = {base};
     hours = base.hours;
     if (hours > max_simulated_hours) over = 0, over_hours = hours;
-    check_operation(0, base);
+    check_operation(0, base, false);
   } else {
     RowContext x{eng, c.charge, fuel, eng.power};
     const RowContext before = x;
     Segment prev = base, first;
     ResolvedGases gases;
-    const auto take = [&](std::size_t i, const Segment& s) {
+    const auto take = [&](std::size_t i, const Segment& s, bool known_good) {
       hours += s.hours;
       if (hours > max_simulated_hours && !over) over = i, over_hours = hours;
-      check_operation(i, s);
+      const bool good = check_operation(i, s, known_good);
       if (i == 0) first = s;
       if (!streamed) c.record.push_back(s);
+      return good;
     };
     if (from_csv) {
       if (!streamed) c.record.reserve(csv.rows);
@@ -762,7 +928,7 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
     } else {
       for (std::size_t i = 0; i < rows.size(); ++i) {
         prev = next_segment(r, rows[i], prev, x, gases);
-        take(i, prev);
+        take(i, prev, false);
       }
     }
     if (streamed) {
