@@ -220,7 +220,8 @@ struct FastColumn {
 struct FastRows {
   bool usable = false;
   std::vector<FastColumn> cols;
-  std::vector<double> values;  //!< per column, the row being read
+  std::vector<double> values;  //!< per column, the row being read: its numbers as written
+  std::vector<double> core;    //!< and in core units, range-checked
   bool seen_set = false;       //!< the reader's `seen` points where the last fast row's cells would be
   //! set_power's outcome (the four fields it sets, studies/operation.cpp) for a gas and a power: the
   //! gas by its entry in the record's ResolvedGases (its `age`, never reused), 0 for a gas not known
@@ -306,6 +307,7 @@ FastRows fast_rows(const NamedColumns& cols, const EngineInputs& eng) {
   // on every row, by the generic reader
   if (!hours || (power && load) || ((power || load) && eng.rating.fixed_fuel_flow > 0)) return f;
   f.values.resize(f.cols.size());
+  f.core.resize(f.cols.size());
   f.made.resize(256);
   f.usable = true;
   return f;
@@ -320,14 +322,11 @@ bool column_value(const FastColumn& fc, double& v) {
   return true;
 }
 
-// The row's cells as the fast path's values (f.values); false when it leaves the row to the generic reader.
+// The row's cells as the fast path's numbers (f.values); false when it leaves the row to the generic reader.
 bool cell_values(FastRows& f, const std::vector<std::string>& cells) {
   if (!f.usable || cells.size() != f.cols.size()) return false;
-  for (std::size_t c = 0; c < cells.size(); ++c) {
-    double v = 0;
-    if (!detail::plain_number(cells[c], v) || !column_value(f.cols[c], v)) return false;
-    f.values[c] = v;
-  }
+  for (std::size_t c = 0; c < cells.size(); ++c)
+    if (!detail::plain_number(cells[c], f.values[c])) return false;
   return true;
 }
 
@@ -365,9 +364,9 @@ bool cell_number(const char*& p, const char* e, double& out) {
   return detail::plain_number(std::string_view(start, static_cast<std::size_t>(p - start)), out);
 }
 
-// A plain line's cells as the fast path's values (f.values), read straight from its bytes; false
+// A plain line's cells as the fast path's numbers (f.values), read straight from its bytes; false
 // when it leaves the row to the parser and the generic reader (a cell that is no plain number,
-// quotes, spaces, the wrong number of cells, a value out of range).
+// quotes, spaces, the wrong number of cells).
 bool line_values(FastRows& f, std::string_view line) {
   const char* p = line.data();
   const char* const e = p + line.size();
@@ -377,18 +376,20 @@ bool line_values(FastRows& f, std::string_view line) {
       if (p == e) return false;  // fewer cells than the header has
       ++p;                       // the comma
     }
-    double v = 0;
-    if (!cell_number(p, e, v) || !column_value(f.cols[c], v)) return false;
-    f.values[c] = v;
+    if (!cell_number(p, e, f.values[c])) return false;
   }
   return p == e;  // else more cells than the header has
 }
 
-// The row of values f.values as the segment after `prev`, or false (nothing changed) when the fast
+// The row of numbers f.values as the segment after `prev`, or false (nothing changed) when the fast
 // path leaves the row to the generic reader.
 bool fast_segment(FastRows& f, const Segment& prev, RowContext& x, ResolvedGases& gases, Segment& s) {
   using F = FastColumn::Field;
   const std::size_t n = f.cols.size();
+  for (std::size_t c = 0; c < n; ++c) {
+    f.core[c] = f.values[c];
+    if (!column_value(f.cols[c], f.core[c])) return false;
+  }
   // the row's changes, in read_segment's order, on copies of what a refusal must leave as it was
   Concentration conc[4] = {x.fuel.h2s, x.fuel.other_sulfur, x.fuel.chlorine, x.fuel.fluorine};
   double power = x.power;
@@ -399,7 +400,7 @@ bool fast_segment(FastRows& f, const Segment& prev, RowContext& x, ResolvedGases
   s.starts = 0;
   for (std::size_t c = 0; c < n; ++c) {
     const FastColumn& fc = f.cols[c];
-    const double v = f.values[c];
+    const double v = f.core[c];
     switch (fc.field) {
       case F::hours: s.hours = v; break;
       case F::calendar_hours: s.calendar_hours = v; break;
@@ -461,7 +462,7 @@ bool fast_segment(FastRows& f, const Segment& prev, RowContext& x, ResolvedGases
   }
   x.power = power;
   for (std::size_t c = 0; c < n; ++c) {
-    const double v = f.values[c];
+    const double v = f.core[c];
     switch (f.cols[c].field) {
       case F::jacket_water_out: s.operation.jacket_water_out = v; break;
       case F::oil_temperature: s.oil_temperature = v; break;
@@ -475,10 +476,10 @@ bool fast_segment(FastRows& f, const Segment& prev, RowContext& x, ResolvedGases
   return true;
 }
 
-// The row of values f.values as the segment after `prev` (into `s`, which may be `prev` itself):
-// the segment made before from the same values in this generation, else fast_segment's (then kept).
-// False, nothing changed, when the fast path leaves the row to the generic reader.
-bool made_segment(FastRows& f, const Segment& prev, RowContext& x, ResolvedGases& gases, Segment& s) {
+// Rows made before (FastRows::Made): the entry made from the numbers f.values in this generation,
+// with what it leaves in the row context restored, or null, with `slot` where a new one would go.
+// The numbers as written are the key: their conversion and range checks are a function of them.
+FastRows::Made* made_before(FastRows& f, RowContext& x, std::size_t& slot) {
   const std::size_t n = f.cols.size();
   std::uint64_t h = f.generation * 0x9E3779B97F4A7C15ull;
   for (std::size_t c = 0; c < n; ++c) {
@@ -488,23 +489,28 @@ bool made_segment(FastRows& f, const Segment& prev, RowContext& x, ResolvedGases
     h ^= h >> 31;
   }
   h = (h ^ (h >> 30)) * 0x94D049BB133111EBull;  // the splitmix64 finaliser: every bit to every bit
-  const std::size_t a = static_cast<std::size_t>((h ^ (h >> 29)) % f.made.size()) & ~std::size_t{1};
-  for (std::size_t k = a; k < a + 2; ++k) {
+  slot = static_cast<std::size_t>((h ^ (h >> 29)) % f.made.size()) & ~std::size_t{1};
+  for (std::size_t k = slot; k < slot + 2; ++k) {
     FastRows::Made& e = f.made[k];
     if (e.generation == f.generation && std::memcmp(e.values.data(), f.values.data(), n * sizeof(double)) == 0) {
-      s = e.segment;
       x.fuel.h2s = e.conc[0], x.fuel.other_sulfur = e.conc[1], x.fuel.chlorine = e.conc[2], x.fuel.fluorine = e.conc[3];
       x.power = e.power;
       f.gas = e.gas;
       f.last_made = &e;
-      return true;
+      return &e;
     }
   }
   f.last_made = nullptr;
-  if (!fast_segment(f, prev, x, gases, f.scratch)) return false;
-  FastRows::Made& e = f.made[f.made[a].generation != f.generation ? a
-                             : f.made[a + 1].generation != f.generation ? a + 1
-                                                                         : a + ((f.made_flip ^= 1u) & 1u)];
+  return nullptr;
+}
+
+// The row of numbers f.values made by fast_segment after `prev` and kept at slot pair `slot`: its
+// entry, or null (nothing changed) when the fast path leaves the row to the generic reader.
+FastRows::Made* make_segment(FastRows& f, std::size_t slot, const Segment& prev, RowContext& x, ResolvedGases& gases) {
+  if (!fast_segment(f, prev, x, gases, f.scratch)) return nullptr;
+  FastRows::Made& e = f.made[f.made[slot].generation != f.generation       ? slot
+                             : f.made[slot + 1].generation != f.generation ? slot + 1
+                                                                           : slot + ((f.made_flip ^= 1u) & 1u)];
   e.generation = f.generation;
   std::copy(f.values.begin(), f.values.end(), e.values.begin());
   e.segment = f.scratch;
@@ -513,7 +519,17 @@ bool made_segment(FastRows& f, const Segment& prev, RowContext& x, ResolvedGases
   e.gas = f.gas;
   e.checked = false;
   f.last_made = &e;
-  s = f.scratch;
+  return &e;
+}
+
+// The row of numbers f.values as the segment after `prev`, into `s`: the one made before, else
+// made now. False, nothing changed, when the fast path leaves the row to the generic reader.
+bool made_segment(FastRows& f, const Segment& prev, RowContext& x, ResolvedGases& gases, Segment& s) {
+  std::size_t slot = 0;
+  const FastRows::Made* e = made_before(f, x, slot);
+  if (!e) e = make_segment(f, slot, prev, x, gases);
+  if (!e) return false;
+  s = e->segment;
   return true;
 }
 
@@ -574,15 +590,22 @@ void stream_rows(const Reader& r, CsvRecord& rec, Segment& prev, RowContext& x, 
   std::size_t i = 0;
   CsvTable header;
   FastRows fast = fast_rows(rec.cols, x.eng);
-  const auto taken = [&](std::size_t at) {
+  const auto taken = [&](std::size_t at, const Segment& s) {
     FastRows::Made* m = fast.last_made;
-    if (take(at, prev, m && m->checked) && m) m->checked = true;
+    if (take(at, s, m && m->checked) && m) m->checked = true;
+  };
+  // a plain line's segment is left in its entry of the rows made (no copy): `prev` is then that
+  // one's, copied only when a row is made from it
+  const FastRows::Made* lazy = nullptr;
+  const auto settle = [&] {
+    if (lazy) prev = lazy->segment, lazy = nullptr;
   };
   const detail::CsvRowSink sink = [&](const std::vector<std::string>& cells, const std::vector<int>& columns, int line,
                                       std::string_view text) {
+    settle();
     const std::size_t at = i++;
     prev = csv_segment(r, fast, *rec.window, rec.cols, rec.source, at, cells, columns, line, text, prev, x, gases);
-    taken(at);
+    taken(at, prev);
   };
   struct Plain {
     const Reader& r;
@@ -592,20 +615,32 @@ void stream_rows(const Reader& r, CsvRecord& rec, Segment& prev, RowContext& x, 
     ResolvedGases& gases;
     FastRows& fast;
     std::size_t& i;
+    const FastRows::Made*& lazy;
+    const decltype(settle)& settled;
     const decltype(taken)& took;
-  } plain{r, rec, prev, x, gases, fast, i, taken};
+  } plain{r, rec, prev, x, gases, fast, i, lazy, settle, taken};
   detail::CsvLineHook hook;
   if (fast.usable && !detail::csv_generic_rows_only) {
     hook.context = &plain;
     hook.take = [](void* context, std::string_view line, int) {
       Plain& p = *static_cast<Plain*>(context);
-      if (!line_values(p.fast, line) || !made_segment(p.fast, p.prev, p.x, p.gases, p.prev)) return false;
-      fast_seen(p.r, p.fast, *p.rec.window);
-      p.took(p.i++);
+      FastRows& f = p.fast;
+      if (!line_values(f, line)) return false;  // the parser's and csv_segment's (which settles `prev` first)
+      std::size_t slot = 0;
+      const FastRows::Made* e = made_before(f, p.x, slot);
+      if (!e) {
+        p.settled();  // before a row is made from it (whose entry may take the place of its own)
+        e = make_segment(f, slot, p.prev, p.x, p.gases);
+        if (!e) return false;
+      }
+      p.lazy = e;
+      fast_seen(p.r, f, *p.rec.window);
+      p.took(p.i++, e->segment);
       return true;
     };
   }
   detail::stream_csv_file(rec.file, rec.facts, header, sink, false, hook);
+  settle();
 }
 
 // A CSV record read again for each run (EngineCase::streamed): rows made into segments exactly as
