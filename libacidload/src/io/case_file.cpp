@@ -492,7 +492,15 @@ FastRows::Made* made_before(FastRows& f, RowContext& x, std::size_t& slot) {
   slot = static_cast<std::size_t>((h ^ (h >> 29)) % f.made.size()) & ~std::size_t{1};
   for (std::size_t k = slot; k < slot + 2; ++k) {
     FastRows::Made& e = f.made[k];
-    if (e.generation == f.generation && std::memcmp(e.values.data(), f.values.data(), n * sizeof(double)) == 0) {
+    if (e.generation != f.generation) continue;
+    bool same = true;  // bit for bit (memcmp of a length not known here is a call)
+    for (std::size_t c = 0; c < n && same; ++c) {
+      std::uint64_t u, w;
+      std::memcpy(&u, &e.values[c], sizeof u);
+      std::memcpy(&w, &f.values[c], sizeof w);
+      same = u == w;
+    }
+    if (same) {
       x.fuel.h2s = e.conc[0], x.fuel.other_sulfur = e.conc[1], x.fuel.chlorine = e.conc[2], x.fuel.fluorine = e.conc[3];
       x.power = e.power;
       f.gas = e.gas;
