@@ -308,7 +308,7 @@ FastRows fast_rows(const NamedColumns& cols, const EngineInputs& eng) {
   if (!hours || (power && load) || ((power || load) && eng.rating.fixed_fuel_flow > 0)) return f;
   f.values.resize(f.cols.size());
   f.core.resize(f.cols.size());
-  f.made.resize(256);
+  f.made.resize(256);  // a power of two (made_before)
   f.usable = true;
   return f;
 }
@@ -489,7 +489,7 @@ FastRows::Made* made_before(FastRows& f, RowContext& x, std::size_t& slot) {
     h ^= h >> 31;
   }
   h = (h ^ (h >> 30)) * 0x94D049BB133111EBull;  // the splitmix64 finaliser: every bit to every bit
-  slot = static_cast<std::size_t>((h ^ (h >> 29)) % f.made.size()) & ~std::size_t{1};
+  slot = static_cast<std::size_t>(h ^ (h >> 29)) & (f.made.size() - 2);  // a power of two: a mask, not a division
   for (std::size_t k = slot; k < slot + 2; ++k) {
     FastRows::Made& e = f.made[k];
     if (e.generation != f.generation) continue;

@@ -169,7 +169,11 @@ class Parser {
       const unsigned odd = static_cast<unsigned>(_mm_movemask_epi8(_mm_or_si128(_mm_cmpeq_epi8(v, quote), _mm_cmpeq_epi8(v, cr))));
       const unsigned before = ends ? (ends & (0u - ends)) - 1 : 0xFFFFu;  // the bytes before the line end
       if (odd & before) break;
-      commas += static_cast<std::size_t>(__builtin_popcount(commas_here & before));
+      unsigned k = commas_here & before;  // its bits counted (x86-64's baseline has no popcnt)
+      k = k - ((k >> 1) & 0x5555u);
+      k = (k & 0x3333u) + ((k >> 2) & 0x3333u);
+      k = (k + (k >> 4)) & 0x0F0Fu;
+      commas += (k + (k >> 8)) & 0x1Fu;
       if (ends) {
         p += __builtin_ctz(ends);
         return plain_form_end(p, commas);
