@@ -14,6 +14,7 @@
 // the same rows written inline in YAML).
 #include <doctest/doctest.h>
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
@@ -364,4 +365,55 @@ TEST_CASE("generated CSV files: the form pass (no cells made) refuses what readi
   fs::remove(file);
   CHECK(read > 300);
   CHECK(refused > 300);
+}
+
+TEST_CASE("a NUL byte anywhere in a CSV file is refused at its line and column, in any 1 MB block") {
+  // the expected place is counted here from the bytes written (line: one plus the LFs before it;
+  // column: the bytes since the line's start, less a byte-order mark on the first line)
+  const fs::path file = fs::temp_directory_path() / (std::to_string(::getpid()) + "-acidload-nul.csv");
+  std::mt19937_64 g(1203);
+  for (int round = 0; round < 12; ++round) {
+    CAPTURE(round);
+    std::string text = round % 3 == 0 ? "\xEF\xBB\xBF" : "";
+    text += "hours [h],h2s [ppmv]\n";
+    const std::size_t size = round < 4 ? 200 : (1u << 20) * (1 + round % 3) + g() % 5000;
+    while (text.size() < size) text += std::to_string(g() % 100) + "," + std::string(g() % 40, '7') + "\n";
+    const std::size_t at = round == 0 ? 3 : round == 1 ? 1 : g() % text.size();  // 0: right after the mark
+    text[at] = '\0';
+    std::ofstream(file, std::ios::binary) << text;
+    const std::size_t lf = text.rfind('\n', at == 0 ? 0 : at - 1);
+    const std::size_t start = lf == std::string::npos || lf >= at ? 0 : lf + 1;
+    const int line = 1 + static_cast<int>(std::count(text.begin(), text.begin() + static_cast<long>(at), '\n'));
+    const bool mark = text.compare(0, 3, "\xEF\xBB\xBF") == 0;  // still whole after the change
+    const int column = static_cast<int>(at - start) + 1 - (start == 0 && mark ? 3 : 0);
+    try {
+      io::detail::scan_csv_file(file.string(), 1u << 30);
+      FAIL("accepted");
+    } catch (const InputError& e) {
+      CHECK(e.value() == "byte 0x00");
+      CHECK(e.where().line == line);
+      CHECK(e.where().column == column);
+    }
+  }
+  fs::remove(file);
+}
+
+TEST_CASE("the digest of a CSV file tells any one byte changed, wherever it is") {
+  const fs::path file = fs::temp_directory_path() / (std::to_string(::getpid()) + "-acidload-digest.csv");
+  std::mt19937_64 g(31203);
+  std::string text;
+  while (text.size() < (1u << 21) + 77) text += std::to_string(g() % 100000) + ",1\n";  // two blocks and a tail
+  std::ofstream(file, std::ios::binary) << text;
+  const std::uint64_t digest = io::detail::scan_csv_file(file.string(), 1u << 30).digest;
+  CHECK(io::detail::scan_csv_file(file.string(), 1u << 30).digest == digest);  // the same bytes, the same digest
+  std::vector<std::size_t> places = {0, 7, 8, 31, 32, 33, (1u << 20) - 1, 1u << 20, text.size() - 1, text.size() - 9};
+  for (int k = 0; k < 40; ++k) places.push_back(g() % text.size());
+  for (const std::size_t at : places) {
+    CAPTURE(at);
+    std::string changed = text;
+    changed[at] = changed[at] == '5' ? '6' : '5';
+    std::ofstream(file, std::ios::binary) << changed;
+    CHECK(io::detail::scan_csv_file(file.string(), 1u << 30).digest != digest);
+  }
+  fs::remove(file);
 }

@@ -481,14 +481,17 @@ bool fast_segment(FastRows& f, const Segment& prev, RowContext& x, ResolvedGases
 // The numbers as written are the key: their conversion and range checks are a function of them.
 FastRows::Made* made_before(FastRows& f, RowContext& x, std::size_t& slot) {
   const std::size_t n = f.cols.size();
+  // each number multiplied by its own constant, side by side (not a chain), then the splitmix64
+  // finaliser: every bit to every bit
+  static const std::uint64_t odd[4] = {0xBF58476D1CE4E5B9ull, 0x94D049BB133111EBull, 0xC2B2AE3D27D4EB4Full, 0x165667B19E3779F9ull};
   std::uint64_t h = f.generation * 0x9E3779B97F4A7C15ull;
   for (std::size_t c = 0; c < n; ++c) {
     std::uint64_t w;
     std::memcpy(&w, &f.values[c], sizeof w);
-    h = (h ^ w) * 0xBF58476D1CE4E5B9ull;
-    h ^= h >> 31;
+    h += (w ^ (w >> 32)) * odd[c % 4] + c;
   }
-  h = (h ^ (h >> 30)) * 0x94D049BB133111EBull;  // the splitmix64 finaliser: every bit to every bit
+  h = (h ^ (h >> 30)) * 0xBF58476D1CE4E5B9ull;
+  h = (h ^ (h >> 27)) * 0x94D049BB133111EBull;
   slot = static_cast<std::size_t>(h ^ (h >> 29)) & (f.made.size() - 2);  // a power of two: a mask, not a division
   for (std::size_t k = slot; k < slot + 2; ++k) {
     FastRows::Made& e = f.made[k];
