@@ -697,6 +697,11 @@ class CsvRecordStream final : public RecordStream {
       NamedColumns cols;
       int source = 0;
       std::size_t i = 0;
+      const FastRows::Made* lazy = nullptr;  //!< as in stream_rows: `prev` is this row's segment
+      const Segment* out = nullptr;          //!< the row read last
+      void settle() {
+        if (lazy) prev = lazy->segment, lazy = nullptr;
+      }
     };
     auto st = std::make_shared<State>();
     st->r = reader_;
@@ -709,11 +714,36 @@ class CsvRecordStream final : public RecordStream {
     st->fast = fast_rows(cols_, context_.eng);
     const detail::CsvRowSink sink = [p = st.get()](const std::vector<std::string>& c, const std::vector<int>& cols, int l,
                                                    std::string_view t) {
+      p->settle();
       p->cur = csv_segment(p->r, p->fast, *p->window, p->cols, p->source, p->i, c, cols, l, t, p->prev, p->x, p->gases);
       p->prev = p->cur;
+      p->out = &p->cur;
       ++p->i;
     };
-    st->rows = std::make_unique<detail::CsvFileReader>(open_path_, facts_, st->header, sink);
+    // plain lines as when loading (stream_rows): the segment handed on is the one in its slot of the
+    // rows made, valid until the next call (as a SegmentSource's need be)
+    detail::CsvLineHook hook;
+    if (st->fast.usable && !detail::csv_generic_rows_only) {
+      hook.context = st.get();
+      hook.take = [](void* context, std::string_view line, int) {
+        State& p = *static_cast<State*>(context);
+        FastRows& f = p.fast;
+        if (!line_values(f, line)) return false;
+        std::size_t slot = 0;
+        const FastRows::Made* e = made_before(f, p.x, slot);
+        if (!e) {
+          p.settle();
+          e = make_segment(f, slot, p.prev, p.x, p.gases);
+          if (!e) return false;
+        }
+        p.lazy = e;
+        fast_seen(p.r, f, *p.window);
+        p.out = &e->segment;
+        ++p.i;
+        return true;
+      };
+    }
+    st->rows = std::make_unique<detail::CsvFileReader>(open_path_, facts_, st->header, sink, false, hook);
     // the stream holds all it reads with (the reading outlives nothing it points into)
     return [st, changed]() -> const Segment* {
       try {
@@ -721,7 +751,7 @@ class CsvRecordStream final : public RecordStream {
       } catch (const InputError& e) {
         throw changed("it changed while it was read: " + std::string(e.what()));
       }
-      return &st->cur;
+      return st->out;
     };
   }
 
