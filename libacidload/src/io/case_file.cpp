@@ -249,10 +249,12 @@ struct FastRows {
     double power = 0;       //!< the context's power after it
     std::uint64_t gas = 0;  //!< `gas` after it
     bool checked = false;   //!< its state passed the operation checks
+    Made* next = nullptr;   //!< the entry of the row that followed it last time (a guess, compared in full)
   };
   std::vector<Made> made;
   std::uint64_t generation = 1;
   Made* last_made = nullptr;  //!< the entry of the row made last (null: the row was not kept)
+  Made* previous = nullptr;   //!< last_made before the row being made
   unsigned made_flip = 0;
   Segment scratch;  //!< a row being made
 };
@@ -481,6 +483,27 @@ bool fast_segment(FastRows& f, const Segment& prev, RowContext& x, ResolvedGases
 // The numbers as written are the key: their conversion and range checks are a function of them.
 FastRows::Made* made_before(FastRows& f, RowContext& x, std::size_t& slot) {
   const std::size_t n = f.cols.size();
+  const auto same = [&](const FastRows::Made& e) {  // bit for bit (memcmp of a length not known here is a call)
+    if (e.generation != f.generation) return false;
+    for (std::size_t c = 0; c < n; ++c) {
+      std::uint64_t u, w;
+      std::memcpy(&u, &e.values[c], sizeof u);
+      std::memcpy(&w, &f.values[c], sizeof w);
+      if (u != w) return false;
+    }
+    return true;
+  };
+  const auto found = [&](FastRows::Made& e) {
+    x.fuel.h2s = e.conc[0], x.fuel.other_sulfur = e.conc[1], x.fuel.chlorine = e.conc[2], x.fuel.fluorine = e.conc[3];
+    x.power = e.power;
+    f.gas = e.gas;
+    if (f.previous) f.previous->next = &e;
+    f.last_made = &e;
+    return &e;
+  };
+  f.previous = f.last_made;
+  // a record that repeats mostly repeats in the same order: first the row that followed last time
+  if (f.previous && f.previous->next && same(*f.previous->next)) return found(*f.previous->next);
   // each number multiplied by its own constant, side by side (not a chain), then the splitmix64
   // finaliser: every bit to every bit
   static const std::uint64_t odd[4] = {0xBF58476D1CE4E5B9ull, 0x94D049BB133111EBull, 0xC2B2AE3D27D4EB4Full, 0x165667B19E3779F9ull};
@@ -493,24 +516,8 @@ FastRows::Made* made_before(FastRows& f, RowContext& x, std::size_t& slot) {
   h = (h ^ (h >> 30)) * 0xBF58476D1CE4E5B9ull;
   h = (h ^ (h >> 27)) * 0x94D049BB133111EBull;
   slot = static_cast<std::size_t>(h ^ (h >> 29)) & (f.made.size() - 2);  // a power of two: a mask, not a division
-  for (std::size_t k = slot; k < slot + 2; ++k) {
-    FastRows::Made& e = f.made[k];
-    if (e.generation != f.generation) continue;
-    bool same = true;  // bit for bit (memcmp of a length not known here is a call)
-    for (std::size_t c = 0; c < n && same; ++c) {
-      std::uint64_t u, w;
-      std::memcpy(&u, &e.values[c], sizeof u);
-      std::memcpy(&w, &f.values[c], sizeof w);
-      same = u == w;
-    }
-    if (same) {
-      x.fuel.h2s = e.conc[0], x.fuel.other_sulfur = e.conc[1], x.fuel.chlorine = e.conc[2], x.fuel.fluorine = e.conc[3];
-      x.power = e.power;
-      f.gas = e.gas;
-      f.last_made = &e;
-      return &e;
-    }
-  }
+  for (std::size_t k = slot; k < slot + 2; ++k)
+    if (same(f.made[k])) return found(f.made[k]);
   f.last_made = nullptr;
   return nullptr;
 }
@@ -529,6 +536,8 @@ FastRows::Made* make_segment(FastRows& f, std::size_t slot, const Segment& prev,
   e.power = x.power;
   e.gas = f.gas;
   e.checked = false;
+  e.next = nullptr;
+  if (f.previous) f.previous->next = &e;
   f.last_made = &e;
   return &e;
 }
