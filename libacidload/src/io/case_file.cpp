@@ -192,8 +192,10 @@ Segment next_segment(const Reader& r, const Node& row, const Segment& prev, RowC
 }
 
 // The fast path for a CSV record's rows: the header's units resolved once per column (factor,
-// offset, the contaminant's unit and basis), each cell read with from_chars straight into the
-// segment, nothing allocated and no node filled. It takes a row only when every cell is a plain
+// offset, the contaminant's unit and basis), each cell read straight into the segment (a plain
+// line's numbers from the line's own bytes, no cells made: line_values; other rows from their
+// cells: cell_values), nothing allocated and no node filled, and a row repeating one made before
+// taking that one's segment (FastRows::Made). It takes a row only when every cell is a plain
 // number that the generic reader would take as it stands (in range, converted, the gas resolved,
 // the power set); anything else — an empty cell, a unit or quotes in the cell, a value out of range,
 // a refusal from the core — leaves the row to the generic reader (fill_row and next_segment), which
@@ -234,13 +236,15 @@ struct FastRows {
   std::vector<Powered> powered = std::vector<Powered>(64);
   std::uint64_t gas = 0;  //!< the gas of the segment last made by the fast path (0: unknown)
   unsigned flip = 0;
-  //! Rows made before, by their values: within one generation (the stretch of rows since the last
+  //! Rows made before, by their numbers as written: within one generation (the stretch of rows since the last
   //! row the generic reader made, or since the record's start) a fast row's segment, and what it
   //! leaves in the row context, depend on its values alone — every column is set by every fast row
   //! and everything else is carried unchanged from the segment the generation started from — so a
   //! row whose values have the same bits as one made before in the same generation gets that one's
   //! segment (the same bits the fast path would compute again) and, when that state passed the
-  //! operation checks, is not checked again. Two ways of 128 slots; a miss makes the row.
+  //! operation checks, is not checked again. 128 pairs of slots (two ways); a miss makes the row. (As
+  //! the columns stand, a generic row changes nothing the next fast row does not set again, so the
+  //! generation is a safeguard for whatever a later column may carry.)
   struct Made {
     std::uint64_t generation = 0;  //!< 0: empty
     std::array<double, 16> values{};
