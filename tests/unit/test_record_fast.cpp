@@ -417,3 +417,66 @@ TEST_CASE("the digest of a CSV file tells any one byte changed, wherever it is")
   }
   fs::remove(file);
 }
+
+TEST_CASE("a CSV file read in pieces gives the whole-file parser's rows, with a line longer than a piece and a hook taking some rows") {
+  // the reference is read_csv (the file parsed whole, no pieces): every row's cells, columns and line
+  const fs::path file = fs::temp_directory_path() / (std::to_string(::getpid()) + "-acidload-pieces.csv");
+  std::mt19937_64 g(120326);
+  for (int round = 0; round < 3; ++round) {
+    CAPTURE(round);
+    std::string text = "a,b,c\n";
+    while (text.size() < (3u << 20) + 1234) {
+      const auto r = g() % 1000;
+      if (r == 0 && g() % 30 == 0) text += "# " + std::string((1u << 20) + g() % 300000, 'x') + "\n";  // longer than a piece
+      else if (r == 1) text += "\n";
+      else text += std::to_string(g() % 1000) + "," + (r % 7 == 0 ? " \"q\" " : std::to_string(r)) + "," + std::to_string(g() % 10) + (r % 5 == 0 ? "\r\n" : "\n");
+    }
+    if (round == 1) text.pop_back();  // no final line end
+    std::ofstream(file, std::ios::binary) << text;
+    const io::CsvTable whole = io::read_csv(file.string(), 1u << 30);
+    const io::detail::CsvFileFacts facts = io::detail::scan_csv_file(file.string(), 1u << 30);
+    std::vector<std::vector<std::string>> rows;
+    std::vector<int> lines;
+    std::vector<std::vector<int>> columns;
+    const io::detail::CsvRowSink sink = [&](const std::vector<std::string>& c, const std::vector<int>& cols, int l, std::string_view) {
+      rows.push_back(c), columns.push_back(cols), lines.push_back(l);
+    };
+    struct Taken {
+      std::vector<std::vector<std::string>>* rows;
+      std::vector<int>* lines;
+    } taken{&rows, &lines};
+    io::detail::CsvLineHook hook;
+    hook.context = &taken;
+    hook.take = [](void* c, std::string_view line, int n) {  // rows on even lines without a quote, split by commas
+      if (n % 2 != 0 || line.find('"') != std::string_view::npos) return false;
+      auto& t = *static_cast<Taken*>(c);
+      std::vector<std::string> cells(1);
+      for (const char ch : line) {
+        if (ch == ',') cells.emplace_back();
+        else cells.back().push_back(ch);
+      }
+      t.rows->push_back(cells), t.lines->push_back(n);
+      return true;
+    };
+    for (const bool with_hook : {false, true}) {
+      CAPTURE(with_hook);
+      rows.clear(), lines.clear(), columns.clear();
+      io::CsvTable header;
+      const std::size_t n = io::detail::stream_csv_file(file.string(), facts, header, sink, false, with_hook ? hook : io::detail::CsvLineHook{});
+      REQUIRE(n == whole.rows.size());
+      REQUIRE(rows.size() == whole.rows.size());
+      std::size_t sunk = 0;
+      for (std::size_t i = 0; i < rows.size(); ++i) {
+        CHECK(lines[i] == whole.lines[i]);
+        CHECK(rows[i] == whole.rows[i]);
+        if (!with_hook || lines[i] % 2 != 0 || std::find(whole.rows[i].begin(), whole.rows[i].end(), "q") != whole.rows[i].end()) {
+          REQUIRE(sunk < columns.size());
+          CHECK(columns[sunk++] == whole.columns[i]);
+        }
+      }
+      io::CsvTable form_header;
+      CHECK(io::detail::stream_csv_file(file.string(), facts, form_header, sink, true) == whole.rows.size());
+    }
+  }
+  fs::remove(file);
+}

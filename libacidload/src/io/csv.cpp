@@ -455,35 +455,36 @@ CsvFileFacts scan_csv_file(const std::string& path, std::size_t max_bytes) {
   // FNV-1a, 64 bit, over the 8-byte words of each 1 MB block in four lanes (word i to lane i % 4:
   // four chains of multiplications side by side, not one), then the block's last bytes one by one
   std::uint64_t h[4] = {1469598103934665603ull, 0x9E3779B97F4A7C15ull, 0xC2B2AE3D27D4EB4Full, 0x165667B19E3779F9ull};
-  std::vector<char> buf(1u << 20);
+  const std::size_t block = 1u << 20;
+  const std::unique_ptr<char[]> buf(new char[block]);  // not zero-filled: read into at once
   std::uint64_t at = 0;
   bool bom = false;
   for (;;) {
     std::size_t k = 0;  // the block filled whole (but at the end), so the words do not depend on how reads split
-    while (k < buf.size()) {
-      const ssize_t n = ::read(fd, buf.data() + k, buf.size() - k);
+    while (k < block) {
+      const ssize_t n = ::read(fd, buf.get() + k, block - k);
       if (n < 0) throw InputError("file", path, readable + " (reading it failed)", file_only(path));
       if (n == 0) break;
       k += static_cast<std::size_t>(n);
     }
     if (k == 0) break;
-    if (at == 0 && k >= 3 && std::memcmp(buf.data(), "\xEF\xBB\xBF", 3) == 0) bom = true;
+    if (at == 0 && k >= 3 && std::memcmp(buf.get(), "\xEF\xBB\xBF", 3) == 0) bom = true;
     std::size_t i = 0;
     for (; i + 32 <= k; i += 32)
       for (int l = 0; l < 4; ++l) {
         std::uint64_t w;
-        std::memcpy(&w, buf.data() + i + 8 * l, sizeof w);
+        std::memcpy(&w, buf.get() + i + 8 * l, sizeof w);
         h[l] = (h[l] ^ w) * 1099511628211ull;
       }
     for (int l = 0; i + 8 <= k; i += 8, ++l) {
       std::uint64_t w;
-      std::memcpy(&w, buf.data() + i, sizeof w);
+      std::memcpy(&w, buf.get() + i, sizeof w);
       h[l] = (h[l] ^ w) * 1099511628211ull;
     }
     for (; i < k; ++i) h[0] = (h[0] ^ static_cast<unsigned char>(buf[i])) * 1099511628211ull;
-    if (const void* z = std::memchr(buf.data(), 0, k)) {
+    if (const void* z = std::memchr(buf.get(), 0, k)) {
       // its line and column: the lines before it counted only now (the file is refused), from the start
-      const std::size_t nul = static_cast<std::size_t>(static_cast<const char*>(z) - buf.data());
+      const std::size_t nul = static_cast<std::size_t>(static_cast<const char*>(z) - buf.get());
       std::uint64_t line = 1, line_start = 0;
       std::vector<char> again(at > 0 ? 1u << 20 : 0);
       for (std::uint64_t pos = 0; pos < at;) {
@@ -517,37 +518,52 @@ struct CsvFileReader::Impl {
   Parser parser;
   int fd = -1;
   std::uint64_t left = 0;  // bytes of the file still to read (its size when scanned)
-  std::string piece, carry;
+  // the piece, then the carry: the bytes after its last line end, moved to the front for the next
+  // piece; not zero-filled (a std::string's resize filled every megabyte before it was read into)
+  std::unique_ptr<char[]> buf;
+  std::size_t room = 0, carry_at = 0, carry = 0;
   bool first = true, done = false;
+
+  // Room for `need` bytes, the first `keep` kept.
+  void make_room(std::size_t need, std::size_t keep) {
+    if (need <= room) return;
+    const std::size_t n = std::max(need, 2 * room);
+    std::unique_ptr<char[]> b(new char[n]);
+    if (keep > 0) std::memcpy(b.get(), buf.get(), keep);
+    buf = std::move(b);
+    room = n;
+  }
 
   // The next piece of whole lines; false at the end of the file.
   bool refill() {
-    if (left == 0 && carry.empty()) return false;
-    piece.swap(carry);
-    carry.clear();
-    std::size_t last = std::string::npos;
+    if (left == 0 && carry == 0) return false;
+    if (carry > 0) std::memmove(buf.get(), buf.get() + carry_at, carry);
+    std::size_t size = carry, last = std::string::npos;
+    carry = 0;
     while (left > 0) {
       const std::size_t want = static_cast<std::size_t>(std::min<std::uint64_t>(left, 1u << 20));
-      const std::size_t old = piece.size();
-      piece.resize(old + want);
-      const ssize_t n = ::read(fd, piece.data() + old, want);
+      make_room(size + want, size);
+      const ssize_t n = ::read(fd, buf.get() + size, want);
       if (n <= 0) {
-        piece.resize(old);
         if (n < 0) throw InputError("file", path, "a readable CSV file (reading it failed)", file_only(path));
         left = 0;
         break;
       }
-      piece.resize(old + static_cast<std::size_t>(n));
+      const std::size_t old = size;
+      size += static_cast<std::size_t>(n);
       left -= static_cast<std::uint64_t>(n);
-      last = piece.rfind('\n');
-      if (last != std::string::npos && last >= old) break;  // a line end in what was just read
-      if (last != std::string::npos) break;
+      // a line end in what was just read (the carry before it has none)
+      if (const void* lf = ::memrchr(buf.get() + old, '\n', static_cast<std::size_t>(n))) {
+        last = static_cast<std::size_t>(static_cast<const char*>(lf) - buf.get());
+        break;
+      }
     }
     if (left > 0 && last != std::string::npos) {
-      carry.assign(piece, last + 1, std::string::npos);
-      piece.resize(last + 1);
+      carry_at = last + 1;
+      carry = size - carry_at;
+      size = last + 1;
     }
-    std::string_view v(piece);
+    std::string_view v(buf.get(), size);
     if (first && v.size() >= 3 && v.substr(0, 3) == "\xEF\xBB\xBF") v.remove_prefix(3);  // UTF-8 byte-order mark
     first = false;
     parser.rebase(v);
