@@ -4,6 +4,7 @@
 #include "acidload/io/case_file.hpp"
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <cstdint>
 #include <iterator>
@@ -191,8 +192,10 @@ Segment next_segment(const Reader& r, const Node& row, const Segment& prev, RowC
 }
 
 // The fast path for a CSV record's rows: the header's units resolved once per column (factor,
-// offset, the contaminant's unit and basis), each cell read with from_chars straight into the
-// segment, nothing allocated and no node filled. It takes a row only when every cell is a plain
+// offset, the contaminant's unit and basis), each cell read straight into the segment (a plain
+// line's numbers from the line's own bytes, no cells made: line_values; other rows from their
+// cells: cell_values), nothing allocated and no node filled, and a row repeating one made before
+// taking that one's segment (FastRows::Made). It takes a row only when every cell is a plain
 // number that the generic reader would take as it stands (in range, converted, the gas resolved,
 // the power set); anything else — an empty cell, a unit or quotes in the cell, a value out of range,
 // a refusal from the core — leaves the row to the generic reader (fill_row and next_segment), which
@@ -219,7 +222,8 @@ struct FastColumn {
 struct FastRows {
   bool usable = false;
   std::vector<FastColumn> cols;
-  std::vector<double> values;  //!< per column, the row being read
+  std::vector<double> values;  //!< per column, the row being read: its numbers as written
+  std::vector<double> core;    //!< and in core units, range-checked
   bool seen_set = false;       //!< the reader's `seen` points where the last fast row's cells would be
   //! set_power's outcome (the four fields it sets, studies/operation.cpp) for a gas and a power: the
   //! gas by its entry in the record's ResolvedGases (its `age`, never reused), 0 for a gas not known
@@ -232,6 +236,31 @@ struct FastRows {
   std::vector<Powered> powered = std::vector<Powered>(64);
   std::uint64_t gas = 0;  //!< the gas of the segment last made by the fast path (0: unknown)
   unsigned flip = 0;
+  //! Rows made before, by their numbers as written: within one generation (the stretch of rows since the last
+  //! row the generic reader made, or since the record's start) a fast row's segment, and what it
+  //! leaves in the row context, depend on its values alone — every column is set by every fast row
+  //! and everything else is carried unchanged from the segment the generation started from — so a
+  //! row whose values have the same bits as one made before in the same generation gets that one's
+  //! segment (the same bits the fast path would compute again) and, when that state passed the
+  //! operation checks, is not checked again. 128 pairs of slots (two ways); a miss makes the row. (As
+  //! the columns stand, a generic row changes nothing the next fast row does not set again, so the
+  //! generation is a safeguard for whatever a later column may carry.)
+  struct Made {
+    std::uint64_t generation = 0;  //!< 0: empty
+    std::array<double, 16> values{};
+    Segment segment;
+    Concentration conc[4];  //!< the context's H2S, other sulfur, chlorine and fluorine after it
+    double power = 0;       //!< the context's power after it
+    std::uint64_t gas = 0;  //!< `gas` after it
+    bool checked = false;   //!< its state passed the operation checks
+    Made* next = nullptr;   //!< the entry of the row that followed it last time (a guess, compared in full)
+  };
+  std::vector<Made> made;
+  std::uint64_t generation = 1;
+  Made* last_made = nullptr;  //!< the entry of the row made last (null: the row was not kept)
+  Made* previous = nullptr;   //!< last_made before the row being made
+  unsigned made_flip = 0;
+  Segment scratch;  //!< a row being made
 };
 
 FastRows fast_rows(const NamedColumns& cols, const EngineInputs& eng) {
@@ -284,27 +313,88 @@ FastRows fast_rows(const NamedColumns& cols, const EngineInputs& eng) {
   // on every row, by the generic reader
   if (!hours || (power && load) || ((power || load) && eng.rating.fixed_fuel_flow > 0)) return f;
   f.values.resize(f.cols.size());
+  f.core.resize(f.cols.size());
+  f.made.resize(256);  // a power of two (made_before)
   f.usable = true;
   return f;
 }
 
-// Row `cells` as the segment after `prev` (next_segment's result), or false (nothing changed) when
-// the fast path leaves the row to the generic reader.
-bool fast_segment(FastRows& f, const std::vector<std::string>& cells, const Segment& prev, RowContext& x,
-                  ResolvedGases& gases, Segment& s) {
-  using F = FastColumn::Field;
+// A cell's number `v` (as written) in the column's core unit, checked against its key's range (a
+// contaminant: not negative); false where the generic reader would refuse it.
+bool column_value(const FastColumn& fc, double& v) {
+  if (fc.key) return detail::converted(fc.key->kind, v, fc.factor, fc.offset, v) && detail::snapped_in_range(*fc.key, v);
+  if (v < 0) return false;
+  v *= fc.factor;
+  return true;
+}
+
+// The row's cells as the fast path's numbers (f.values); false when it leaves the row to the generic reader.
+bool cell_values(FastRows& f, const std::vector<std::string>& cells) {
   if (!f.usable || cells.size() != f.cols.size()) return false;
-  for (std::size_t c = 0; c < cells.size(); ++c) {
-    const FastColumn& fc = f.cols[c];
-    double v = 0;
-    if (!detail::plain_number(cells[c], v)) return false;
-    if (fc.key) {
-      if (!detail::converted(fc.key->kind, v, fc.factor, fc.offset, v) || !detail::snapped_in_range(*fc.key, v)) return false;
-    } else {
-      if (v < 0) return false;
-      v *= fc.factor;
+  for (std::size_t c = 0; c < cells.size(); ++c)
+    if (!detail::plain_number(cells[c], f.values[c])) return false;
+  return true;
+}
+
+// One cell of a plain line, from `p` to the next comma or the line's end (where `p` is left): its
+// number as detail::plain_number reads it. A plain decimal of at most 15 digits ("85.0", "-3",
+// "+12.75") is read here in one pass: its digits as an integer m (exact: below 2^53) over 10^f
+// (exact for f <= 22), one IEEE division, rounded correctly as from_chars rounds, so the same bits;
+// any other cell (an exponent, more digits, no digit before or after the point, anything but a
+// number) goes to plain_number, which reads it or refuses it as the generic reader does.
+bool cell_number(const char*& p, const char* e, double& out) {
+  static const double tens[16] = {1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15};
+  const char* const start = p;
+  const char* q = p;
+  const bool negative = q < e && *q == '-';
+  if (q < e && (*q == '-' || *q == '+')) ++q;
+  std::uint64_t m = 0;
+  const char* const first = q;
+  while (q < e && static_cast<unsigned>(*q - '0') < 10) m = m * 10 + static_cast<unsigned>(*q++ - '0');
+  bool plain = q > first;
+  std::ptrdiff_t fraction = 0;
+  if (plain && q < e && *q == '.') {
+    const char* const point = ++q;
+    while (q < e && static_cast<unsigned>(*q - '0') < 10) m = m * 10 + static_cast<unsigned>(*q++ - '0');
+    fraction = q - point;
+    plain = fraction > 0;
+  }
+  if (plain && (q == e || *q == ',') && (q - first) - (fraction > 0 ? 1 : 0) <= 15) {
+    const double v = static_cast<double>(m) / tens[fraction];
+    out = m == 0 ? 0.0 : negative ? -v : v;  // no negative zero, as plain_number
+    p = q;
+    return true;
+  }
+  const void* comma = std::memchr(start, ',', static_cast<std::size_t>(e - start));
+  p = comma ? static_cast<const char*>(comma) : e;
+  return detail::plain_number(std::string_view(start, static_cast<std::size_t>(p - start)), out);
+}
+
+// A plain line's cells as the fast path's numbers (f.values), read straight from its bytes; false
+// when it leaves the row to the parser and the generic reader (a cell that is no plain number,
+// quotes, spaces, the wrong number of cells).
+bool line_values(FastRows& f, std::string_view line) {
+  const char* p = line.data();
+  const char* const e = p + line.size();
+  const std::size_t n = f.cols.size();
+  for (std::size_t c = 0; c < n; ++c) {
+    if (c > 0) {
+      if (p == e) return false;  // fewer cells than the header has
+      ++p;                       // the comma
     }
-    f.values[c] = v;
+    if (!cell_number(p, e, f.values[c])) return false;
+  }
+  return p == e;  // else more cells than the header has
+}
+
+// The row of numbers f.values as the segment after `prev`, or false (nothing changed) when the fast
+// path leaves the row to the generic reader.
+bool fast_segment(FastRows& f, const Segment& prev, RowContext& x, ResolvedGases& gases, Segment& s) {
+  using F = FastColumn::Field;
+  const std::size_t n = f.cols.size();
+  for (std::size_t c = 0; c < n; ++c) {
+    f.core[c] = f.values[c];
+    if (!column_value(f.cols[c], f.core[c])) return false;
   }
   // the row's changes, in read_segment's order, on copies of what a refusal must leave as it was
   Concentration conc[4] = {x.fuel.h2s, x.fuel.other_sulfur, x.fuel.chlorine, x.fuel.fluorine};
@@ -314,9 +404,9 @@ bool fast_segment(FastRows& f, const std::vector<std::string>& cells, const Segm
   s.events.clear();
   s.calendar_hours = -1;
   s.starts = 0;
-  for (std::size_t c = 0; c < cells.size(); ++c) {
+  for (std::size_t c = 0; c < n; ++c) {
     const FastColumn& fc = f.cols[c];
-    const double v = f.values[c];
+    const double v = f.core[c];
     switch (fc.field) {
       case F::hours: s.hours = v; break;
       case F::calendar_hours: s.calendar_hours = v; break;
@@ -377,8 +467,8 @@ bool fast_segment(FastRows& f, const std::vector<std::string>& cells, const Segm
     return false;
   }
   x.power = power;
-  for (std::size_t c = 0; c < cells.size(); ++c) {
-    const double v = f.values[c];
+  for (std::size_t c = 0; c < n; ++c) {
+    const double v = f.core[c];
     switch (f.cols[c].field) {
       case F::jacket_water_out: s.operation.jacket_water_out = v; break;
       case F::oil_temperature: s.oil_temperature = v; break;
@@ -389,6 +479,81 @@ bool fast_segment(FastRows& f, const std::vector<std::string>& cells, const Segm
     }
   }
   if (!starts_given && x.eng.start_every > 0) s.starts = s.hours / x.eng.start_every;
+  return true;
+}
+
+// Rows made before (FastRows::Made): the entry made from the numbers f.values in this generation,
+// with what it leaves in the row context restored, or null, with `slot` where a new one would go.
+// The numbers as written are the key: their conversion and range checks are a function of them.
+FastRows::Made* made_before(FastRows& f, RowContext& x, std::size_t& slot) {
+  const std::size_t n = f.cols.size();
+  const auto same = [&](const FastRows::Made& e) {  // bit for bit (memcmp of a length not known here is a call)
+    if (e.generation != f.generation) return false;
+    for (std::size_t c = 0; c < n; ++c) {
+      std::uint64_t u, w;
+      std::memcpy(&u, &e.values[c], sizeof u);
+      std::memcpy(&w, &f.values[c], sizeof w);
+      if (u != w) return false;
+    }
+    return true;
+  };
+  const auto found = [&](FastRows::Made& e) {
+    x.fuel.h2s = e.conc[0], x.fuel.other_sulfur = e.conc[1], x.fuel.chlorine = e.conc[2], x.fuel.fluorine = e.conc[3];
+    x.power = e.power;
+    f.gas = e.gas;
+    if (f.previous) f.previous->next = &e;
+    f.last_made = &e;
+    return &e;
+  };
+  f.previous = f.last_made;
+  // a record that repeats mostly repeats in the same order: first the row that followed last time
+  if (f.previous && f.previous->next && same(*f.previous->next)) return found(*f.previous->next);
+  // each number multiplied by its own constant, side by side (not a chain), then the splitmix64
+  // finaliser: every bit to every bit
+  static const std::uint64_t odd[4] = {0xBF58476D1CE4E5B9ull, 0x94D049BB133111EBull, 0xC2B2AE3D27D4EB4Full, 0x165667B19E3779F9ull};
+  std::uint64_t h = f.generation * 0x9E3779B97F4A7C15ull;
+  for (std::size_t c = 0; c < n; ++c) {
+    std::uint64_t w;
+    std::memcpy(&w, &f.values[c], sizeof w);
+    h += (w ^ (w >> 32)) * odd[c % 4] + c;
+  }
+  h = (h ^ (h >> 30)) * 0xBF58476D1CE4E5B9ull;
+  h = (h ^ (h >> 27)) * 0x94D049BB133111EBull;
+  slot = static_cast<std::size_t>(h ^ (h >> 29)) & (f.made.size() - 2);  // a power of two: a mask, not a division
+  for (std::size_t k = slot; k < slot + 2; ++k)
+    if (same(f.made[k])) return found(f.made[k]);
+  f.last_made = nullptr;
+  return nullptr;
+}
+
+// The row of numbers f.values made by fast_segment after `prev` and kept at slot pair `slot`: its
+// entry, or null (nothing changed) when the fast path leaves the row to the generic reader.
+FastRows::Made* make_segment(FastRows& f, std::size_t slot, const Segment& prev, RowContext& x, ResolvedGases& gases) {
+  if (!fast_segment(f, prev, x, gases, f.scratch)) return nullptr;
+  FastRows::Made& e = f.made[f.made[slot].generation != f.generation       ? slot
+                             : f.made[slot + 1].generation != f.generation ? slot + 1
+                                                                           : slot + ((f.made_flip ^= 1u) & 1u)];
+  e.generation = f.generation;
+  std::copy(f.values.begin(), f.values.end(), e.values.begin());
+  e.segment = f.scratch;
+  e.conc[0] = x.fuel.h2s, e.conc[1] = x.fuel.other_sulfur, e.conc[2] = x.fuel.chlorine, e.conc[3] = x.fuel.fluorine;
+  e.power = x.power;
+  e.gas = f.gas;
+  e.checked = false;
+  e.next = nullptr;
+  if (f.previous) f.previous->next = &e;
+  f.last_made = &e;
+  return &e;
+}
+
+// The row of numbers f.values as the segment after `prev`, into `s`: the one made before, else
+// made now. False, nothing changed, when the fast path leaves the row to the generic reader.
+bool made_segment(FastRows& f, const Segment& prev, RowContext& x, ResolvedGases& gases, Segment& s) {
+  std::size_t slot = 0;
+  const FastRows::Made* e = made_before(f, x, slot);
+  if (!e) e = make_segment(f, slot, prev, x, gases);
+  if (!e) return false;
+  s = e->segment;
   return true;
 }
 
@@ -406,6 +571,16 @@ void forget_dropped_cells(const Reader& r, const Node& row) {
   }
 }
 
+// After a row the fast path made: the reader's `seen` as the generic reader leaves it.
+void fast_seen(const Reader& r, FastRows& f, Document& window) {
+  if (f.seen_set) return;
+  Node& row = window.root;  // every cell is set, so column c is the row node's entry c (room for them is reserved)
+  if (row.entries.size() < f.cols.size()) row.entries.resize(f.cols.size()), row.key_marks.resize(f.cols.size());
+  for (std::size_t c = 0; c < f.cols.size(); ++c)
+    if (f.cols[c].key) r.seen[f.cols[c].key->path] = &row.entries[c].second;
+  f.seen_set = true;
+}
+
 // The next segment from a CSV row: the fast path's when it takes the row, else the generic reader's
 // (the row filled into the window node and read by read_segment). The reader's `seen` is left as
 // the generic reader would leave it: its quantity keys pointing at the window's nodes of the row.
@@ -413,17 +588,13 @@ Segment csv_segment(const Reader& r, FastRows& f, Document& window, const NamedC
                     const std::vector<std::string>& cells, const std::vector<int>& columns, int line,
                     std::string_view text, const Segment& prev, RowContext& x, ResolvedGases& gases) {
   Segment s;
-  if (!detail::csv_generic_rows_only && fast_segment(f, cells, prev, x, gases, s)) {
-    if (!f.seen_set) {  // every cell is set, so column c is the row node's entry c (room for them is reserved)
-      Node& row = window.root;
-      if (row.entries.size() < f.cols.size()) row.entries.resize(f.cols.size()), row.key_marks.resize(f.cols.size());
-      for (std::size_t c = 0; c < f.cols.size(); ++c)
-        if (f.cols[c].key) r.seen[f.cols[c].key->path] = &row.entries[c].second;
-      f.seen_set = true;
-    }
+  if (!detail::csv_generic_rows_only && cell_values(f, cells) && made_segment(f, prev, x, gases, s)) {
+    fast_seen(r, f, window);
     return s;
   }
   f.seen_set = false;
+  f.last_made = nullptr;
+  ++f.generation;  // what the rows after carry from is the generic reader's
   f.gas = 0;  // the generic reader's gas is not known to the fast path's table of powers
   const std::size_t cells_before = window.root.entries.size();
   const Node& row = fill_row(window, cols, source, i, cells, columns, line, text);
@@ -431,19 +602,69 @@ Segment csv_segment(const Reader& r, FastRows& f, Document& window, const NamedC
   return next_segment(r, row, prev, x, gases);
 }
 
-// Streams the record's rows as segments to `take(i, segment)`, each after `prev` (updated).
+//! Takes segment i: `known_good` when its state is known to pass the operation checks; returns true
+//! when it is known to pass them now (checked, or known before), false when not (refused, or not checked).
+using SegmentTaker = std::function<bool(std::size_t, const Segment&, bool known_good)>;
+
+// Streams the record's rows as segments to `take`, each after `prev` (updated). A plain line goes
+// straight from its bytes to the fast path (line_values, made_segment: no cells made); any other
+// line, and any the fast path leaves, is read by the parser and made by csv_segment.
 void stream_rows(const Reader& r, CsvRecord& rec, Segment& prev, RowContext& x, ResolvedGases& gases,
-                 const std::function<void(std::size_t, const Segment&)>& take) {
+                 const SegmentTaker& take) {
   std::size_t i = 0;
   CsvTable header;
   FastRows fast = fast_rows(rec.cols, x.eng);
+  const auto taken = [&](std::size_t at, const Segment& s) {
+    FastRows::Made* m = fast.last_made;
+    if (take(at, s, m && m->checked) && m) m->checked = true;
+  };
+  // a plain line's segment is left in its entry of the rows made (no copy): `prev` is then that
+  // one's, copied only when a row is made from it
+  const FastRows::Made* lazy = nullptr;
+  const auto settle = [&] {
+    if (lazy) prev = lazy->segment, lazy = nullptr;
+  };
   const detail::CsvRowSink sink = [&](const std::vector<std::string>& cells, const std::vector<int>& columns, int line,
                                       std::string_view text) {
+    settle();
     const std::size_t at = i++;
     prev = csv_segment(r, fast, *rec.window, rec.cols, rec.source, at, cells, columns, line, text, prev, x, gases);
-    take(at, prev);
+    taken(at, prev);
   };
-  detail::stream_csv_file(rec.file, rec.facts, header, sink);
+  struct Plain {
+    const Reader& r;
+    CsvRecord& rec;
+    Segment& prev;
+    RowContext& x;
+    ResolvedGases& gases;
+    FastRows& fast;
+    std::size_t& i;
+    const FastRows::Made*& lazy;
+    const decltype(settle)& settled;
+    const decltype(taken)& took;
+  } plain{r, rec, prev, x, gases, fast, i, lazy, settle, taken};
+  detail::CsvLineHook hook;
+  if (fast.usable && !detail::csv_generic_rows_only) {
+    hook.context = &plain;
+    hook.take = [](void* context, std::string_view line, int) {
+      Plain& p = *static_cast<Plain*>(context);
+      FastRows& f = p.fast;
+      if (!line_values(f, line)) return false;  // the parser's and csv_segment's (which settles `prev` first)
+      std::size_t slot = 0;
+      const FastRows::Made* e = made_before(f, p.x, slot);
+      if (!e) {
+        p.settled();  // before a row is made from it (whose entry may take the place of its own)
+        e = make_segment(f, slot, p.prev, p.x, p.gases);
+        if (!e) return false;
+      }
+      p.lazy = e;
+      fast_seen(p.r, f, *p.rec.window);
+      p.took(p.i++, e->segment);
+      return true;
+    };
+  }
+  detail::stream_csv_file(rec.file, rec.facts, header, sink, false, hook);
+  settle();
 }
 
 // A CSV record read again for each run (EngineCase::streamed): rows made into segments exactly as
@@ -489,6 +710,11 @@ class CsvRecordStream final : public RecordStream {
       NamedColumns cols;
       int source = 0;
       std::size_t i = 0;
+      const FastRows::Made* lazy = nullptr;  //!< as in stream_rows: `prev` is this row's segment
+      const Segment* out = nullptr;          //!< the row read last
+      void settle() {
+        if (lazy) prev = lazy->segment, lazy = nullptr;
+      }
     };
     auto st = std::make_shared<State>();
     st->r = reader_;
@@ -501,11 +727,36 @@ class CsvRecordStream final : public RecordStream {
     st->fast = fast_rows(cols_, context_.eng);
     const detail::CsvRowSink sink = [p = st.get()](const std::vector<std::string>& c, const std::vector<int>& cols, int l,
                                                    std::string_view t) {
+      p->settle();
       p->cur = csv_segment(p->r, p->fast, *p->window, p->cols, p->source, p->i, c, cols, l, t, p->prev, p->x, p->gases);
       p->prev = p->cur;
+      p->out = &p->cur;
       ++p->i;
     };
-    st->rows = std::make_unique<detail::CsvFileReader>(open_path_, facts_, st->header, sink);
+    // plain lines as when loading (stream_rows): the segment handed on is the one in its slot of the
+    // rows made, valid until the next call (as a SegmentSource's need be)
+    detail::CsvLineHook hook;
+    if (st->fast.usable && !detail::csv_generic_rows_only) {
+      hook.context = st.get();
+      hook.take = [](void* context, std::string_view line, int) {
+        State& p = *static_cast<State*>(context);
+        FastRows& f = p.fast;
+        if (!line_values(f, line)) return false;
+        std::size_t slot = 0;
+        const FastRows::Made* e = made_before(f, p.x, slot);
+        if (!e) {
+          p.settle();
+          e = make_segment(f, slot, p.prev, p.x, p.gases);
+          if (!e) return false;
+        }
+        p.lazy = e;
+        fast_seen(p.r, f, *p.window);
+        p.out = &e->segment;
+        ++p.i;
+        return true;
+      };
+    }
+    st->rows = std::make_unique<detail::CsvFileReader>(open_path_, facts_, st->header, sink, false, hook);
     // the stream holds all it reads with (the reading outlives nothing it points into)
     return [st, changed]() -> const Segment* {
       try {
@@ -513,7 +764,7 @@ class CsvRecordStream final : public RecordStream {
       } catch (const InputError& e) {
         throw changed("it changed while it was read: " + std::string(e.what()));
       }
-      return &st->cur;
+      return st->out;
     };
   }
 
@@ -692,8 +943,10 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
   std::optional<std::size_t> bad_operation;  // the first segment whose operation is refused
   std::exception_ptr bad_operation_error;
   unsigned flip = 0;  // which of a full slot pair a new state replaces, in turn
-  const auto check_operation = [&](std::size_t i, const Segment& s) {
-    if (bad_operation) return;
+  // true when the state is known to pass (checked now, or before), false when refused or not checked
+  const auto check_operation = [&](std::size_t i, const Segment& s, bool known_good) {
+    if (bad_operation) return false;
+    if (known_good) return true;
     CheckedState* slot = nullptr;
     if (!checked.empty()) {
       const CheckedState k = state_of(s);
@@ -720,19 +973,20 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
       const auto same = [&](const CheckedState& c) {
         return c.used && std::memcmp(static_cast<const void*>(&c), static_cast<const void*>(&k), sizeof k) == 0;
       };
-      if (same(checked[a]) || same(checked[b2])) return;
+      if (same(checked[a]) || same(checked[b2])) return true;
       slot = !checked[a].used ? &checked[a] : !checked[b2].used ? &checked[b2] : &checked[(flip ^= 1) ? a : b2];
     }
     try {
       check_segment(s, c.charge, c.model);
     } catch (const InputError&) {
       bad_operation = i, bad_operation_error = std::current_exception();
-      return;
+      return false;
     } catch (const NotModelledError&) {
       bad_operation = i, bad_operation_error = std::current_exception();
-      return;
+      return false;
     }
     if (slot) *slot = state_of(s);
+    return true;
   };
   double hours = 0, over_hours = 0;
   std::optional<std::size_t> over;  // the row where the hours pass the cap
@@ -742,18 +996,19 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
     c.record = {base};
     hours = base.hours;
     if (hours > max_simulated_hours) over = 0, over_hours = hours;
-    check_operation(0, base);
+    check_operation(0, base, false);
   } else {
     RowContext x{eng, c.charge, fuel, eng.power};
     const RowContext before = x;
     Segment prev = base, first;
     ResolvedGases gases;
-    const auto take = [&](std::size_t i, const Segment& s) {
+    const auto take = [&](std::size_t i, const Segment& s, bool known_good) {
       hours += s.hours;
       if (hours > max_simulated_hours && !over) over = i, over_hours = hours;
-      check_operation(i, s);
+      const bool good = check_operation(i, s, known_good);
       if (i == 0) first = s;
       if (!streamed) c.record.push_back(s);
+      return good;
     };
     if (from_csv) {
       if (!streamed) c.record.reserve(csv.rows);
@@ -761,7 +1016,7 @@ EngineCase detail::build_engine_case(Reader& r, const Node& root, const std::str
     } else {
       for (std::size_t i = 0; i < rows.size(); ++i) {
         prev = next_segment(r, rows[i], prev, x, gases);
-        take(i, prev);
+        take(i, prev, false);
       }
     }
     if (streamed) {

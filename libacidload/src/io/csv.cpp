@@ -21,7 +21,11 @@
 #include <unistd.h>
 
 #include <algorithm>
+#include <array>
 #include <cstring>
+#ifdef __SSE2__
+#include <emmintrin.h>
+#endif
 #include <string_view>
 #include <unordered_map>
 
@@ -40,8 +44,9 @@ std::string trim(std::string_view s) {
 
 class Parser {
  public:
-  Parser(std::string_view text, CsvTable& table, const detail::CsvRowSink* sink = nullptr, bool form_only = false)
-      : s_(text), t_(table), sink_(sink), form_only_(form_only) {}
+  Parser(std::string_view text, CsvTable& table, const detail::CsvRowSink* sink = nullptr, bool form_only = false,
+         detail::CsvLineHook hook = {})
+      : s_(text), t_(table), sink_(sink), form_only_(form_only), hook_(hook) {}
   std::size_t data_rows() const { return data_rows_; }
 
   void run() {
@@ -53,6 +58,7 @@ class Parser {
   bool step() {
     while (pos_ < s_.size()) {
       if (skip_blank_or_comment()) continue;
+      if (!t_.header.empty() && (form_only_ ? plain_form() : offered())) return true;
       if (read_record()) return true;
     }
     return false;
@@ -134,6 +140,84 @@ class Parser {
   std::string key_for(std::size_t cell) const {
     if (t_.header.empty()) return "header";
     return cell < t_.header.size() ? t_.header[cell] : "(extra cell)";
+  }
+
+  // A data row whose form is plainly right, passed over (form_only_) in one look at each byte: no
+  // quote, no CR but a CR LF line end's, the header's number of cells. False, nothing consumed, for
+  // any other line, which pass_form and read_record then see as before (they take every line this
+  // takes, the same way: it is only quicker on the lines most files are made of).
+  bool plain_form() {
+    // 0: any other byte; 1: comma; 2: LF; 3: a quote or CR
+    static const auto kinds = [] {
+      std::array<unsigned char, 256> k{};
+      k[static_cast<unsigned char>(',')] = 1;
+      k[static_cast<unsigned char>('\n')] = 2;
+      k[static_cast<unsigned char>('"')] = 3;
+      k[static_cast<unsigned char>('\r')] = 3;
+      return k;
+    }();
+    const char* const e = s_.data() + s_.size();
+    const char* p = s_.data() + pos_;
+    std::size_t commas = 0;
+#ifdef __SSE2__
+    // 16 bytes at a time while they hold no quote or CR (the byte loop below takes any other case)
+    const __m128i lf = _mm_set1_epi8('\n'), comma = _mm_set1_epi8(','), quote = _mm_set1_epi8('"'), cr = _mm_set1_epi8('\r');
+    while (e - p >= 16) {
+      const __m128i v = _mm_loadu_si128(reinterpret_cast<const __m128i*>(p));
+      const unsigned ends = static_cast<unsigned>(_mm_movemask_epi8(_mm_cmpeq_epi8(v, lf)));
+      const unsigned commas_here = static_cast<unsigned>(_mm_movemask_epi8(_mm_cmpeq_epi8(v, comma)));
+      const unsigned odd = static_cast<unsigned>(_mm_movemask_epi8(_mm_or_si128(_mm_cmpeq_epi8(v, quote), _mm_cmpeq_epi8(v, cr))));
+      const unsigned before = ends ? (ends & (0u - ends)) - 1 : 0xFFFFu;  // the bytes before the line end
+      if (odd & before) break;
+      unsigned k = commas_here & before;  // its bits counted (x86-64's baseline has no popcnt)
+      k = k - ((k >> 1) & 0x5555u);
+      k = (k & 0x3333u) + ((k >> 2) & 0x3333u);
+      k = (k + (k >> 4)) & 0x0F0Fu;
+      commas += (k + (k >> 8)) & 0x1Fu;
+      if (ends) {
+        p += __builtin_ctz(ends);
+        return plain_form_end(p, commas);
+      }
+      p += 16;
+    }
+#endif
+    for (; p < e; ++p) {
+      const unsigned char k = kinds[static_cast<unsigned char>(*p)];
+      if (k == 0) continue;
+      if (k == 1) {
+        ++commas;
+        continue;
+      }
+      if (k == 2) break;
+      if (*p == '\r' && p + 1 < e && p[1] == '\n') break;  // the line end
+      return false;
+    }
+    return plain_form_end(p, commas);
+  }
+  // The end of a plain row at `p` (its line end, or the text's end) with `commas` before it.
+  bool plain_form_end(const char* p, std::size_t commas) {
+    if (commas + 1 != t_.header.size()) return false;
+    pos_ = static_cast<std::size_t>(p - s_.data());
+    next_line();
+    ++data_rows_;
+    return true;
+  }
+
+  // A data row offered to the hook as its line's bytes (without the line end); true when the hook
+  // took it (the sink is not called), false, with nothing consumed, to read it as always.
+  bool offered() {
+    if (!hook_.take) return false;
+    const char* const b = s_.data() + pos_;
+    const std::size_t left = s_.size() - pos_;
+    const void* nl = std::memchr(b, '\n', left);
+    const std::size_t len = nl ? static_cast<std::size_t>(static_cast<const char*>(nl) - b) : left;
+    std::size_t text = len;
+    if (nl && text > 0 && b[text - 1] == '\r') --text;
+    if (!hook_.take(hook_.context, std::string_view(b, text), line_)) return false;
+    pos_ += len;
+    next_line();
+    ++data_rows_;
+    return true;
   }
 
   // A data row's form checked without its cells (form_only_): the row's line passed when it is as
@@ -288,6 +372,7 @@ class Parser {
   CsvTable& t_;
   const detail::CsvRowSink* sink_ = nullptr;
   bool form_only_ = false;  //!< data rows checked for their form only, the sink not called
+  detail::CsvLineHook hook_;  //!< data rows offered to it first
   std::size_t data_rows_ = 0;
   std::vector<std::string> cells_;
   std::vector<int> cols_;
@@ -367,86 +452,118 @@ CsvFileFacts scan_csv_file(const std::string& path, std::size_t max_bytes) {
     throw InputError("file", std::to_string(f.size) + " bytes", "a file of at most " + std::to_string(max_bytes) + " bytes",
                      file_only(path));
   // one pass in blocks: the digest, and a NUL byte refused wherever it is (before any cell is read)
-  std::uint64_t h = 1469598103934665603ull;  // FNV-1a, 64 bit, over 8-byte words of each 1 MB block
-  std::vector<char> buf(1u << 20);
-  std::uint64_t at = 0, line = 1, line_start = 0;
+  // FNV-1a, 64 bit, over the 8-byte words of each 1 MB block in four lanes (word i to lane i % 4:
+  // four chains of multiplications side by side, not one), then the block's last bytes one by one
+  std::uint64_t h[4] = {1469598103934665603ull, 0x9E3779B97F4A7C15ull, 0xC2B2AE3D27D4EB4Full, 0x165667B19E3779F9ull};
+  const std::size_t block = 1u << 20;
+  const std::unique_ptr<char[]> buf(new char[block]);  // not zero-filled: read into at once
+  std::uint64_t at = 0;
   bool bom = false;
   for (;;) {
     std::size_t k = 0;  // the block filled whole (but at the end), so the words do not depend on how reads split
-    while (k < buf.size()) {
-      const ssize_t n = ::read(fd, buf.data() + k, buf.size() - k);
+    while (k < block) {
+      const ssize_t n = ::read(fd, buf.get() + k, block - k);
       if (n < 0) throw InputError("file", path, readable + " (reading it failed)", file_only(path));
       if (n == 0) break;
       k += static_cast<std::size_t>(n);
     }
     if (k == 0) break;
-    if (at == 0 && k >= 3 && std::memcmp(buf.data(), "\xEF\xBB\xBF", 3) == 0) bom = true;
+    if (at == 0 && k >= 3 && std::memcmp(buf.get(), "\xEF\xBB\xBF", 3) == 0) bom = true;
     std::size_t i = 0;
-    for (; i + 8 <= k; i += 8) {  // in 8-byte words, then the block's last bytes one by one
+    for (; i + 32 <= k; i += 32)
+      for (int l = 0; l < 4; ++l) {
+        std::uint64_t w;
+        std::memcpy(&w, buf.get() + i + 8 * l, sizeof w);
+        h[l] = (h[l] ^ w) * 1099511628211ull;
+      }
+    for (int l = 0; i + 8 <= k; i += 8, ++l) {
       std::uint64_t w;
-      std::memcpy(&w, buf.data() + i, sizeof w);
-      h = (h ^ w) * 1099511628211ull;
+      std::memcpy(&w, buf.get() + i, sizeof w);
+      h[l] = (h[l] ^ w) * 1099511628211ull;
     }
-    for (; i < k; ++i) h = (h ^ static_cast<unsigned char>(buf[i])) * 1099511628211ull;
-    if (const void* z = std::memchr(buf.data(), 0, k)) {
-      const std::size_t nul = static_cast<std::size_t>(static_cast<const char*>(z) - buf.data());
+    for (; i < k; ++i) h[0] = (h[0] ^ static_cast<unsigned char>(buf[i])) * 1099511628211ull;
+    if (const void* z = std::memchr(buf.get(), 0, k)) {
+      // its line and column: the lines before it counted only now (the file is refused), from the start
+      const std::size_t nul = static_cast<std::size_t>(static_cast<const char*>(z) - buf.get());
+      std::uint64_t line = 1, line_start = 0;
+      std::vector<char> again(at > 0 ? 1u << 20 : 0);
+      for (std::uint64_t pos = 0; pos < at;) {
+        const ssize_t n = ::pread(fd, again.data(), static_cast<std::size_t>(std::min<std::uint64_t>(again.size(), at - pos)),
+                                  static_cast<off_t>(pos));
+        if (n <= 0) throw InputError("file", path, readable + " (reading it failed)", file_only(path));
+        for (ssize_t j = 0; j < n; ++j)
+          if (again[static_cast<std::size_t>(j)] == '\n') ++line, line_start = pos + static_cast<std::uint64_t>(j) + 1;
+        pos += static_cast<std::uint64_t>(n);
+      }
       for (std::size_t j = 0; j < nul; ++j)
         if (buf[j] == '\n') ++line, line_start = at + j + 1;
       const std::uint64_t from = line == 1 && bom ? 3 : line_start;
       throw InputError("file", "byte 0x00", "text (a NUL byte is here; is this a CSV file?)",
                        InputWhere{path, static_cast<int>(line), static_cast<int>(at + nul - from) + 1, ""});
     }
-    line += static_cast<std::uint64_t>(std::count(buf.data(), buf.data() + k, '\n'));
-    if (const void* last = ::memrchr(buf.data(), '\n', k))
-      line_start = at + static_cast<std::size_t>(static_cast<const char*>(last) - buf.data()) + 1;
     at += k;
     if (at > max_bytes) break;  // grown since the size was taken: read no further than the cap
   }
-  f.digest = h;
+  f.digest = h[0] ^ (h[1] * 0x9E3779B97F4A7C15ull) ^ (h[2] * 0xC2B2AE3D27D4EB4Full) ^ (h[3] * 0x165667B19E3779F9ull);
   if (at != f.size) throw InputError("file", path, readable + " (it changed while it was read)", file_only(path));
   return f;
 }
 
 struct CsvFileReader::Impl {
-  Impl(std::string p, CsvTable& t, const CsvRowSink& s, bool form_only)
-      : path(std::move(p)), table(t), sink(s), parser("", t, &sink, form_only) {}
+  Impl(std::string p, CsvTable& t, const CsvRowSink& s, bool form_only, CsvLineHook hook)
+      : path(std::move(p)), table(t), sink(s), parser("", t, &sink, form_only, hook) {}
   std::string path;
   CsvTable& table;
   CsvRowSink sink;
   Parser parser;
   int fd = -1;
   std::uint64_t left = 0;  // bytes of the file still to read (its size when scanned)
-  std::string piece, carry;
+  // the piece, then the carry: the bytes after its last line end, moved to the front for the next
+  // piece; not zero-filled (a std::string's resize filled every megabyte before it was read into)
+  std::unique_ptr<char[]> buf;
+  std::size_t room = 0, carry_at = 0, carry = 0;
   bool first = true, done = false;
+
+  // Room for `need` bytes, the first `keep` kept.
+  void make_room(std::size_t need, std::size_t keep) {
+    if (need <= room) return;
+    const std::size_t n = std::max(need, 2 * room);
+    std::unique_ptr<char[]> b(new char[n]);
+    if (keep > 0) std::memcpy(b.get(), buf.get(), keep);
+    buf = std::move(b);
+    room = n;
+  }
 
   // The next piece of whole lines; false at the end of the file.
   bool refill() {
-    if (left == 0 && carry.empty()) return false;
-    piece.swap(carry);
-    carry.clear();
-    std::size_t last = std::string::npos;
+    if (left == 0 && carry == 0) return false;
+    if (carry > 0) std::memmove(buf.get(), buf.get() + carry_at, carry);
+    std::size_t size = carry, last = std::string::npos;
+    carry = 0;
     while (left > 0) {
       const std::size_t want = static_cast<std::size_t>(std::min<std::uint64_t>(left, 1u << 20));
-      const std::size_t old = piece.size();
-      piece.resize(old + want);
-      const ssize_t n = ::read(fd, piece.data() + old, want);
+      make_room(size + want, size);
+      const ssize_t n = ::read(fd, buf.get() + size, want);
       if (n <= 0) {
-        piece.resize(old);
         if (n < 0) throw InputError("file", path, "a readable CSV file (reading it failed)", file_only(path));
         left = 0;
         break;
       }
-      piece.resize(old + static_cast<std::size_t>(n));
+      const std::size_t old = size;
+      size += static_cast<std::size_t>(n);
       left -= static_cast<std::uint64_t>(n);
-      last = piece.rfind('\n');
-      if (last != std::string::npos && last >= old) break;  // a line end in what was just read
-      if (last != std::string::npos) break;
+      // a line end in what was just read (the carry before it has none)
+      if (const void* lf = ::memrchr(buf.get() + old, '\n', static_cast<std::size_t>(n))) {
+        last = static_cast<std::size_t>(static_cast<const char*>(lf) - buf.get());
+        break;
+      }
     }
     if (left > 0 && last != std::string::npos) {
-      carry.assign(piece, last + 1, std::string::npos);
-      piece.resize(last + 1);
+      carry_at = last + 1;
+      carry = size - carry_at;
+      size = last + 1;
     }
-    std::string_view v(piece);
+    std::string_view v(buf.get(), size);
     if (first && v.size() >= 3 && v.substr(0, 3) == "\xEF\xBB\xBF") v.remove_prefix(3);  // UTF-8 byte-order mark
     first = false;
     parser.rebase(v);
@@ -455,8 +572,8 @@ struct CsvFileReader::Impl {
 };
 
 CsvFileReader::CsvFileReader(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink,
-                             bool form_only)
-    : p_(std::make_unique<Impl>(path, header, sink, form_only)) {
+                             bool form_only, CsvLineHook hook)
+    : p_(std::make_unique<Impl>(path, header, sink, form_only, hook)) {
   header = CsvTable{};
   header.file = path;
   p_->fd = ::open(path.c_str(), O_RDONLY | O_CLOEXEC);
@@ -481,8 +598,8 @@ bool CsvFileReader::next() {
 }
 
 std::size_t stream_csv_file(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink,
-                            bool form_only) {
-  CsvFileReader r(path, facts, header, sink, form_only);
+                            bool form_only, CsvLineHook hook) {
+  CsvFileReader r(path, facts, header, sink, form_only, hook);
   std::size_t rows = 0;
   while (r.next()) ++rows;
   return rows;

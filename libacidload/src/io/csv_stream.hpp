@@ -20,6 +20,17 @@ namespace acidload::io::detail {
 using CsvRowSink = std::function<void(const std::vector<std::string>& cells, const std::vector<int>& columns, int line,
                                       std::string_view line_text)>;
 
+//! A data row offered as its line's bytes before the parser reads it: `take` returns true when it
+//! took the row (the row is counted, the sink not called), false to leave it to the parser, which
+//! then reads it as if it had not been offered (cells to the sink, or its refusal). Only lines after
+//! the header that are neither blank nor comments are offered, without their line end (LF or CR LF).
+//! A hook must take only a line whose cells the parser would read plainly (no quotes, spaces, tabs
+//! or lone CR, the header's number of cells): it is handed nothing the parser would have checked.
+struct CsvLineHook {
+  bool (*take)(void* context, std::string_view line, int line_number) = nullptr;
+  void* context = nullptr;
+};
+
 //! What is known of a CSV file from one pass over its bytes: its size, modification time and a
 //! digest (FNV-1a, 64 bit) of every byte, to tell later whether it is still the file that was read.
 struct CsvFileFacts {
@@ -42,8 +53,9 @@ class CsvFileReader {
  public:
   //! `form_only`: a data row whose form is right is passed over (counted, the sink not called); a
   //! row with a mistake in its form is read and refused as always.
+  //! `hook`: data rows offered to it first (see CsvLineHook); not with `form_only`.
   CsvFileReader(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink,
-                bool form_only = false);
+                bool form_only = false, CsvLineHook hook = {});
   ~CsvFileReader();
   CsvFileReader(const CsvFileReader&) = delete;
   CsvFileReader& operator=(const CsvFileReader&) = delete;
@@ -56,7 +68,7 @@ class CsvFileReader {
 
 //! Every data row of the file to `sink` (a CsvFileReader read to the end); returns their number.
 std::size_t stream_csv_file(const std::string& path, const CsvFileFacts& facts, CsvTable& header, const CsvRowSink& sink,
-                            bool form_only = false);
+                            bool form_only = false, CsvLineHook hook = {});
 
 //! A cell's text as its node's scalar: a bare number gets the header's `unit` ("500" → "500 ppmv").
 void cell_scalar(const std::string& cell, const std::string& unit, std::string& out);
