@@ -97,8 +97,8 @@ FuelGas resolve(const FuelAnalysis& a) {
     for (std::size_t k = 0; k < a.halocarbons.size(); ++k) {  // per compound, by formula: x_Cl += x_i n_Cl,i
       const auto& h = a.halocarbons[k];
       if (pass == 0) {
-        const Formula& f0 = halocarbon_formula(find_halocarbon(h.compound));
-        compounds.push_back({&f0, molar_mass(f0)});
+        const Halocarbon& entry = find_halocarbon(h.compound);
+        compounds.push_back({&halocarbon_formula(entry), halocarbon_molar_mass(entry)});
       }
       const Formula& fm = *compounds[k].formula;
       const double xc = to_wet_mole_fraction(h.amount, compounds[k].molar_mass, c);

@@ -48,17 +48,30 @@ const Halocarbon& find_halocarbon(std::string_view key) {
   throw InputError("compound", std::string(key), "a halocarbon name or formula: " + known);
 }
 
-const Formula& halocarbon_formula(const Halocarbon& entry) {
-  static const std::vector<Formula> parsed = [] {
-    std::vector<Formula> f;
-    for (const auto& h : halocarbon_table()) f.push_back(parse_formula(h.formula));
-    return f;
+namespace {
+struct Parsed {
+  Formula formula;
+  double molar_mass;
+};
+// each entry's formula and molar mass, made once per process
+const Parsed& parsed(const Halocarbon& entry) {
+  static const std::vector<Parsed> p = [] {
+    std::vector<Parsed> v;
+    for (const auto& h : halocarbon_table()) {
+      const Formula f = parse_formula(h.formula);
+      v.push_back({f, molar_mass(f)});
+    }
+    return v;
   }();
   const auto& t = halocarbon_table();
   const auto k = static_cast<std::size_t>(&entry - t.data());
   if (k >= t.size()) throw Error("internal: a halocarbon that is not an entry of the table");
-  return parsed[k];
+  return p[k];
 }
+}  // namespace
+
+const Formula& halocarbon_formula(const Halocarbon& entry) { return parsed(entry).formula; }
+double halocarbon_molar_mass(const Halocarbon& entry) { return parsed(entry).molar_mass; }
 
 HalogenTotals halogen_totals(const std::vector<CompoundFraction>& compounds) {
   HalogenTotals t;

@@ -20,6 +20,8 @@ const Halocarbon& find_halocarbon(std::string_view name_or_formula);
 //! The parsed formula of an entry of halocarbon_table() (parsed once per process: a gas is resolved
 //! for every new row of a record).
 const Formula& halocarbon_formula(const Halocarbon& entry);
+//! Its molar mass [kg/mol] (molar_mass of the formula, made once).
+double halocarbon_molar_mass(const Halocarbon& entry);
 
 //! Elemental chlorine and fluorine carried by a set of compounds.
 struct HalogenTotals {
