@@ -128,3 +128,14 @@ TEST_CASE("water dew point and humidity are inverse") {
   const double x = water::water_fraction_at_humidity(1.0, 313.15, 101325);
   CHECK(water::dew_point(x, 101325) == doctest::Approx(313.15).epsilon(1e-12));
 }
+
+TEST_CASE("a halocarbon's formula and molar mass made once are those of its formula's text") {
+  // the cache resolve uses against parsing the table's text anew, bit for bit
+  for (const Halocarbon& h : halocarbon_table()) {
+    const Formula f = parse_formula(h.formula);
+    CHECK(halocarbon_formula(h).atoms == f.atoms);
+    CHECK(halocarbon_molar_mass(h) == molar_mass(f));
+  }
+  Halocarbon stranger{"x", "CCl4"};
+  CHECK_THROWS_AS(halocarbon_molar_mass(stranger), Error);
+}

@@ -1,5 +1,6 @@
 #include "acidload/core/halocarbons.hpp"
 
+#include <functional>
 #include <string>
 
 #include "acidload/core/error.hpp"
@@ -64,9 +65,10 @@ const Parsed& parsed(const Halocarbon& entry) {
     return v;
   }();
   const auto& t = halocarbon_table();
-  const auto k = static_cast<std::size_t>(&entry - t.data());
-  if (k >= t.size()) throw Error("internal: a halocarbon that is not an entry of the table");
-  return p[k];
+  const std::less<const Halocarbon*> before;  // a total order of pointers, where < of unrelated ones is not
+  if (before(&entry, t.data()) || !before(&entry, t.data() + t.size()))
+    throw Error("internal: a halocarbon that is not an entry of the table");
+  return p[static_cast<std::size_t>(&entry - t.data())];
 }
 }  // namespace
 
