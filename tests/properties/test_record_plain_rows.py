@@ -18,18 +18,11 @@ _helpers = importlib.util.module_from_spec(_spec)
 _spec.loader.exec_module(_helpers)
 acidload = _helpers.need_acidload()
 _core = acidload._core
-ROOT = _helpers.ROOT
 
 
 def site_with(record_yaml):
     """The demo site's case with its record replaced (variants, uncertainty, run dropped)."""
-    keep, skip = [], False
-    for line in (ROOT / "cases" / "demo-site.yaml").read_text().splitlines():
-        if line and not line.startswith((" ", "#")):
-            skip = line.split(":")[0] in ("record", "variants", "uncertainty", "run")
-        if not skip:
-            keep.append(line)
-    return "\n".join(keep) + "\n" + record_yaml + "run:\n  output-interval: 24 h\n"
+    return _helpers.demo_site_base() + "\n" + record_yaml + "run:\n  output-interval: 24 h\n"
 
 
 def number(draw, low, high):

@@ -23,20 +23,13 @@ _helpers = importlib.util.module_from_spec(_spec)
 _spec.loader.exec_module(_helpers)
 acidload = _helpers.need_acidload()
 _core = acidload._core
-ROOT = _helpers.ROOT
 
 PROPERTY = settings(max_examples=60, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 
 
 def site_with_record(csv_path):
     """The demo site's case with its record replaced by the CSV file (variants, uncertainty, run dropped)."""
-    keep, skip = [], False
-    for line in (ROOT / "cases" / "demo-site.yaml").read_text().splitlines():
-        if line and not line.startswith((" ", "#")):
-            skip = line.split(":")[0] in ("record", "variants", "uncertainty", "run")
-        if not skip:
-            keep.append(line)
-    return "\n".join(keep) + f"\nrecord:\n  file: {csv_path}\nrun:\n  output-interval: 24 h\n"
+    return _helpers.demo_site_base() + f"\nrecord:\n  file: {csv_path}\nrun:\n  output-interval: 24 h\n"
 
 
 # cells: mostly good figures, now and then one that is out of range, not a number, empty or quoted

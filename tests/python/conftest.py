@@ -42,6 +42,18 @@ def need_acidload():
     return need("acidload")
 
 
+def demo_site_base():
+    """The demo site's case (cases/demo-site.yaml) without its record, variants, uncertainty and run
+    sections, for a test to give its own."""
+    keep, skip = [], False
+    for line in (ROOT / "cases" / "demo-site.yaml").read_text().splitlines():
+        if line and not line.startswith((" ", "#")):
+            skip = line.split(":")[0] in ("record", "variants", "uncertainty", "run")
+        if not skip:
+            keep.append(line)
+    return "\n".join(keep)
+
+
 def acidload_program():
     """The acidload program to compare with: $ACIDLOAD_PROGRAM (scripts/test sets it), else the CMake
     build's. Skips without it, or fails under CI=true."""

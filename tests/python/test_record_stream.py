@@ -8,20 +8,14 @@ import subprocess
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
-from conftest import ROOT, acidload_program, need_acidload
+from conftest import acidload_program, demo_site_base, need_acidload
 
 ROWS = 20_000
 
 
 def site_with_record(csv_path):
     """The demo site's case with its record replaced by the CSV file (variants, uncertainty, run dropped)."""
-    keep, skip = [], False
-    for line in (ROOT / "cases" / "demo-site.yaml").read_text().splitlines():
-        if line and not line.startswith((" ", "#")):
-            skip = line.split(":")[0] in ("record", "variants", "uncertainty", "run")
-        if not skip:
-            keep.append(line)
-    return "\n".join(keep) + f"\nrecord:\n  file: {csv_path}\n"
+    return demo_site_base() + f"\nrecord:\n  file: {csv_path}\n"
 
 
 def write_record(folder, bad_row, column, cell):
