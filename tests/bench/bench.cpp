@@ -23,6 +23,7 @@
 #include <random>
 #include <string>
 #include <thread>
+#include <utility>
 #include <vector>
 
 #include "acidload/acidload.hpp"
@@ -271,6 +272,18 @@ std::vector<double> draws_without_stop(const EngineCase& c0, const std::vector<U
   return out;
 }
 
+// Each segment's hours and oil rates (its transfer made here, outside the timed loops): the inputs the
+// minimal loop and the oil balance are given.
+std::pair<std::vector<double>, std::vector<OilRates>> hours_and_rates(const std::vector<Segment>& record, const ModelParameters& m) {
+  std::vector<double> hours;
+  std::vector<OilRates> rates;
+  for (const Segment& s : record) {
+    hours.push_back(s.hours);
+    rates.push_back(oil_rates(transfer(s.fuel, s.operation, m.transfer), m.oxidation, s.oil_temperature, s.oil_consumption, true));
+  }
+  return {hours, rates};
+}
+
 // One side of part 5 run once, for an instruction count that the machine's load does not move
 // (valgrind --tool=callgrind acidload_bench --limit-side SIDE); prints the end base.
 int limit_side(const char* side, int repeats) {
@@ -280,12 +293,9 @@ int limit_side(const char* side, int repeats) {
   const OilCharge c = charge();
   const ModelParameters m = model();
   const OilBalance k = balance_constants(c.oil);
-  std::vector<double> hours;
-  std::vector<OilRates> rates;
-  for (const Segment& s : record) {
-    hours.push_back(s.hours);
-    rates.push_back(oil_rates(transfer(s.fuel, s.operation, m.transfer), m.oxidation, s.oil_temperature, s.oil_consumption, true));
-  }
+  const auto inputs = hours_and_rates(record, m);  // not a structured binding: the lambdas below capture them
+  const std::vector<double>& hours = inputs.first;
+  const std::vector<OilRates>& rates = inputs.second;
   const OilState start = fresh_oil(c.oil, c.mass);
   double base = 0;
   const double a = thread_cpu();
@@ -369,12 +379,9 @@ int main(int argc, char** argv) {
   const OilCharge c = charge();
   const ModelParameters m = model();
   const OilBalance k = balance_constants(c.oil);
-  std::vector<double> hours;
-  std::vector<OilRates> rates;
-  for (const Segment& s : year) {
-    hours.push_back(s.hours);
-    rates.push_back(oil_rates(transfer(s.fuel, s.operation, m.transfer), m.oxidation, s.oil_temperature, s.oil_consumption, true));
-  }
+  const auto inputs = hours_and_rates(year, m);  // not a structured binding: the lambdas below capture them
+  const std::vector<double>& hours = inputs.first;
+  const std::vector<OilRates>& rates = inputs.second;
   const OilState start = fresh_oil(c.oil, c.mass);
   Minimal lim{};
   OilState bal{};
