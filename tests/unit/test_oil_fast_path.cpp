@@ -157,3 +157,66 @@ TEST_CASE("advance refuses exactly the rates the named checks refuse: every fiel
       }
     }
 }
+
+TEST_CASE("advance with a step memo gives advance's bits over runs of segments, repeated and changing") {
+  // The memo keeps the one-piece step's coefficients while the mass, the hours and whether the
+  // antioxidant is out repeat; it must never change a bit. Runs of segments on one set of rates, with
+  // the hours repeating or changing, the antioxidant running out part-way, and the mass changing (no
+  // makeup, so the oil falls), are advanced twice: without a memo and with one memo per rates; the
+  // memo is cleared whenever the rates are drawn anew, as the timeline's rate cache does.
+  std::mt19937_64 rng(19022);
+  std::uniform_real_distribution<double> u(0.0, 1.0);
+  auto log_uniform = [&](double lo, double hi) { return lo * std::pow(hi / lo, u(rng)); };
+  int reused = 0;
+  for (int run = 0; run < 2000; ++run) {
+    OilBalance k;
+    k.fresh_base = 4 + 20 * u(rng);
+    k.base_floor = u(rng) < 0.2 ? 0.0 : k.fresh_base * 0.5 * u(rng);
+    k.fresh_additive = 2 * u(rng);
+    k.additive_depletion = u(rng) < 0.2 ? 0.0 : log_uniform(1e-5, 1e-1);
+    k.organic_neutralised_share = u(rng);
+    OilState s;
+    s.mass = log_uniform(50, 5000);
+    s.base = k.base_floor + (k.fresh_base - k.base_floor) * u(rng);
+    s.weak_acid = 3 * u(rng);
+    s.salts = 5 * u(rng);
+    s.additive_acidity = k.fresh_additive * u(rng);
+    s.antioxidant = u(rng) < 0.3 ? 1e-3 * u(rng) : u(rng);
+    OilState plain = s, memoised = s;
+    OilLedger lp, lm;
+    StepMemo memo;
+    OilRates r;
+    for (int seg = 0; seg < 60; ++seg) {
+      if (seg % 20 == 0) {  // new rates: the memo is cleared
+        r = OilRates{};
+        r.continuous_makeup = u(rng) < 0.8;
+        r.consumption = plain.mass * log_uniform(1e-6, 1e-3);
+        r.strong_acid = u(rng) < 0.3 ? 0.0 : log_uniform(1e-4, 1e1);
+        r.sulfurous_fresh = u(rng) < 0.3 ? 0.0 : log_uniform(1e-4, 1e1);
+        r.nitration = log_uniform(1e-3, 1e2);
+        r.oxidation = log_uniform(1e-4, 1e-2);
+        r.organic_acid = log_uniform(1e-5, 1e-2);
+        r.antioxidant_depletion = log_uniform(1e-5, 1e-1);
+        r.depleted_factor = 1 + 9 * u(rng);
+        memo.clear();
+      }
+      const double hours = u(rng) < 0.7 ? 1.0 : log_uniform(1e-2, 50);
+      const SegmentOutcome op = advance(plain, k, r, hours, lp);
+      const bool was_filled = memo.filled;
+      const double memo_mass = memo.mass, memo_hours = memo.hours, mass_before = memoised.mass;
+      const SegmentOutcome om = advance(memoised, k, r, hours, lm, memo);
+      if (was_filled && memo_mass == mass_before && memo_hours == hours) ++reused;
+      const bool ok = same_state(plain, memoised) && same_ledger(lp, lm) &&
+                      same_bits(op.floor_reached_at, om.floor_reached_at) &&
+                      same_bits(op.acid_cleared_at, om.acid_cleared_at) &&
+                      same_bits(op.antioxidant_spent_at, om.antioxidant_spent_at) && op.end_regime == om.end_regime;
+      if (!ok) {
+        MESSAGE("run " << run << ", segment " << seg << ": hours " << hours << ", base " << plain.base << " / "
+                       << memoised.base);
+        REQUIRE(ok);
+      }
+    }
+  }
+  MESSAGE(reused << " segments found their coefficients in the memo");
+  CHECK(reused > 20000);
+}

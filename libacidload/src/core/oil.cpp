@@ -448,73 +448,97 @@ void advance_piece(OilState& s, Regime g, const Context& c, const Equations& e, 
 // written out so that each of the three distinct exponentials is evaluated once and the crossing
 // tests reuse the end values: the same operations in the same order, so bit for bit the results of
 // the general path. Returns false, changing nothing, where a switch may fall inside the segment.
-bool advance_steady(OilState& s, const OilBalance& k, const OilRates& r, double t, OilLedger& ledger) {
-  // make_context() and equations() written out for this case (c = 0, no piece memo set up, only the
-  // coefficients used): each value is the same expression of the same operands as there.
-  // z: a1·(1/M0) and l1·(1/M0) of the equations without a 1/M term, 0·(1/M0) there: +0 exactly for
-  // any mass whose inverse is finite (above 5.6e-309 kg), so the product is not formed; the additions of z stay.
-  const double m0 = s.mass, z = 0.0;
+// The coefficients of that step: what depends on the constants, the rates, the mass m0, the length t
+// and whether the antioxidant reserve is out (s.antioxidant ≤ 0), not on the rest of the state.
+// make_context() and equations() written out for this case (c = 0, no piece memo set up, only the
+// coefficients used): each value is the same expression of the same operands as there.
+// z: a1·(1/M0) and l1·(1/M0) of the equations without a 1/M term, 0·(1/M0) there: +0 exactly for
+// any mass whose inverse is finite (above 5.6e-309 kg), so the product is not formed; the additions of z stay.
+inline void steady_coefficients(detail::SteadyCoefficients& c, const OilBalance& k, const OilRates& r, double m0, double t,
+                                bool antioxidant_out) {
+  const double z = 0.0;
   const double inv_m0 = 1 / m0;  // c.mass.inv
   const double km = r.consumption * inv_m0;  // c.makeup_rate
-  const double makeup_base = r.consumption * (k.fresh_base - k.base_floor);
-  const double so2_coeff = so2_coefficient(k, r);
-  const bool spent = s.antioxidant <= 0 && r.antioxidant_depletion > km;  // spent_at()
-  const double f = spent ? depleted_factor_of(r.depleted_factor, km, r.antioxidant_depletion) : 1.0;
-  const double oxidation = r.oxidation * f, organic = r.organic_acid * f;
+  c.makeup_base = r.consumption * (k.fresh_base - k.base_floor);
+  c.so2_coeff = so2_coefficient(k, r);
+  c.depletion_above_makeup = r.antioxidant_depletion > km;
+  c.spent = antioxidant_out && c.depletion_above_makeup;  // spent_at()
+  const double f = c.spent ? depleted_factor_of(r.depleted_factor, km, r.antioxidant_depletion) : 1.0;
+  const double oxidation = r.oxidation * f;
+  c.organic = r.organic_acid * f;
+  const double phi = k.organic_neutralised_share;
+  c.Ab = (-phi * c.organic + km * k.fresh_base) + (-r.strong_acid + c.so2_coeff * k.base_floor) * inv_m0;
+  c.Lb = km + c.so2_coeff * inv_m0;
+  const EPhi2 eb = E_phi2(c.Lb * t);  // E(−Λ_b t), and φ2(Λ_b t) for the base's integral
+  c.Eb = eb.E, c.phi2b = eb.phi2;
+  c.Lk = km + z;
+  const EPhi2 ek = E_phi2(c.Lk * t);
+  c.Ek = ek.E, c.phi2k = ek.phi2;
+  c.Aa = (km - r.antioxidant_depletion) + z;
+  c.Aw = (1 - phi) * c.organic + z;
+  c.Au = km * k.fresh_base + z;
+  // Mass::integral with c = 0 is m0·t − 0.5·0·t·t = m0·t exactly (t > 0 finite: the product is +0)
+  const double R = r.strong_acid, IM = m0 * t, cons = r.consumption;
+  c.base_added = cons * k.fresh_base * t;
+  c.consumed_fixed = R * t + phi * c.organic * IM;  // the ledger's sums below add so2 to these, left to right
+  c.entered_fixed = R * t + c.organic * IM;
+  c.floor_t = k.base_floor * t;
+  c.Ao = oxidation + z, c.An = 0.0 + r.nitration * inv_m0;
+  c.Ad = km * k.fresh_additive + z, c.Ld = (km + k.additive_depletion) + z;
+  c.Ed = expm1_over_x(-c.Ld * t);
+}
+
+// The step itself under those coefficients (s.mass is their m0, t their length).
+inline bool steady_step(OilState& s, const OilBalance& k, const OilRates& r, const detail::SteadyCoefficients& c, double t,
+                        OilLedger& ledger) {
   // regime_at(): above the floor, or at it with the makeup lifting the base again
   if (!(s.base > k.base_floor)) {
-    if (s.strong_acid > 0 || r.strong_acid > makeup_base) return false;
-    if (makeup_base - r.strong_acid < k.organic_neutralised_share * organic * s.mass) return false;
+    if (s.strong_acid > 0 || r.strong_acid > c.makeup_base) return false;
+    if (c.makeup_base - r.strong_acid < k.organic_neutralised_share * c.organic * s.mass) return false;
   }
-  const double phi = k.organic_neutralised_share;
   // the base, and its crossing of the floor (as crossing(): none if both ends lie on one side)
-  const double Ab = (-phi * organic + km * k.fresh_base) + (-r.strong_acid + so2_coeff * k.base_floor) * inv_m0;
-  const double Lb = km + so2_coeff * inv_m0;
-  const double slope_b = Ab - Lb * s.base;
-  const EPhi2 eb = E_phi2(Lb * t);  // E(−Λ_b t), and φ2(Λ_b t) for the base's integral
-  const double yb = s.base + slope_b * t * eb.E;
+  const double slope_b = c.Ab - c.Lb * s.base;
+  const double yb = s.base + slope_b * t * c.Eb;
   if (!((s.base - k.base_floor) * (yb - k.base_floor) > 0 || s.base == k.base_floor)) return false;
-  // every equation with the makeup rate alone as Λ shares E(−Λt)
-  const double Lk = km + z;
-  const EPhi2 ek = E_phi2(Lk * t);
-  const double Ek = ek.E;
   double anti = 0;
-  if (!spent) {
-    const double Aa = (km - r.antioxidant_depletion) + z;
-    anti = s.antioxidant + (Aa - Lk * s.antioxidant) * t * Ek;
-    const bool watched = s.antioxidant > 0 && r.antioxidant_depletion > km;
+  if (!c.spent) {
+    anti = s.antioxidant + (c.Aa - c.Lk * s.antioxidant) * t * c.Ek;
+    const bool watched = s.antioxidant > 0 && c.depletion_above_makeup;
     if (watched && !(s.antioxidant * anti > 0 || s.antioxidant == 0)) return false;
     anti = clamp01(anti);
   }
-  const double b_int = s.base * t + slope_b * t * t * eb.phi2;
-  const double Aw = (1 - phi) * organic + z, slope_w = Aw - Lk * s.weak_acid;
-  const double yw = s.weak_acid + slope_w * t * Ek, w_int = s.weak_acid * t + slope_w * t * t * ek.phi2;
-  const double Au = km * k.fresh_base + z, u0 = s.base + s.salts;
-  const double u = u0 + (Au - Lk * u0) * t * Ek;
-  // Mass::integral with c = 0 is m0·t − 0.5·0·t·t = m0·t exactly (t > 0 finite: the product is +0)
-  const double R = r.strong_acid, IM = m0 * t, cons = r.consumption;
-  const double so2 = so2_coeff * (b_int - k.base_floor * t);
-  ledger.base_added += cons * k.fresh_base * t;
+  const double b_int = s.base * t + slope_b * t * t * c.phi2b;
+  const double slope_w = c.Aw - c.Lk * s.weak_acid;
+  const double yw = s.weak_acid + slope_w * t * c.Ek, w_int = s.weak_acid * t + slope_w * t * t * c.phi2k;
+  const double u0 = s.base + s.salts;
+  const double u = u0 + (c.Au - c.Lk * u0) * t * c.Ek;
+  const double cons = r.consumption;
+  const double so2 = c.so2_coeff * (b_int - c.floor_t);
+  ledger.base_added += c.base_added;
   ledger.base_removed += cons * b_int;
-  ledger.base_consumed += R * t + phi * organic * IM + so2;
-  ledger.acid_entered += R * t + organic * IM + so2;
+  ledger.base_consumed += c.consumed_fixed + so2;
+  ledger.acid_entered += c.entered_fixed + so2;
   ledger.sulfurous_taken_up += so2;
   ledger.acid_removed += cons * (s.strong_acid * t + w_int);
-  const double Ao = oxidation + z, An = 0.0 + r.nitration * inv_m0;
-  const double Ad = km * k.fresh_additive + z, Ld = (km + k.additive_depletion) + z;
-  s.mass = m0;  // Mass::at with c = 0: m0 − 0·t = m0 exactly
+  // s.mass stays: Mass::at with c = 0 is m0 − 0·t = m0 exactly
   s.base = yb;
   s.weak_acid = yw;
   s.salts = u - yb;
-  s.oxidation = s.oxidation + (Ao - Lk * s.oxidation) * t * Ek;
-  s.nitration = s.nitration + (An - Lk * s.nitration) * t * Ek;
-  s.additive_acidity = s.additive_acidity + (Ad - Ld * s.additive_acidity) * t * expm1_over_x(-Ld * t);
+  s.oxidation = s.oxidation + (c.Ao - c.Lk * s.oxidation) * t * c.Ek;
+  s.nitration = s.nitration + (c.An - c.Lk * s.nitration) * t * c.Ek;
+  s.additive_acidity = s.additive_acidity + (c.Ad - c.Ld * s.additive_acidity) * t * c.Ed;
   s.antioxidant = anti;
   if (s.base < k.base_floor) {  // rounding at the very end
     s.salts += s.base - k.base_floor;
     s.base = k.base_floor;
   }
   return true;
+}
+
+bool advance_steady(OilState& s, const OilBalance& k, const OilRates& r, double t, OilLedger& ledger) {
+  detail::SteadyCoefficients c;
+  steady_coefficients(c, k, r, s.mass, t, s.antioxidant <= 0);
+  return steady_step(s, k, r, c, t, ledger);
 }
 }  // namespace
 
@@ -537,7 +561,9 @@ double base_rate(const OilState& s, const OilBalance& k, const OilRates& r) {
   return e.a0 + e.a1 / s.mass - (e.l0 + e.l1 / s.mass) * s.base;
 }
 
-SegmentOutcome advance(OilState& s, const OilBalance& k, const OilRates& r, double hours, OilLedger& ledger) {
+namespace {
+// advance()'s checks of its arguments, before either path.
+inline void check_step(const OilState& s, const OilBalance& k, const OilRates& r, double hours) {
   if (!rates_fine(r)) validate(r);
   if (!finite_non_negative(hours)) check::non_negative("segment hours", hours);
   if (!(s.mass > 0 && s.mass <= std::numeric_limits<double>::max())) check::positive("oil mass", s.mass);
@@ -547,7 +573,26 @@ SegmentOutcome advance(OilState& s, const OilBalance& k, const OilRates& r, doub
     throw InputError("segment hours", format_value(hours) + " h",
                      "a stretch without top-up that burns less than 90 % of the oil (" +
                          format_value(0.9 * s.mass / r.consumption) + " h at this consumption)");
+}
+}  // namespace
+
+SegmentOutcome advance(OilState& s, const OilBalance& k, const OilRates& r, double hours, OilLedger& ledger) {
+  check_step(s, k, r, hours);
   if (r.continuous_makeup && hours > 0 && advance_steady(s, k, r, hours, ledger)) return {};  // end_regime: above_floor
+  return detail::advance_by_pieces(s, k, r, hours, ledger);
+}
+
+SegmentOutcome advance(OilState& s, const OilBalance& k, const OilRates& r, double hours, OilLedger& ledger, StepMemo& memo) {
+  check_step(s, k, r, hours);
+  if (r.continuous_makeup && hours > 0) {
+    // the key: mass and hours are positive and finite here, so == compares their bits
+    const bool out = s.antioxidant <= 0;
+    if (!(memo.filled && memo.mass == s.mass && memo.hours == hours && memo.antioxidant_out == out)) {
+      steady_coefficients(memo.c, k, r, s.mass, hours, out);
+      memo.filled = true, memo.mass = s.mass, memo.hours = hours, memo.antioxidant_out = out;
+    }
+    if (steady_step(s, k, r, memo.c, hours, ledger)) return {};  // end_regime: above_floor
+  }
   return detail::advance_by_pieces(s, k, r, hours, ledger);
 }
 

@@ -130,7 +130,7 @@ std::uint64_t hash(const Segment& s, double starts_per_hour) {
   return h ^ (h >> 33);
 }
 
-// The transfer and rates of recent operating states, reused when a state recurs: at once when it
+// The transfer, rates and step coefficients of recent operating states, reused when a state recurs: at once when it
 // repeats the last segment's (long runs of identical rows), otherwise from a small four-way
 // set-associative table by a hash of the state (daily load cycles, quantised readings), each hit
 // confirmed field by field. Exact: transfer and oil_rates are pure functions of the state and of the
@@ -146,6 +146,8 @@ class RateCache {
   const Transfer& transfer() const { return entries_[last_].transfer; }
   const OilRates& rates() const { return entries_[last_].rates; }
   double oil_consumption() const { return entries_[last_].key.oil_consumption; }
+  // The last looked-up state's step coefficients, for advance(): they belong to its rates.
+  StepMemo& memo() { return entries_[last_].memo; }
 
   const OilRates& of(const Segment& s, const OilCharge& charge, const ModelParameters& model) {
     const double starts_per_hour = acidload::starts_per_hour(s);
@@ -174,6 +176,7 @@ class RateCache {
     e.key = operating_state(s, starts_per_hour);
     e.transfer = acidload::transfer(e.key.fuel, e.key.op, model.transfer, false);
     e.rates = oil_rates(e.transfer, model.oxidation, s.oil_temperature, s.oil_consumption, charge.continuous_makeup, false);
+    e.memo.clear();  // new rates: the coefficients of the state this entry held no longer apply
     return e.rates;
   }
 
@@ -182,6 +185,7 @@ class RateCache {
     OperatingState key;
     Transfer transfer;
     OilRates rates;
+    StepMemo memo;  // advance()'s coefficients under these rates (and the run's constant oil balance)
   };
   struct Set {
     std::array<std::uint64_t, ways> hash{};
@@ -392,7 +396,7 @@ struct Runner {
         if (o.floor_reached_at < 0 && x.strong_acid == 0) dt = rest;  // the base stayed above its floor
         else if (o.floor_reached_at > dt) dt = o.floor_reached_at;    // no free acid before the floor
       }
-      const SegmentOutcome out = advance(state, k, r, dt, result.ledger);
+      const SegmentOutcome out = advance(state, k, r, dt, result.ledger, cache.memo());
       const double so2_mol = (result.ledger.sulfurous_taken_up - so2_before) / so2_g_koh_per_mol;
       const bool counting = !current().first;
       if (out.floor_reached_at >= 0 && current().floor_reached_at < 0) current().floor_reached_at = oil_h + out.floor_reached_at;

@@ -142,6 +142,37 @@ OilBalance balance_constants(const OilProperties& oil);
 //! crossing and the clearing of free acid found inside the segment). Adds to the ledger.
 SegmentOutcome advance(OilState& state, const OilBalance& k, const OilRates& r, double hours, OilLedger& ledger);
 
+namespace detail {
+//! What advance()'s one-piece step (continuous makeup, one regime) takes from the balance's constants,
+//! the rates, the oil mass, the step's length and whether the antioxidant reserve is out: the
+//! equations' coefficients (dy/dt = A − Λ·y), the series E(−Λt) and φ2(Λt), and the ledger's parts that
+//! do not depend on the state. Filled and read by advance() only.
+struct SteadyCoefficients {
+  double makeup_base = 0, organic = 0, so2_coeff = 0;
+  double Ab = 0, Lb = 0, Eb = 0, phi2b = 0;  // the reactive base
+  double Lk = 0, Ek = 0, phi2k = 0;          // every equation with the makeup rate alone as Λ
+  double Aa = 0, Aw = 0, Au = 0, Ao = 0, An = 0, Ad = 0, Ld = 0, Ed = 0;
+  double base_added = 0, consumed_fixed = 0, entered_fixed = 0, floor_t = 0;
+  bool spent = false, depletion_above_makeup = false;
+};
+}  // namespace detail
+
+//! The one-piece step's coefficients kept across segments: where the mass, the step's length and
+//! whether the antioxidant is out repeat (hourly segments of one operating state), advance() with a memo
+//! skips recomputing them. Belongs to one OilBalance and one OilRates: clear() it when either changes.
+struct StepMemo {
+  void clear() { filled = false; }
+  bool filled = false;
+  double mass = 0, hours = 0;
+  bool antioxidant_out = false;
+  detail::SteadyCoefficients c{};
+};
+
+//! advance() reusing `memo`'s coefficients where they apply (refilling them where not): the same
+//! results bit for bit. `memo` must have been used with these k and r only.
+SegmentOutcome advance(OilState& state, const OilBalance& k, const OilRates& r, double hours, OilLedger& ledger,
+                       StepMemo& memo);
+
 //! Values of the states a segment of constant rates would settle to (continuous makeup), or the
 //! state after `hours` when the mass falls (no steady state without makeup).
 OilState steady_state(const OilState& state, const OilBalance& k, const OilRates& r);
