@@ -454,7 +454,7 @@ void advance_piece(OilState& s, Regime g, const Context& c, const Equations& e, 
 // coefficients used): each value is the same expression of the same operands as there.
 // z: a1·(1/M0) and l1·(1/M0) of the equations without a 1/M term, 0·(1/M0) there: +0 exactly for
 // any mass whose inverse is finite (above 5.6e-309 kg), so the product is not formed; the additions of z stay.
-inline void steady_coefficients(detail::SteadyCoefficients& c, const OilBalance& k, const OilRates& r, double m0, double t,
+[[gnu::always_inline]] inline void steady_coefficients(detail::SteadyCoefficients& c, const OilBalance& k, const OilRates& r, double m0, double t,
                                 bool antioxidant_out) {
   const double z = 0.0;
   const double inv_m0 = 1 / m0;  // c.mass.inv
@@ -489,7 +489,7 @@ inline void steady_coefficients(detail::SteadyCoefficients& c, const OilBalance&
 }
 
 // The step itself under those coefficients (s.mass is their m0, t their length).
-inline bool steady_step(OilState& s, const OilBalance& k, const OilRates& r, const detail::SteadyCoefficients& c, double t,
+[[gnu::always_inline]] inline bool steady_step(OilState& s, const OilBalance& k, const OilRates& r, const detail::SteadyCoefficients& c, double t,
                         OilLedger& ledger) {
   // regime_at(): above the floor, or at it with the makeup lifting the base again
   if (!(s.base > k.base_floor)) {
@@ -535,6 +535,12 @@ inline bool steady_step(OilState& s, const OilBalance& k, const OilRates& r, con
   return true;
 }
 
+// The memo's refill, out of line: where the rates repeat it is the rare branch of advance() with a memo.
+[[gnu::noinline]] void refill(StepMemo& memo, const OilBalance& k, const OilRates& r, double m0, double t, bool out) {
+  steady_coefficients(memo.c, k, r, m0, t, out);
+  memo.filled = true, memo.mass = m0, memo.hours = t, memo.antioxidant_out = out;
+}
+
 bool advance_steady(OilState& s, const OilBalance& k, const OilRates& r, double t, OilLedger& ledger) {
   detail::SteadyCoefficients c;
   steady_coefficients(c, k, r, s.mass, t, s.antioxidant <= 0);
@@ -563,7 +569,7 @@ double base_rate(const OilState& s, const OilBalance& k, const OilRates& r) {
 
 namespace {
 // advance()'s checks of its arguments, before either path.
-inline void check_step(const OilState& s, const OilBalance& k, const OilRates& r, double hours) {
+[[gnu::always_inline]] inline void check_step(const OilState& s, const OilBalance& k, const OilRates& r, double hours) {
   if (!rates_fine(r)) validate(r);
   if (!finite_non_negative(hours)) check::non_negative("segment hours", hours);
   if (!(s.mass > 0 && s.mass <= std::numeric_limits<double>::max())) check::positive("oil mass", s.mass);
@@ -587,10 +593,8 @@ SegmentOutcome advance(OilState& s, const OilBalance& k, const OilRates& r, doub
   if (r.continuous_makeup && hours > 0) {
     // the key: mass and hours are positive and finite here, so == compares their bits
     const bool out = s.antioxidant <= 0;
-    if (!(memo.filled && memo.mass == s.mass && memo.hours == hours && memo.antioxidant_out == out)) {
-      steady_coefficients(memo.c, k, r, s.mass, hours, out);
-      memo.filled = true, memo.mass = s.mass, memo.hours = hours, memo.antioxidant_out = out;
-    }
+    if (!(memo.filled && memo.mass == s.mass && memo.hours == hours && memo.antioxidant_out == out))
+      refill(memo, k, r, s.mass, hours, out);
     if (steady_step(s, k, r, memo.c, hours, ledger)) return {};  // end_regime: above_floor
   }
   return detail::advance_by_pieces(s, k, r, hours, ledger);
