@@ -27,6 +27,19 @@ bool same_ledger(const OilLedger& a, const OilLedger& b) {
          same_bits(a.base_consumed, b.base_consumed) && same_bits(a.acid_entered, b.acid_entered) &&
          same_bits(a.acid_removed, b.acid_removed) && same_bits(a.sulfurous_taken_up, b.sulfurous_taken_up);
 }
+
+// Random balance constants: floors of zero and up to half the fresh base, additive depletion nil or
+// spread over four decades (both tests draw from it in the same order).
+OilBalance random_balance(std::mt19937_64& rng) {
+  std::uniform_real_distribution<double> u(0.0, 1.0);
+  OilBalance k;
+  k.fresh_base = 4 + 20 * u(rng);
+  k.base_floor = u(rng) < 0.2 ? 0.0 : k.fresh_base * 0.5 * u(rng);
+  k.fresh_additive = 2 * u(rng);
+  k.additive_depletion = u(rng) < 0.2 ? 0.0 : 1e-5 * std::pow(1e-1 / 1e-5, u(rng));
+  k.organic_neutralised_share = u(rng);
+  return k;
+}
 }  // namespace
 
 TEST_CASE("the one-piece path of advance gives the general path's bits on random segments") {
@@ -41,12 +54,7 @@ TEST_CASE("the one-piece path of advance gives the general path's bits on random
   int common = 0;
   const int n = 20000;
   for (int i = 0; i < n; ++i) {
-    OilBalance k;
-    k.fresh_base = 4 + 20 * u(rng);
-    k.base_floor = u(rng) < 0.2 ? 0.0 : k.fresh_base * 0.5 * u(rng);
-    k.fresh_additive = 2 * u(rng);
-    k.additive_depletion = u(rng) < 0.2 ? 0.0 : log_uniform(1e-5, 1e-1);
-    k.organic_neutralised_share = u(rng);
+    const OilBalance k = random_balance(rng);
     OilState s;
     s.mass = log_uniform(50, 5000);
     const double pick = u(rng);
@@ -169,12 +177,7 @@ TEST_CASE("advance with a step memo gives advance's bits over runs of segments, 
   auto log_uniform = [&](double lo, double hi) { return lo * std::pow(hi / lo, u(rng)); };
   int reused = 0;
   for (int run = 0; run < 2000; ++run) {
-    OilBalance k;
-    k.fresh_base = 4 + 20 * u(rng);
-    k.base_floor = u(rng) < 0.2 ? 0.0 : k.fresh_base * 0.5 * u(rng);
-    k.fresh_additive = 2 * u(rng);
-    k.additive_depletion = u(rng) < 0.2 ? 0.0 : log_uniform(1e-5, 1e-1);
-    k.organic_neutralised_share = u(rng);
+    const OilBalance k = random_balance(rng);
     OilState s;
     s.mass = log_uniform(50, 5000);
     s.base = k.base_floor + (k.fresh_base - k.base_floor) * u(rng);
